@@ -1,0 +1,163 @@
+/**
+ * Unit families and conversions (mass fraction, exchangeable charge, per soil volume, area rate,
+ * salinity). Factors come from `src/data/units.json`, each row with its definition and source.
+ *
+ * Source: SI and NIST SP 811 (Thompson & Taylor 2008); pound and acre from the 1959 international
+ * yard and pound agreement and NIST Handbook 44 App. C.
+ */
+import unitData from "../data/units.json";
+import { SoilError } from "./errors";
+import { nameTable } from "./names";
+import { BOUNDS, check, finite } from "./validate";
+
+export type UnitFamily = "mass_fraction" | "charge" | "per_volume" | "area_rate" | "salinity";
+
+export interface UnitDef {
+  readonly id: string;
+  readonly family: UnitFamily;
+  /** Amount of the family's base unit in one of this unit. */
+  readonly toBase: number;
+  readonly definition: string;
+  readonly source: string;
+}
+
+interface UnitRow {
+  id: string;
+  family: string;
+  aliases: string[];
+  factor?: number;
+  mass_kg?: number;
+  area_m2?: number;
+  definition: string;
+  source: string;
+}
+
+function rowFactor(row: UnitRow): number {
+  if (row.factor !== undefined) return row.factor;
+  if (row.mass_kg !== undefined && row.area_m2 !== undefined) {
+    // kg/ha per unit: mass over area, the area expressed in hectares.
+    return row.mass_kg / (row.area_m2 / 10000);
+  }
+  throw new Error(`unit row ${row.id} has no factor`);
+}
+
+export const UNITS: readonly UnitDef[] = (unitData.units as UnitRow[]).map((row) => ({
+  id: row.id,
+  family: row.family as UnitFamily,
+  toBase: rowFactor(row),
+  definition: row.definition,
+  source: row.source,
+}));
+
+const TABLE = nameTable(
+  (unitData.units as UnitRow[]).map((row, i) => ({ id: row.id, aliases: row.aliases, value: UNITS[i] as UnitDef })),
+);
+
+/** The unit ids of one family, for messages and help. */
+export function unitsOf(family: UnitFamily): string[] {
+  return UNITS.filter((u) => u.family === family).map((u) => u.id);
+}
+
+/** Looks up a unit by id or alias (case-insensitive). Throws UNKNOWN_NAME listing every unit. */
+export function unitById(word: string): UnitDef {
+  return TABLE.lookup(word, "unit");
+}
+
+/** Looks up a unit and requires it to be of one of `families`; otherwise UNIT_MISMATCH listing those units. */
+export function unitOfFamily(word: string, families: readonly UnitFamily[], argName: string): UnitDef {
+  const accepted = families.flatMap(unitsOf);
+  if (!TABLE.has(word)) {
+    throw new SoilError("UNKNOWN_NAME", `unknown unit "${word}" for ${argName}; use ${accepted.join(", ")}`);
+  }
+  const u = unitById(word);
+  if (!families.includes(u.family)) {
+    throw new SoilError("UNIT_MISMATCH", `${argName} "${word}" is not accepted here; use ${accepted.join(", ")}`);
+  }
+  return u;
+}
+
+/** Soil layer for converting between a concentration in soil and an amount per area. */
+export interface SoilLayer {
+  /** Layer depth, cm (> 0, ≤ 300). */
+  readonly depthCm?: number;
+  /** Dry bulk density, g/cm3 (= t/m3; > 0, ≤ 2.65). */
+  readonly bulkDensity?: number;
+}
+
+function needDepth(layer: SoilLayer, from: UnitDef, to: UnitDef): number {
+  if (layer.depthCm === undefined) {
+    throw new SoilError("MISSING_INPUT", `converting ${from.id} to ${to.id} needs depth_cm (the soil layer depth in cm)`);
+  }
+  return check(layer.depthCm, BOUNDS.depth());
+}
+
+function needDensity(layer: SoilLayer, from: UnitDef, to: UnitDef): number {
+  if (layer.bulkDensity === undefined) {
+    throw new SoilError("MISSING_INPUT", `converting ${from.id} to ${to.id} needs bulk_density (dry bulk density in g/cm3)`);
+  }
+  return check(layer.bulkDensity, BOUNDS.bulkDensity());
+}
+
+/**
+ * Converts `value` from one unit to another.
+ *
+ * Within a family the factor is exact. Between families:
+ * - mass fraction → area rate: kg/ha = mg/kg × depth_cm × bulk_density × 0.1 (soil mass of a layer
+ *   of 1 ha × d cm at density ρ is d × ρ × 10^5 kg);
+ * - per volume → mass fraction: mg/kg = mg/dm3 ÷ bulk_density;
+ * - per volume → area rate: kg/ha = mg/dm3 × depth_cm × 0.1.
+ * Charge ↔ mass needs an ion (SOIL.CMOL / SOIL.MGKG) and is refused here.
+ *
+ * @param value amount in `from`; any finite number (negative values are allowed for differences)
+ * @returns the same amount in `to`
+ * @throws UNKNOWN_NAME for an unknown unit; UNIT_MISMATCH between families that cannot be linked;
+ *   MISSING_INPUT when depth or density is needed but not given; OUT_OF_RANGE for a bad depth/density
+ * @example convertUnit(10, "mg/kg", "kg/ha", { depthCm: 15, bulkDensity: 1.3 }) //=> 19.5
+ * Source: definition (layer mass = depth × bulk density × area); NIST SP 811 for factors.
+ */
+export function convertUnit(value: number, fromWord: string, toWord: string, layer: SoilLayer = {}): number {
+  check(value, { name: "value" });
+  const from = unitById(fromWord);
+  const to = unitById(toWord);
+  const base = value * from.toBase;
+  const converted = convertBase(base, from, to, layer);
+  return finite(converted / to.toBase, "the converted value");
+}
+
+/** Converts an amount in `from`'s base unit into `to`'s base unit. */
+function convertBase(base: number, from: UnitDef, to: UnitDef, layer: SoilLayer): number {
+  if (from.family === to.family) return base;
+  const key = `${from.family}>${to.family}`;
+  switch (key) {
+    case "mass_fraction>area_rate":
+      return base * needDepth(layer, from, to) * needDensity(layer, from, to) * 0.1;
+    case "area_rate>mass_fraction":
+      return base / (needDepth(layer, from, to) * needDensity(layer, from, to) * 0.1);
+    case "per_volume>mass_fraction":
+      return base / needDensity(layer, from, to);
+    case "mass_fraction>per_volume":
+      return base * needDensity(layer, from, to);
+    case "per_volume>area_rate":
+      return base * needDepth(layer, from, to) * 0.1;
+    case "area_rate>per_volume":
+      return base / (needDepth(layer, from, to) * 0.1);
+    default: {
+      const hint =
+        from.family === "charge" || to.family === "charge"
+          ? "; charge and mass are linked through an ion: use SOIL.CMOL or SOIL.MGKG"
+          : "";
+      throw new SoilError("UNIT_MISMATCH", `cannot convert ${from.id} (${familyLabel(from.family)}) to ${to.id} (${familyLabel(to.family)})${hint}`);
+    }
+  }
+}
+
+function familyLabel(f: UnitFamily): string {
+  return (unitData.families as Record<string, { label: string }>)[f]?.label ?? f;
+}
+
+/** Converts an area rate between units (kg/ha, t/ha, g/m2, lb/ac, ton/ac). */
+export function convertRate(value: number, fromWord: string, toWord: string): number {
+  const from = unitOfFamily(fromWord, ["area_rate"], "unit");
+  const to = unitOfFamily(toWord, ["area_rate"], "unit");
+  return finite((value * from.toBase) / to.toBase, "the converted rate");
+}

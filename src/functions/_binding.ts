@@ -1,0 +1,341 @@
+/**
+ * The binding layer, written once and used by every SOIL function: argument shaping only.
+ *
+ * - every broadcast argument takes one value or a range; ranges pair element by element, a single
+ *   value pairs with every element, any other mismatch is #VALUE! naming both shapes;
+ * - blank in, blank out (a blank element of a numeric argument gives a blank result);
+ * - omitted optional arguments arrive as null (Excel) or undefined (engine) and take the default;
+ * - numeric text ("12.5") is accepted, other text is NOT_A_NUMBER;
+ * - core SoilErrors become host errors through one factory (CustomFunctions.Error in Excel, the
+ *   engine's own error value headless), with the code mapped once by `errorKindOf`.
+ */
+import { SoilError, errorKindOf, isSoilError, SpreadsheetErrorKind } from "../core/errors";
+
+/** What a host puts in one cell of an argument. */
+export type Cell = number | string | boolean | null | undefined | object;
+/** A range as hosts pass it: rows of cells. */
+export type Grid = Cell[][];
+/** An argument: a range, a single value, or nothing (omitted). */
+export type Arg = Grid | Cell;
+/** What a binding returns: rows of values; "" is a blank result. */
+export type Out = unknown[][];
+
+/** Creates and recognises host error values. */
+export interface HostErrors {
+  make(kind: SpreadsheetErrorKind, message: string): object;
+  is(value: unknown): boolean;
+}
+
+/** The error value used outside Excel until a host installs its own factory. */
+export class PlainHostError {
+  constructor(
+    readonly kind: SpreadsheetErrorKind,
+    readonly message: string,
+  ) {}
+}
+
+const plainErrors: HostErrors = {
+  make: (kind, message) => new PlainHostError(kind, message),
+  is: (v) => v instanceof PlainHostError,
+};
+
+/** In Excel's runtime, errors are CustomFunctions.Error with the matching code. */
+function excelErrors(): HostErrors | undefined {
+  if (typeof CustomFunctions === "undefined") return undefined;
+  return {
+    make: (kind, message) =>
+      new CustomFunctions.Error(
+        kind === "#N/A" ? CustomFunctions.ErrorCode.notAvailable : CustomFunctions.ErrorCode.invalidValue,
+        message,
+      ),
+    is: (v) => v instanceof CustomFunctions.Error,
+  };
+}
+
+let hostErrors: HostErrors | undefined;
+
+function errors(): HostErrors {
+  if (!hostErrors) hostErrors = excelErrors() ?? plainErrors;
+  return hostErrors;
+}
+
+/** Lets a host (the headless engine, a test) choose how errors are represented. */
+export function setHostErrors(factory: HostErrors): void {
+  hostErrors = factory;
+}
+
+export function hostErrorFor(e: unknown): object {
+  if (isSoilError(e)) return errors().make(errorKindOf(e.code), e.message);
+  const detail = e instanceof Error ? e.message : String(e);
+  return errors().make("#VALUE!", `internal error: ${detail}`);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Parameter declarations
+
+interface ParamBase {
+  readonly name: string;
+}
+export interface NumParam extends ParamBase {
+  readonly kind: "number";
+  readonly optional: boolean;
+  readonly default?: number;
+}
+export interface TextParam extends ParamBase {
+  readonly kind: "text";
+  readonly optional: boolean;
+  readonly default?: string;
+}
+/** A whole range taken as one value (a calibration table, a list of limits); not broadcast. */
+export interface RangeParam extends ParamBase {
+  readonly kind: "range";
+  readonly optional: boolean;
+}
+export type Param = NumParam | TextParam | RangeParam;
+
+export const num = (name: string) => ({ kind: "number", name, optional: false }) as const satisfies NumParam;
+/** Optional number; omitted gives `dflt` (or undefined, for core to apply its own method default). */
+export const optNum = (name: string, dflt?: number) =>
+  ({ kind: "number", name, optional: true, default: dflt }) as const satisfies NumParam;
+export const text = (name: string) => ({ kind: "text", name, optional: false }) as const satisfies TextParam;
+export const optText = (name: string, dflt?: string) =>
+  ({ kind: "text", name, optional: true, default: dflt }) as const satisfies TextParam;
+export const range = (name: string) => ({ kind: "range", name, optional: false }) as const satisfies RangeParam;
+export const optRange = (name: string) => ({ kind: "range", name, optional: true }) as const satisfies RangeParam;
+
+/** A range argument as core sees it: rows of numbers, strings or null (blank). */
+export type RangeValue = (number | string | boolean | null)[][];
+
+type ValueOf<P> = P extends NumParam
+  ? P["optional"] extends false
+    ? number
+    : number | undefined
+  : P extends TextParam
+    ? P["optional"] extends false
+      ? string
+      : string | undefined
+    : P extends RangeParam
+      ? P["optional"] extends false
+        ? RangeValue
+        : RangeValue | undefined
+      : never;
+
+export type ElementValues<Ps extends readonly Param[]> = { -readonly [K in keyof Ps]: ValueOf<Ps[K]> };
+
+/** One element's result: a number, a text, or null for blank. */
+export type ElementResult = number | string | null;
+
+export interface BindingSpec {
+  readonly params: readonly Param[];
+  readonly element: (...values: never[]) => ElementResult;
+}
+
+const SPECS = new WeakMap<Function, BindingSpec>();
+
+/**
+ * Declares a binding's parameters and the per-element core call, and returns the function that
+ * shapes Excel arguments into those calls. Keep the exported JSDoc function a one-liner that
+ * calls it, so the declaration Excel reads and the one the engine reads stay the same object.
+ */
+export function declare<const Ps extends readonly Param[]>(
+  binding: Function,
+  params: Ps,
+  element: (...values: ElementValues<Ps>) => ElementResult,
+): (args: ArrayLike<unknown>) => Out {
+  const spec: BindingSpec = { params, element: element as BindingSpec["element"] };
+  SPECS.set(binding, spec);
+  return (args) => run(spec, Array.from(args));
+}
+
+/** The declaration behind a binding function (for the engine and the tests). */
+export function specOf(binding: Function): BindingSpec | undefined {
+  return SPECS.get(binding);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Shapes
+
+export interface Shape {
+  readonly rows: number;
+  readonly cols: number;
+}
+
+function isGrid(a: unknown): a is Grid {
+  return Array.isArray(a) && a.every((row) => Array.isArray(row));
+}
+
+function gridOf(a: Arg): Grid {
+  if (isGrid(a)) return a;
+  return [[a as Cell]];
+}
+
+export function shapeOf(grid: Grid): Shape {
+  return { rows: grid.length, cols: grid.length ? (grid[0] as Cell[]).length : 0 };
+}
+
+const fmt = (s: Shape) => `${s.rows}×${s.cols}`;
+
+/**
+ * The broadcast shape of several argument shapes: all equal, or 1×1 against any shape.
+ * Returns an error message naming the two shapes that do not pair.
+ */
+export function broadcastShape(shapes: readonly { name: string; shape: Shape }[]): Shape | { error: string } {
+  let out: { name: string; shape: Shape } | undefined;
+  for (const s of shapes) {
+    if (s.shape.rows === 1 && s.shape.cols === 1) continue;
+    if (!out) {
+      out = s;
+      continue;
+    }
+    if (s.shape.rows !== out.shape.rows || s.shape.cols !== out.shape.cols) {
+      return {
+        error: `${out.name} is ${fmt(out.shape)} but ${s.name} is ${fmt(s.shape)}; ranges must have the same shape, or be a single cell`,
+      };
+    }
+  }
+  return out ? out.shape : { rows: 1, cols: 1 };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Cells
+
+export function isBlank(c: unknown): boolean {
+  return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
+}
+
+const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** A cell as a number; numeric text is accepted. Throws NOT_A_NUMBER otherwise. */
+export function numberOfCell(c: unknown, name: string): number {
+  if (typeof c === "number") {
+    if (!Number.isFinite(c)) throw new SoilError("NOT_A_NUMBER", `${name} is not a finite number`);
+    return c;
+  }
+  if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) return Number(c.trim());
+  const shown = typeof c === "string" ? `"${c}"` : String(c);
+  const hint =
+    typeof c === "string" && /^\s*[<>]/.test(c)
+      ? " (a below- or above-detection value is your call: enter a number or leave the cell blank)"
+      : typeof c === "string" && /\d,\d/.test(c)
+        ? " (use a full stop as the decimal separator)"
+        : "";
+  throw new SoilError("NOT_A_NUMBER", `${name}: ${shown} is not a number${hint}`);
+}
+
+function textOfCell(c: unknown, name: string): string {
+  if (typeof c === "string") return c.trim();
+  if (typeof c === "number") return String(c);
+  throw new SoilError("NOT_A_NUMBER", `${name} must be text (got ${String(c)})`);
+}
+
+function rangeValueOf(a: Arg, name: string): RangeValue {
+  return gridOf(a).map((row) =>
+    row.map((c) => {
+      if (isBlank(c)) return null;
+      if (typeof c === "number" || typeof c === "string" || typeof c === "boolean") return c;
+      if (errors().is(c)) throw new SoilError("NOT_A_NUMBER", `${name} holds an error value`);
+      throw new SoilError("NOT_A_NUMBER", `${name} holds a value that is neither number nor text`);
+    }),
+  );
+}
+
+const BLANK = Symbol("blank");
+
+/** Turns one cell of one argument into the value core receives, or BLANK. */
+function elementValue(p: NumParam | TextParam, c: unknown, omitted: boolean): unknown {
+  if (omitted) {
+    if (!p.optional) throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+    return p.default;
+  }
+  if (p.kind === "number") {
+    if (isBlank(c)) return BLANK;
+    return numberOfCell(c, p.name);
+  }
+  if (isBlank(c)) {
+    if (p.optional) return p.default;
+    throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+  }
+  return textOfCell(c, p.name);
+}
+
+function isOmitted(a: unknown): boolean {
+  return a === null || a === undefined;
+}
+
+function run(spec: BindingSpec, args: unknown[]): Out {
+  const { params } = spec;
+  if (args.length > params.length) {
+    return [[hostErrorFor(new SoilError("SHAPE_MISMATCH", `too many arguments: at most ${params.length}`))]];
+  }
+  // Whole-range arguments are parsed once.
+  const wholes: unknown[] = [];
+  const grids: (Grid | undefined)[] = [];
+  const shapes: { name: string; shape: Shape }[] = [];
+  try {
+    params.forEach((p, i) => {
+      const a = args[i] as Arg;
+      if (p.kind === "range") {
+        if (isOmitted(a)) {
+          if (!p.optional) throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+          wholes[i] = undefined;
+        } else {
+          wholes[i] = rangeValueOf(a, p.name);
+        }
+        return;
+      }
+      if (isOmitted(a)) return;
+      const g = gridOf(a);
+      const shape = shapeOf(g);
+      if (shape.rows === 0 || shape.cols === 0) throw new SoilError("SHAPE_MISMATCH", `${p.name} is an empty range`);
+      grids[i] = g;
+      shapes.push({ name: p.name, shape });
+    });
+  } catch (e) {
+    return [[hostErrorFor(e)]];
+  }
+  const shape = broadcastShape(shapes);
+  if ("error" in shape) return [[hostErrorFor(new SoilError("SHAPE_MISMATCH", shape.error))]];
+
+  const out: Out = [];
+  const values: unknown[] = new Array(params.length);
+  for (let r = 0; r < shape.rows; r++) {
+    const row: unknown[] = [];
+    for (let c = 0; c < shape.cols; c++) {
+      row.push(element(spec, grids, wholes, values, r, c));
+    }
+    out.push(row);
+  }
+  return out;
+}
+
+function element(spec: BindingSpec, grids: (Grid | undefined)[], wholes: unknown[], values: unknown[], r: number, c: number): unknown {
+  const { params } = spec;
+  try {
+    for (let i = 0; i < params.length; i++) {
+      const p = params[i] as Param;
+      if (p.kind === "range") {
+        values[i] = wholes[i];
+        continue;
+      }
+      const g = grids[i];
+      let cell: unknown;
+      if (g) {
+        const single = g.length === 1 && (g[0] as Cell[]).length === 1;
+        cell = single ? (g[0] as Cell[])[0] : (g[r] as Cell[])[c];
+        if (errors().is(cell)) return cell; // an error in is the same error out
+      }
+      const v = elementValue(p, cell, g === undefined);
+      if (v === BLANK) return "";
+      values[i] = v;
+    }
+    const result = (spec.element as (...v: unknown[]) => ElementResult)(...values);
+    if (result === null) return "";
+    if (typeof result === "number") {
+      if (!Number.isFinite(result)) throw new Error("a result was not a finite number");
+      return result === 0 ? 0 : result; // no negative zero in a report
+    }
+    return result;
+  } catch (e) {
+    return hostErrorFor(e);
+  }
+}

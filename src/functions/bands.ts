@@ -1,0 +1,2 @@
+/** Excel bindings: bands. Argument shaping only; the science is in src/core. */
+export {};

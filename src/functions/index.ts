@@ -1,0 +1,7 @@
+/** Every binding module, so hosts can find each function by its exported name. */
+export * from "./units";
+export * from "./cations";
+export * from "./lime";
+export * from "./bands";
+export * from "./nitrogen";
+export * from "./meta";

@@ -1,0 +1,2 @@
+/** Excel bindings: nitrogen. Argument shaping only; the science is in src/core. */
+export {};

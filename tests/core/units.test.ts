@@ -1,0 +1,115 @@
+import fc from "fast-check";
+import { convertUnit, UNITS } from "../../src/core/units";
+import { SoilError } from "../../src/core/errors";
+
+function code(f: () => unknown): string | undefined {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SoilError) return e.code;
+    throw e;
+  }
+  return undefined;
+}
+
+describe("convertUnit: exact factors", () => {
+  // Source: 1959 international yard and pound agreement (lb = 0.45359237 kg, ft = 0.3048 m) and
+  // NIST Handbook 44 App. C (acre = 43 560 ft2 = 4046.8564224 m2); published-values UNIT-01..03.
+  it("1 lb/ac is 0.45359237 / 0.40468564224 kg/ha (UNIT-07 derived exact)", () => {
+    expect(convertUnit(1, "lb/ac", "kg/ha")).toBeCloseTo(1.120851156, 9);
+  });
+  it("handbook factor 1.12 kg/ha per lb/ac (Better Crops 91(4) 2007 p.31, UNIT-07)", () => {
+    expect(convertUnit(1, "lb/ac", "kg/ha")).toBeCloseTo(1.12, 2);
+  });
+  it("1 kg/ha = 0.8921791 lb/ac; handbook 0.891 (Better Crops 2007, UNIT-08)", () => {
+    expect(convertUnit(1, "kg/ha", "lb/ac")).toBeCloseTo(0.8921791, 7);
+    expect(Math.abs(convertUnit(1, "kg/ha", "lb/ac") - 0.891)).toBeLessThan(0.0015);
+  });
+  it("1 short ton/ac = 2.241702 t/ha; handbook 2.242 (Better Crops 2007, UNIT-09)", () => {
+    expect(convertUnit(1, "ton/ac", "t/ha")).toBeCloseTo(2.241702, 6);
+  });
+  it("100 lb N/ac = 112.085 kg/ha (UNIT-10, derived from UNIT-07)", () => {
+    expect(convertUnit(100, "lb/a", "kg/ha")).toBeCloseTo(112.085, 2);
+  });
+  it("1 g/m2 = 10 kg/ha and 1 t/ha = 1000 kg/ha (SI, NIST SP 811)", () => {
+    expect(convertUnit(1, "g/m2", "kg/ha")).toBeCloseTo(10, 12);
+    expect(convertUnit(1, "t/ha", "kg/ha")).toBe(1000);
+  });
+  it("1 % = 10 000 mg/kg; ppm is mg/kg (SI definition)", () => {
+    expect(convertUnit(1, "%", "ppm")).toBe(10000);
+    expect(convertUnit(2.5, "g/kg", "mg/kg")).toBe(2500);
+  });
+  it("1 meq/100 g = 1 cmol(+)/kg = 10 mmol(+)/kg (Rayment & Lyons 2011 App. 5)", () => {
+    expect(convertUnit(1, "meq/100g", "cmolc/kg")).toBe(1);
+    expect(convertUnit(1, "cmol(+)/kg", "mmolc/kg")).toBeCloseTo(10, 12);
+  });
+  it("1 dS/m = 1000 uS/cm = 1 mmho/cm (SI definition)", () => {
+    expect(convertUnit(1, "dS/m", "uS/cm")).toBeCloseTo(1000, 9);
+    expect(convertUnit(1, "mmho/cm", "dS/m")).toBe(1);
+  });
+});
+
+describe("convertUnit: through a soil layer", () => {
+  it("10 mg/kg over 15 cm at 1.3 g/cm3 is 19.5 kg/ha (UNIT-16: definition of layer mass)", () => {
+    expect(convertUnit(10, "mg/kg", "kg/ha", { depthCm: 15, bulkDensity: 1.3 })).toBeCloseTo(19.5, 10);
+  });
+  it("ppm × 2 ≈ lb/ac for a 6.67-in furrow slice of 2 million lb (Better Crops 2007; Penn State Agronomy Guide, UNIT-13)", () => {
+    // 2 000 000 lb/ac over 6.67 in (16.94 cm): bulk density = 2e6 lb/ac in kg/ha / (depth × 1e5).
+    const depth = 6.67 * 2.54;
+    const bd = (2e6 * 1.120851156) / (depth * 1e5);
+    expect(convertUnit(60, "ppm", "lb/ac", { depthCm: depth, bulkDensity: bd })).toBeCloseTo(120, 6);
+  });
+  it("mg/dm3 to mg/kg divides by bulk density; to kg/ha needs only depth", () => {
+    expect(convertUnit(26, "mg/L", "mg/kg", { bulkDensity: 1.3 })).toBeCloseTo(20, 10);
+    expect(convertUnit(20, "mg/dm3", "kg/ha", { depthCm: 10 })).toBeCloseTo(20, 10);
+  });
+  it("says which argument is missing", () => {
+    expect(code(() => convertUnit(10, "mg/kg", "kg/ha", { depthCm: 15 }))).toBe("MISSING_INPUT");
+    expect(() => convertUnit(10, "mg/kg", "kg/ha", { bulkDensity: 1.3 })).toThrow(/depth_cm/);
+    expect(() => convertUnit(10, "mg/kg", "kg/ha", { depthCm: 15 })).toThrow(/bulk_density/);
+  });
+  it("rejects a bulk density out of range rather than clamping", () => {
+    expect(code(() => convertUnit(10, "mg/kg", "kg/ha", { depthCm: 15, bulkDensity: 0 }))).toBe("OUT_OF_RANGE");
+    expect(code(() => convertUnit(10, "mg/kg", "kg/ha", { depthCm: -1, bulkDensity: 1.2 }))).toBe("OUT_OF_RANGE");
+  });
+});
+
+describe("convertUnit: refusals", () => {
+  it("unknown unit lists the accepted words", () => {
+    expect(code(() => convertUnit(1, "kg/acre", "kg/ha"))).toBe("UNKNOWN_NAME");
+    expect(() => convertUnit(1, "kg/acre", "kg/ha")).toThrow(/lb\/ac/);
+  });
+  it("charge to mass needs an ion", () => {
+    expect(code(() => convertUnit(1, "cmol/kg", "mg/kg"))).toBe("UNIT_MISMATCH");
+    expect(() => convertUnit(1, "cmol/kg", "mg/kg")).toThrow(/SOIL.CMOL/);
+  });
+  it("salinity to rate is refused", () => {
+    expect(code(() => convertUnit(1, "dS/m", "kg/ha"))).toBe("UNIT_MISMATCH");
+  });
+  it("unit names are case-insensitive", () => {
+    expect(convertUnit(1, "LB/AC", "KG/HA")).toBeCloseTo(1.120851156, 9);
+  });
+});
+
+describe("convertUnit: properties", () => {
+  const layer = { depthCm: 15, bulkDensity: 1.3 };
+  const ids = UNITS.filter((u) => u.family !== "charge" && u.family !== "salinity").map((u) => u.id);
+  it("round trip A→B→A returns the value (invented inputs, property test)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.constantFrom(...ids), fc.constantFrom(...ids), (v, a, b) => {
+        const back = convertUnit(convertUnit(v, a, b, layer), b, a, layer);
+        expect(back).toBeCloseTo(v, Math.abs(v) > 1000 ? 4 : 8);
+      }),
+    );
+  });
+  it("factors multiply: A→B × B→C = A→C", () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...ids), fc.constantFrom(...ids), fc.constantFrom(...ids), (a, b, c) => {
+        const ab = convertUnit(1, a, b, layer);
+        const bc = convertUnit(1, b, c, layer);
+        const ac = convertUnit(1, a, c, layer);
+        expect(ab * bc).toBeCloseTo(ac, Math.max(0, 9 - Math.round(Math.log10(Math.abs(ac) + 1))));
+      }),
+    );
+  });
+});
