@@ -1,0 +1,56 @@
+/**
+ * Formula text as Excel stores it in .xlsx versus as a user types it (and the engine parses it).
+ *
+ * Excel saves an add-in function call `=SOIL.CEC(A2,…)` as `_xldudf_SOIL_CEC(A2,…)` (the dot of
+ * the id becomes `_`), and newer built-in functions with `_xlfn.` / `_xlws.` prefixes. The engine's
+ * parser accepts neither, so formulas are rewritten on the way in and back on the way out.
+ */
+import { NAMESPACE, REGISTRY } from "./registry";
+
+/** Stored-name → id, built from the registry so only our functions are rewritten. */
+const STORED = new Map(REGISTRY.map((f) => [`_XLDUDF_${NAMESPACE}_${f.id.replace(/\./g, "_")}`, f.id]));
+
+const STORED_CALL = /_xldudf_[A-Za-z0-9_]+(?=\s*\()/g;
+const TYPED_CALL = new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.([A-Za-z][A-Za-z0-9_.]*)(?=\\s*\\()`, "gi");
+
+/** Applies `fn` to the parts of a formula outside string literals. */
+function outsideStrings(formula: string, fn: (part: string) => string): string {
+  return formula
+    .split(/("(?:[^"]|"")*")/)
+    .map((part, i) => (i % 2 === 1 ? part : fn(part)))
+    .join("");
+}
+
+/** Excel's stored form (or typed form) → the form the engine parses. Keeps a leading "=" if present. */
+export function toEngineFormula(formula: string): string {
+  return outsideStrings(formula, (part) =>
+    part
+      .replace(STORED_CALL, (m) => {
+        const id = STORED.get(m.toUpperCase());
+        return id ? `${NAMESPACE}.${id}` : m;
+      })
+      .replace(/_xlfn\._xlws\.|_xlfn\.|_xlws\./gi, ""),
+  );
+}
+
+/** Typed form → Excel's stored form for our functions (other text unchanged). No leading "=". */
+export function toStoredFormula(formula: string): string {
+  const body = formula.replace(/^=/, "");
+  return outsideStrings(body, (part) =>
+    part.replace(TYPED_CALL, (m, id: string) => {
+      const known = REGISTRY.find((f) => f.id === id.toUpperCase());
+      return known ? `_xldudf_${NAMESPACE}_${known.id.replace(/\./g, "_")}` : m;
+    }),
+  );
+}
+
+/** True when a formula calls one of our functions, in either form. */
+export function callsSoil(formula: string): boolean {
+  const engine = toEngineFormula(formula);
+  let found = false;
+  outsideStrings(engine, (part) => {
+    if (new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.[A-Za-z]`, "i").test(part)) found = true;
+    return part;
+  });
+  return found;
+}
