@@ -1,0 +1,243 @@
+/**
+ * Cation exchange: CEC by summation, cation and base saturation, the Ca:Mg ratio and the
+ * exchangeable sodium percentage (SAR of water and extracts is in cationsSar.ts).
+ *
+ * Every cation is turned into charge (cmol(+)/kg) with the equivalent weights of chemistry.ts
+ * (IUPAC/CIAAW atomic weights ÷ ion charge); no rounded divisor (200, 120, 390, 230) is typed in.
+ * Exchangeable acidity (H + Al) and a measured CEC are always in cmol(+)/kg.
+ *
+ * Sources: summation and base saturation as worked in Clemson University Agricultural Service
+ * Laboratory, "CEC calculations" (seen); ESP = 100 × Na / CEC, U.S. Salinity Laboratory Staff
+ * (1954) USDA Handbook 60 (definition; from memory, also seen as a lab's definition).
+ */
+import { SoilError } from "./errors";
+import { mgPerCmol } from "./chemistry";
+import { nameTable } from "./names";
+import { convertUnit, unitOfFamily, unitsOf, UnitDef } from "./units";
+import { BOUNDS, check, finite } from "./validate";
+
+/** The exchangeable bases summed into CEC and base saturation. */
+export type BaseCation = "Ca" | "Mg" | "K" | "Na";
+
+/** Unit families a lab may report exchangeable cations in. */
+const CATION_FAMILIES = ["mass_fraction", "charge", "per_volume"] as const;
+
+/** Default unit of ca, mg, k, na: mg/kg, as most labs report extractable cations. */
+export const CEC_DEFAULT_UNIT = "mg/kg";
+
+/** The unit words accepted for exchangeable cations, for help and messages. */
+export function cecUnitWords(): string[] {
+  return CATION_FAMILIES.flatMap((f) => unitsOf(f));
+}
+
+function cationUnit(unitWord: string | undefined): UnitDef {
+  return unitOfFamily(unitWord ?? CEC_DEFAULT_UNIT, CATION_FAMILIES, "unit");
+}
+
+/**
+ * One exchangeable cation in cmol(+)/kg, from the value and unit the lab reported.
+ *
+ * mg/kg (ppm), g/kg and % are divided by the ion's equivalent weight (mg/kg per cmol(+)/kg);
+ * cmol(+)/kg (= meq/100 g) and mmolc/kg are charge already; mg/dm3 is first divided by the dry
+ * bulk density to reach mg/kg.
+ * @param value the cation as reported, ≥ 0
+ * @param ion Ca, Mg, K or Na
+ * @param unitWord mg/kg (default), ppm, g/kg, %, cmol/kg, meq/100g, mmol/kg, mmolc/kg, mg/dm3
+ * @param bulkDensity dry bulk density, g/cm3 (> 0, ≤ 2.65); needed only for mg/dm3
+ * @param argName the argument name shown in messages (default: the ion in lower case)
+ * @returns cmol(+)/kg
+ * @throws OUT_OF_RANGE for a negative value or a bad bulk density; UNKNOWN_NAME or UNIT_MISMATCH
+ *   for a unit that is not a cation unit; MISSING_INPUT for mg/dm3 without bulk density
+ * @example cecChargeOf(2000, "Ca", "mg/kg") //=> 9.98053
+ * Source: equivalent weights from IUPAC/CIAAW standard atomic weights (see chemistry.ts).
+ */
+export function cecChargeOf(value: number, ion: BaseCation, unitWord?: string, bulkDensity?: number, argName?: string): number {
+  const unit = cationUnit(unitWord);
+  check(value, { name: argName ?? ion.toLowerCase(), unit: unit.id, min: 0 });
+  if (unit.family === "charge") return finite(value * unit.toBase, `${ion} in cmol(+)/kg`);
+  const mgKg = unit.family === "per_volume" ? convertUnit(value, unit.id, "mg/kg", { bulkDensity }) : value * unit.toBase;
+  return finite(mgKg / mgPerCmol(ion), `${ion} in cmol(+)/kg`);
+}
+
+function acidityOf(acidity: number | undefined): number {
+  if (acidity === undefined) return 0;
+  return check(acidity, BOUNDS.nonNegative("acidity", "cmol(+)/kg"));
+}
+
+/** The four bases in cmol(+)/kg, in the order Ca, Mg, K, Na. */
+function basesOf(ca: number, mg: number, k: number, na: number, unitWord?: string, bulkDensity?: number): Record<BaseCation, number> {
+  return {
+    Ca: cecChargeOf(ca, "Ca", unitWord, bulkDensity),
+    Mg: cecChargeOf(mg, "Mg", unitWord, bulkDensity),
+    K: cecChargeOf(k, "K", unitWord, bulkDensity),
+    Na: cecChargeOf(na, "Na", unitWord, bulkDensity),
+  };
+}
+
+const sumOf = (b: Record<BaseCation, number>) => b.Ca + b.Mg + b.K + b.Na;
+
+/**
+ * Cation exchange capacity by summation: Ca + Mg + K + Na (as charge) + exchangeable acidity.
+ *
+ * With acidity the exchangeable H + Al (e.g. KCl-extractable acidity) this is the effective CEC
+ * (ECEC); with a buffer-pH estimate of acidity it approaches the CEC at that buffer's pH. On
+ * calcareous or saline soils the extractant also dissolves carbonates and salts, so the sum can
+ * overstate the true CEC.
+ * @param ca exchangeable Ca in `unitWord`, ≥ 0
+ * @param mg exchangeable Mg in `unitWord`, ≥ 0
+ * @param k exchangeable K in `unitWord`, ≥ 0
+ * @param na exchangeable Na in `unitWord`, ≥ 0
+ * @param acidity exchangeable acidity (H + Al), cmol(+)/kg, ≥ 0; omitted = 0
+ * @param unitWord unit of ca, mg, k, na (default mg/kg); see cecChargeOf
+ * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
+ * @returns CEC, cmol(+)/kg (= meq/100 g)
+ * @throws as cecChargeOf; OUT_OF_RANGE for negative acidity
+ * @example cecSum(2000, 180, 150, 30, 2, "mg/kg") //=> 13.976
+ * Source: summation method as worked by Clemson University Agricultural Service Laboratory,
+ * "CEC calculations" (seen), which uses rounded divisors; here IUPAC equivalent weights.
+ */
+export function cecSum(ca: number, mg: number, k: number, na: number, acidity?: number, unitWord?: string, bulkDensity?: number): number {
+  const bases = basesOf(ca, mg, k, na, unitWord, bulkDensity);
+  return finite(sumOf(bases) + acidityOf(acidity), "CEC");
+}
+
+/** What part of the exchange capacity SOIL.SATURATION reports. */
+export type SaturationPart = BaseCation | "acidity" | "bases";
+
+const PARTS = nameTable<SaturationPart>([
+  { id: "Ca", aliases: ["Ca2+", "calcium"], value: "Ca" },
+  { id: "Mg", aliases: ["Mg2+", "magnesium"], value: "Mg" },
+  { id: "K", aliases: ["K+", "potassium"], value: "K" },
+  { id: "Na", aliases: ["Na+", "sodium"], value: "Na" },
+  { id: "acidity", aliases: ["H+Al", "Al+H", "exchangeable acidity", "acid"], value: "acidity" },
+  { id: "bases", aliases: ["base", "BS", "Ca+Mg+K+Na", "base saturation"], value: "bases" },
+]);
+
+/** The words accepted for `part`. */
+export const SATURATION_PARTS: readonly string[] = PARTS.ids;
+
+/**
+ * Percent of the exchange capacity held by one cation, by the acidity or by the bases together.
+ *
+ * The denominator is the measured CEC when `cec` is given, otherwise the summed CEC (cecSum).
+ * Against the summed CEC, Ca + Mg + K + Na + acidity saturations add up to 100 %. Against a
+ * measured CEC the result is not capped: on calcareous, gypsic or saline soils the extractant
+ * dissolves Ca, Mg and Na that are not exchangeable, so the bases can sum to more than the
+ * measured CEC and saturation exceeds 100 %; such a value says the sum overstates the exchange
+ * complex, not that the soil is "over-saturated".
+ *
+ * Base saturation against the summed CEC is 100 % by construction when acidity is left out, so
+ * `bases` without a measured `cec` needs `acidity` (give 0 for a calcareous soil); `acidity`
+ * always needs `acidity`.
+ * @param partWord Ca, Mg, K, Na, acidity (H+Al) or bases (Ca+Mg+K+Na)
+ * @param ca exchangeable Ca in `unitWord`, ≥ 0 (mg, k, na likewise)
+ * @param acidity exchangeable acidity (H + Al), cmol(+)/kg, ≥ 0; omitted = 0 (see above)
+ * @param cec measured CEC, cmol(+)/kg, > 0; omitted = the summed CEC
+ * @param unitWord unit of ca, mg, k, na (default mg/kg)
+ * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
+ * @returns percent of the CEC (may exceed 100 against a measured CEC)
+ * @throws UNKNOWN_NAME for an unknown part; MISSING_INPUT as above; OUT_OF_RANGE for negative
+ *   inputs or cec ≤ 0; NOT_APPLICABLE when the summed CEC is 0 (nothing to divide by)
+ * @example cecSaturation("bases", 2000, 180, 150, 30, 2) //=> 85.69
+ * Source: Clemson University Agricultural Service Laboratory, "CEC calculations" (seen);
+ * saturation above 100 % where gypsum dissolves in the extractant: Exova, "Soil characteristics"
+ * (lab method page, seen).
+ */
+export function cecSaturation(
+  partWord: string,
+  ca: number,
+  mg: number,
+  k: number,
+  na: number,
+  acidity?: number,
+  cec?: number,
+  unitWord?: string,
+  bulkDensity?: number,
+): number {
+  const part = PARTS.lookup(partWord, "part");
+  const bases = basesOf(ca, mg, k, na, unitWord, bulkDensity);
+  const acid = acidityOf(acidity);
+  if (part === "acidity" && acidity === undefined) {
+    throw new SoilError("MISSING_INPUT", "acidity saturation needs acidity (exchangeable H + Al in cmol(+)/kg)");
+  }
+  if (part === "bases" && acidity === undefined && cec === undefined) {
+    throw new SoilError(
+      "MISSING_INPUT",
+      "base saturation against the summed CEC needs acidity (exchangeable H + Al in cmol(+)/kg; 0 for a calcareous soil) or a measured cec; without either it is 100 % by construction",
+    );
+  }
+  let denominator: number;
+  if (cec !== undefined) {
+    denominator = check(cec, BOUNDS.positive("cec", "cmol(+)/kg"));
+  } else {
+    denominator = sumOf(bases) + acid;
+    if (denominator === 0) {
+      throw new SoilError("NOT_APPLICABLE", "all cations and acidity are 0, so the summed CEC is 0 and a saturation is undefined");
+    }
+  }
+  const held = part === "bases" ? sumOf(bases) : part === "acidity" ? acid : bases[part];
+  return finite((100 * held) / denominator, "saturation");
+}
+
+/** Basis of the Ca:Mg ratio. */
+export type RatioBasis = "charge" | "mass";
+
+const BASES = nameTable<RatioBasis>([
+  { id: "charge", aliases: ["equivalent", "equivalents", "meq", "cmol", "cmolc"], value: "charge" },
+  { id: "mass", aliases: ["weight", "ppm", "mg"], value: "mass" },
+]);
+
+/**
+ * Ratio of exchangeable Ca to Mg, on a charge basis (cmol(+) : cmol(+), default) or a mass basis
+ * (mg : mg). The charge ratio is the mass ratio × (equivalent weight of Mg ÷ that of Ca), about
+ * 0.606 × the mass ratio. A per-volume unit needs no bulk density: it cancels in the ratio.
+ *
+ * Balance ratios such as Ca:Mg have weak support as a basis for fertiliser decisions: within the
+ * ranges common in soils, crop yield is generally not influenced by the Ca:Mg:K ratios, and
+ * sufficiency levels of each nutrient are the better-supported basis (Kopittke & Menzies 2007).
+ * @param ca exchangeable Ca in `unitWord`, ≥ 0
+ * @param mg exchangeable Mg in `unitWord`, > 0 for a defined ratio
+ * @param unitWord unit of ca and mg (default mg/kg); any cation unit, both in the same unit
+ * @param basisWord charge (default) or mass
+ * @returns the Ca:Mg ratio (dimensionless)
+ * @throws OUT_OF_RANGE for negative inputs; NOT_APPLICABLE when mg is 0; UNKNOWN_NAME for a
+ *   basis or unit not listed
+ * @example cecCaMgRatio(2000, 180, "mg/kg", "charge") //=> 6.738
+ * Source: charge basis as used by Crop File 1.04.132 "What is base saturation" ("ratios are
+ * calculated on charge equivalent basis", seen); critique: Kopittke P.M. & Menzies N.W. (2007)
+ * A review of the use of the basic cation saturation ratio and the "ideal" soil. Soil Sci. Soc.
+ * Am. J. 71:259–265, doi:10.2136/sssaj2006.0186 (abstract seen at UQ eSpace; conclusion quoted
+ * in SARE, Building Soils for Better Crops, 3rd ed., seen).
+ */
+export function cecCaMgRatio(ca: number, mg: number, unitWord?: string, basisWord?: string): number {
+  const unit = cationUnit(unitWord);
+  const basis = BASES.lookup(basisWord ?? "charge", "basis");
+  check(ca, { name: "ca", unit: unit.id, min: 0 });
+  check(mg, { name: "mg", unit: unit.id, min: 0 });
+  if (mg === 0) throw new SoilError("NOT_APPLICABLE", "mg is 0, so the Ca:Mg ratio is undefined");
+  const eqCa = mgPerCmol("Ca");
+  const eqMg = mgPerCmol("Mg");
+  const massRatio = unit.family === "charge" ? (ca * eqCa) / (mg * eqMg) : ca / mg;
+  const chargeRatio = unit.family === "charge" ? ca / mg : ca / eqCa / (mg / eqMg);
+  return finite(basis === "charge" ? chargeRatio : massRatio, "Ca:Mg ratio");
+}
+
+/**
+ * Exchangeable sodium percentage: 100 × exchangeable Na ÷ CEC, both as charge.
+ * Not capped: Na above the CEC (soluble Na counted as exchangeable) gives more than 100 %.
+ * @param na exchangeable Na in `unitWord`, ≥ 0
+ * @param cec CEC, cmol(+)/kg, > 0 (whatever unit na is in)
+ * @param unitWord unit of na (default mg/kg)
+ * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
+ * @returns ESP, %
+ * @throws as cecChargeOf; OUT_OF_RANGE for cec ≤ 0
+ * @example cecEsp(2, 20, "cmol/kg") //=> 10
+ * Source: U.S. Salinity Laboratory Staff (1954) USDA Agriculture Handbook 60 (Richards, ed.),
+ * definition of ESP (from memory); same definition on Exova, "Soil characteristics" (seen).
+ */
+export function cecEsp(na: number, cec: number, unitWord?: string, bulkDensity?: number): number {
+  const naC = cecChargeOf(na, "Na", unitWord, bulkDensity, "na");
+  check(cec, BOUNDS.positive("cec", "cmol(+)/kg"));
+  return finite((100 * naC) / cec, "ESP");
+}
+
