@@ -1,0 +1,143 @@
+/**
+ * %Ndfa by 15N natural abundance and N fixed by N difference. Source beside each check;
+ * property-test inputs are invented.
+ */
+import fc from "fast-check";
+import fs from "fs";
+import path from "path";
+import * as core from "../../src/core/nitrogen-isotope";
+import { nfixNdfa, nfixNDifference } from "../../src/core/nitrogen-isotope";
+import { SoilError } from "../../src/core/errors";
+
+function code(f: () => unknown): string | undefined {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SoilError) return e.code;
+    throw e;
+  }
+  return undefined;
+}
+function message(f: () => unknown): string {
+  try {
+    f();
+  } catch (e) {
+    return (e as Error).message;
+  }
+  return "";
+}
+
+describe("nfixNdfa: %Ndfa = 100 (δref − δleg)/(δref − B)", () => {
+  // Equation: Ledgard (1989) Proc. XVI Int. Grassland Congress; Peoples et al. (1989) ACIAR
+  // Monograph 11 (published-values NFIX-01, seen). The worked value is arithmetic on it (NFIX-02, derived).
+  it("δref 6.0, δleg 1.0, B −1.0 ‰ gives 71.43 % (NFIX-02, derived)", () => {
+    expect(nfixNdfa(6, 1, -1)).toBeCloseTo(71.43, 2);
+  });
+  it("legume at B is 100 %, legume at the reference is 0 % (derived from the equation's end points)", () => {
+    expect(nfixNdfa(5.2, -1.5, -1.5)).toBeCloseTo(100, 10);
+    expect(nfixNdfa(5.2, 5.2, -1.5)).toBe(0);
+  });
+  it("faba bean B values from +0.5 to −1.9 ‰ (NFIX-05, faba-bean B-value study, Jimma University repository): a lower B lowers %Ndfa for the same samples (derived)", () => {
+    const highB = nfixNdfa(6, 1.5, 0.5);
+    const lowB = nfixNdfa(6, 1.5, -1.9);
+    expect(highB).toBeCloseTo((100 * 4.5) / 5.5, 10);
+    expect(lowB).toBeCloseTo((100 * 4.5) / 7.9, 10);
+    expect(lowB).toBeLessThan(highB);
+  });
+  it("results a little outside 0–100 % (measurement error) are returned as computed, not clamped", () => {
+    expect(nfixNdfa(6, 6.5, -1)).toBeCloseTo(-7.142857, 5);
+    expect(nfixNdfa(6, -1.5, -1)).toBeCloseTo(107.142857, 5);
+  });
+  it("reference equal to B: NOT_APPLICABLE", () => {
+    expect(code(() => nfixNdfa(-1, -1, -1))).toBe("NOT_APPLICABLE");
+  });
+  it("reference below B (arguments swapped?): NOT_APPLICABLE with the order in the message", () => {
+    expect(code(() => nfixNdfa(-2, 1, -1))).toBe("NOT_APPLICABLE");
+    expect(message(() => nfixNdfa(-2, 1, -1))).toMatch(/reference, legume, B/);
+  });
+  it("reference less than 2 ‰ above B: NOT_APPLICABLE (common practice; the 15N difference must be significant, Shearer & Kohl 1986)", () => {
+    expect(code(() => nfixNdfa(0.5, 0, -1))).toBe("NOT_APPLICABLE");
+    expect(message(() => nfixNdfa(0.5, 0, -1))).toMatch(/only 1.5 ‰ above b_value/);
+    expect(nfixNdfa(1, 0, -1)).toBeCloseTo(50, 10); // exactly 2 ‰ is accepted
+  });
+  it("min_gap tightens or relaxes the margin (0 leaves only the equality check)", () => {
+    expect(nfixNdfa(0.5, 0, -1, 0)).toBeCloseTo(33.3333, 3);
+    expect(code(() => nfixNdfa(4, 1, -1, 8))).toBe("NOT_APPLICABLE");
+    expect(code(() => nfixNdfa(4, 1, -1, -1))).toBe("OUT_OF_RANGE");
+  });
+  it("results below −20 % or above 120 % are OUT_OF_RANGE saying why", () => {
+    expect(code(() => nfixNdfa(4, 8, -1))).toBe("OUT_OF_RANGE");
+    expect(message(() => nfixNdfa(4, 8, -1))).toMatch(/more 15N-enriched than the reference/);
+    expect(code(() => nfixNdfa(4, -3, -1))).toBe("OUT_OF_RANGE");
+    expect(message(() => nfixNdfa(4, -3, -1))).toMatch(/below the B value/);
+  });
+  it("δ15N outside ±100 ‰ is OUT_OF_RANGE (guard; natural values lie far inside)", () => {
+    expect(code(() => nfixNdfa(150, 1, -1))).toBe("OUT_OF_RANGE");
+  });
+  it("a typical lupin at the group mean %Ndfa 74 % (Peoples et al. 2021, NFIX-14): δleg = δref − 0.74 (δref − B) round-trips (derived)", () => {
+    const ref = 5;
+    const b = -0.8;
+    expect(nfixNdfa(ref, ref - 0.74 * (ref - b), b)).toBeCloseTo(74, 10);
+  });
+});
+
+describe("nfixNDifference: N-difference method (Peoples et al. 1989, published-values NFIX-07)", () => {
+  it("legume N 250 − reference N 90 = 160 kg N/ha (derived)", () => {
+    expect(nfixNDifference(250, 90)).toBe(160);
+  });
+  it("adds the soil mineral N difference when both soil values are given (NFIX-07 formula)", () => {
+    expect(nfixNDifference(250, 90, 40, 60)).toBe(140);
+  });
+  it("only one soil value: MISSING_INPUT naming the other", () => {
+    expect(code(() => nfixNDifference(250, 90, 40, undefined))).toBe("MISSING_INPUT");
+    expect(message(() => nfixNDifference(250, 90, undefined, 40))).toMatch(/legume_soil_n is needed/);
+  });
+  it("a negative difference is returned as computed (the method's assumption failed)", () => {
+    expect(nfixNDifference(80, 95)).toBe(-15);
+  });
+  it("negative N yields are OUT_OF_RANGE", () => {
+    expect(code(() => nfixNDifference(-1, 0))).toBe("OUT_OF_RANGE");
+    expect(code(() => nfixNDifference(10, 0, -5, 0))).toBe("OUT_OF_RANGE");
+  });
+});
+
+describe("properties (inputs invented)", () => {
+  it("%Ndfa falls as the legume's δ15N rises, for a fixed reference and B", () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 2, max: 12, noNaN: true }),
+        fc.double({ min: -3, max: 0, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (ref, b, u, v) => {
+          // Legume δ15N between B and the reference keeps the result within 0–100 %.
+          const [lo, hi] = u < v ? [u, v] : [v, u];
+          const d1 = b + lo * (ref - b);
+          const d2 = b + hi * (ref - b);
+          return nfixNdfa(ref, d1, b, 0) >= nfixNdfa(ref, d2, b, 0) - 1e-9;
+        },
+      ),
+    );
+  });
+  it("N difference is antisymmetric in the two crops", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 500, noNaN: true }), fc.double({ min: 0, max: 500, noNaN: true }), (a, b) => {
+        return Math.abs(nfixNDifference(a, b) + nfixNDifference(b, a)) <= 1e-9;
+      }),
+    );
+  });
+});
+
+describe("doc examples", () => {
+  const src = fs.readFileSync(path.join(__dirname, "../../src/core/nitrogen-isotope.ts"), "utf8");
+  const examples = [...src.matchAll(/@example (\w+)\((.*)\) \/\/=> (.+)$/gm)];
+  it("each exported function documents an example", () => {
+    expect(examples.length).toBe(2);
+  });
+  it.each(examples.map((m) => [m[1]!, m[2]!, m[3]!]))("%s(%s) //=> %s", (fn, args, expected) => {
+    const f = (core as unknown as Record<string, (...a: unknown[]) => unknown>)[fn]!;
+    const got = f(...(JSON.parse(`[${args}]`) as unknown[]));
+    const digits = (expected.split(".")[1] ?? "").length;
+    expect(got as number).toBeCloseTo(Number(expected), digits);
+  });
+});

@@ -1,0 +1,92 @@
+/**
+ * Legume-N bindings: broadcasting, blanks, words or numbers in root_factor and kg_n_per_t, errors
+ * as host errors. Expected values are derived from the equations (Source: published-values
+ * NFIX-02, NFIX-04, NFIX-08); other inputs are invented.
+ */
+import { nfixed, nfixdm, ndfa, ndiff, nbalance, shootdm } from "../../src/functions/nitrogen";
+import { PlainHostError, specOf } from "../../src/functions/_binding";
+import { aboutFunction } from "../../src/core/about";
+
+const err = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : undefined);
+
+describe("SOIL.NFIXED", () => {
+  it("a column of shoot DM broadcasts against single values; blank in, blank out", () => {
+    const out = nfixed([[8], [4], [""]], [[2.5]], [[71.4]], [["shoot"]]);
+    expect(out[0]![0]).toBeCloseTo(142.8, 9); // NFIX-04, derived
+    expect(out[1]![0]).toBeCloseTo(71.4, 9);
+    expect(out[2]![0]).toBe("");
+  });
+  it("root_factor may be a number, numeric text or a word", () => {
+    expect(nfixed([[8]], [[2.5]], [[71.4]], [[1.5]])[0]![0]).toBeCloseTo(214.2, 9);
+    expect(nfixed([[8]], [[2.5]], [[71.4]], [["1.5"]])[0]![0]).toBeCloseTo(214.2, 9);
+    expect(nfixed([[8]], [[2.5]], [[76]], [["walley2007"]])[0]![0]).toBeCloseTo(200, 9);
+  });
+  it("omitted root_factor is #VALUE! explaining that a factor is needed (no default)", () => {
+    expect(err(nfixed([[8]], [[2.5]], [[80]], null as never)[0]![0])).toMatch(/^#VALUE! root_factor is needed/);
+    expect(err(nfixed([[8]], [[2.5]], [[80]], [[""]])[0]![0])).toMatch(/^#VALUE! root_factor is needed/);
+  });
+  it("an element out of range is #VALUE! and does not spoil the others", () => {
+    const out = nfixed([[8]], [[2.5], [25]], [[80]], [["shoot"]]);
+    expect(out[0]![0]).toBeCloseTo(160, 9);
+    expect(err(out[1]![0])).toMatch(/^#VALUE! shoot_n_pct must be from 0 to 16 %.*crude protein/);
+  });
+  it("declares the catalogue's arguments in order", () => {
+    expect(specOf(nfixed)?.params.map((p) => p.name)).toEqual(["shoot_dm", "shoot_n_pct", "ndfa_pct", "root_factor"]);
+  });
+});
+
+describe("SOIL.NFIXDM", () => {
+  it("5 t/ha with 'pasture' is 100 kg N/ha (Peoples et al. 2012, NFIX-08)", () => {
+    expect(nfixdm([[5]], [["pasture"]])[0]![0]).toBe(100);
+  });
+  it("a row of DM against a number rule and a factor", () => {
+    expect(nfixdm([[1, 2, ""]], [[20]], [[2]])).toEqual([[40, 80, ""]]);
+  });
+  it("omitted kg_n_per_t is #VALUE! listing the rule words", () => {
+    expect(err(nfixdm([[5]], null as never)[0]![0])).toMatch(/^#VALUE! kg_n_per_t is needed.*"pasture"/);
+  });
+  it("declares the catalogue's arguments in order", () => {
+    expect(specOf(nfixdm)?.params.map((p) => p.name)).toEqual(["shoot_dm", "kg_n_per_t", "root_factor"]);
+  });
+});
+
+describe("SOIL.NDFA", () => {
+  it("6, 1, −1 ‰ gives 71.43 % (NFIX-02, derived); a column of legume values broadcasts", () => {
+    const out = ndfa([[6]], [[1], [-1], [""]], [[-1]]);
+    expect(out[0]![0]).toBeCloseTo(71.428571, 5);
+    expect(out[1]![0]).toBeCloseTo(100, 10);
+    expect(out[2]![0]).toBe("");
+  });
+  it("reference equal to B is #VALUE! (not applicable)", () => {
+    expect(err(ndfa([[-1]], [[0]], [[-1]])[0]![0])).toMatch(/^#VALUE! d15n_reference equals b_value/);
+  });
+  it("min_gap is an optional trailing argument", () => {
+    expect(ndfa([[0.5]], [[0]], [[-1]], [[0]])[0]![0]).toBeCloseTo(33.3333, 3);
+    expect(err(ndfa([[0.5]], [[0]], [[-1]])[0]![0])).toMatch(/too little natural 15N enrichment/);
+  });
+});
+
+describe("SOIL.NDIFF, SOIL.NBALANCE, SOIL.SHOOTDM", () => {
+  it("NDIFF with and without the soil N term", () => {
+    expect(ndiff([[250]], [[90]])[0]![0]).toBe(160);
+    expect(ndiff([[250]], [[90]], [[40]], [[60]])[0]![0]).toBe(140);
+    expect(err(ndiff([[250]], [[90]], [[40]])[0]![0])).toMatch(/^#VALUE! reference_soil_n is needed/);
+  });
+  it("NBALANCE is negative when grain N exceeds fixed N", () => {
+    expect(nbalance([[164], [50]], [[2], [2.5]], [[5], [4]])).toEqual([[64], [-50]]);
+  });
+  it("SHOOTDM rejects a percentage harvest index, asking for a fraction", () => {
+    expect(shootdm([[2]], [[0.4]])[0]![0]).toBeCloseTo(5, 12);
+    expect(err(shootdm([[2]], [[35]])[0]![0])).toMatch(/^#VALUE! harvest_index .*fraction/);
+  });
+});
+
+describe("ABOUT lines", () => {
+  it.each(["NFIXED", "NFIXDM", "NDFA", "NDIFF", "NBALANCE", "SHOOTDM"])("%s has a line naming a source", (id) => {
+    expect(aboutFunction(id)).toMatch(/(19|20)\d\d|common practice/);
+  });
+  it.each(["NFIXED", "NFIXDM", "NDFA"])("%s names the conditions that commonly limit fixation", (id) => {
+    const line = aboutFunction(id);
+    for (const word of ["pH", "5.5-7", "nitrate", "rhizobia", "Mo", "Co", "P", "S", "Fe", "Ca", "B"]) expect(line).toContain(word);
+  });
+});
