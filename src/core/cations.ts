@@ -48,7 +48,7 @@ function cationUnit(unitWord: string | undefined): UnitDef {
  * @returns cmol(+)/kg
  * @throws OUT_OF_RANGE for a negative value or a bad bulk density; UNKNOWN_NAME or UNIT_MISMATCH
  *   for a unit that is not a cation unit; MISSING_INPUT for mg/dm3 without bulk density
- * @example cecChargeOf(2000, "Ca", "mg/kg") //=> 9.98053
+ * @example cecChargeOf(2000, "Ca", "mg/kg") //=> 9.98054
  * Source: equivalent weights from IUPAC/CIAAW standard atomic weights (see chemistry.ts).
  */
 export function cecChargeOf(value: number, ion: BaseCation, unitWord?: string, bulkDensity?: number, argName?: string): number {
