@@ -80,7 +80,7 @@ export function mgPerCmol(ionWord: string): number {
 /**
  * Exchangeable cation from mg/kg to cmol(+)/kg.
  * @param mgPerKg mass fraction of the ion, mg/kg, ≥ 0
- * @example cmolFromMgKg(2000, "Ca") //=> 9.98053
+ * @example cmolFromMgKg(2000, "Ca") //=> 9.98054
  */
 export function cmolFromMgKg(mgPerKg: number, ionWord: string): number {
   check(mgPerKg, { name: "mg_per_kg", unit: "mg/kg", min: 0 });

@@ -1,0 +1,60 @@
+/**
+ * One declaration feeds Excel and the engine: the generated metadata, the bindings, the engine
+ * registry and the catalogue agree. Source of the expected names: ../shared/design/functions.md.
+ */
+import fs from "fs";
+import path from "path";
+import metadata from "../../generated/functions.json";
+import associations from "../../generated/associations.json";
+import * as bindings from "../../src/functions";
+import { specOf } from "../../src/functions/_binding";
+import { REGISTRY } from "../../src/engine/registry";
+import { aboutFunction } from "../../src/core/about";
+
+const catalogue = (() => {
+  const file = [path.join(__dirname, "../../../shared/design/functions.md"), path.join(__dirname, "../../docs/functions.md")].find((f) =>
+    fs.existsSync(f),
+  );
+  if (!file) return undefined;
+  const text = fs.readFileSync(file, "utf8");
+  const entries = new Map<string, string[]>();
+  for (const m of text.matchAll(/^\| `SOIL\.([A-Z]+)\(([^`]*)\)`/gm)) {
+    const args = m[2]!.split(",").map((a) => a.trim().replace(/^\[|\]$/g, "")).filter(Boolean);
+    if (!entries.has(m[1]!)) entries.set(m[1]!, args);
+  }
+  return entries;
+})();
+
+describe("registry", () => {
+  const ids = (metadata.functions as { id: string }[]).map((f) => f.id).sort();
+  it("metadata, associations and engine registry hold the same functions", () => {
+    expect((associations as { id: string }[]).map((a) => a.id).sort()).toEqual(ids);
+    expect(REGISTRY.map((f) => f.id).sort()).toEqual(ids);
+  });
+  it("every exported binding is declared and in the metadata", () => {
+    const exported = Object.entries(bindings).filter(([, v]) => typeof v === "function");
+    for (const [name, fn] of exported) {
+      expect(specOf(fn as Function)).toBeDefined();
+      expect((associations as { functionName: string }[]).some((a) => a.functionName === name)).toBe(true);
+    }
+  });
+  it("parameter names and optional flags agree between metadata and declarations", () => {
+    for (const f of REGISTRY) {
+      expect(f.meta.parameters.map((p) => p.name)).toEqual(f.spec.params.map((p) => p.name));
+      expect(f.meta.parameters.map((p) => Boolean(p.optional))).toEqual(f.spec.params.map((p) => p.optional));
+    }
+  });
+  it("every function has an ABOUT line", () => {
+    for (const f of REGISTRY) expect(aboutFunction(f.id).length).toBeGreaterThan(20);
+  });
+  it("every description's summary fits Excel's 128 characters", () => {
+    for (const f of REGISTRY) expect((f.meta.description ?? "").split("\n")[0]!.length).toBeLessThanOrEqual(128);
+  });
+  (catalogue ? it : it.skip)("every built function keeps the catalogue's argument names and order", () => {
+    for (const f of REGISTRY) {
+      const expected = catalogue!.get(f.id);
+      if (!expected) continue; // functions added beyond the catalogue
+      expect(f.meta.parameters.map((p) => p.name).slice(0, expected.length)).toEqual(expected);
+    }
+  });
+});
