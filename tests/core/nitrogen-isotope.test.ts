@@ -3,29 +3,9 @@
  * property-test inputs are invented.
  */
 import fc from "fast-check";
-import fs from "fs";
-import path from "path";
-import * as core from "../../src/core/nitrogen-isotope";
 import { nfixNdfa, nfixNDifference } from "../../src/core/nitrogen-isotope";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code, errorMessage as message } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
-function message(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return "";
-}
 
 describe("nfixNdfa: %Ndfa = 100 (δref − δleg)/(δref − B)", () => {
   // Equation: Ledgard (1989) Proc. XVI Int. Grassland Congress; Peoples et al. (1989) ACIAR
@@ -128,16 +108,3 @@ describe("properties (inputs invented)", () => {
   });
 });
 
-describe("doc examples", () => {
-  const src = fs.readFileSync(path.join(__dirname, "../../src/core/nitrogen-isotope.ts"), "utf8");
-  const examples = [...src.matchAll(/@example (\w+)\((.*)\) \/\/=> (.+)$/gm)];
-  it("each exported function documents an example", () => {
-    expect(examples.length).toBe(2);
-  });
-  it.each(examples.map((m) => [m[1]!, m[2]!, m[3]!]))("%s(%s) //=> %s", (fn, args, expected) => {
-    const f = (core as unknown as Record<string, (...a: unknown[]) => unknown>)[fn]!;
-    const got = f(...(JSON.parse(`[${args}]`) as unknown[]));
-    const digits = (expected.split(".")[1] ?? "").length;
-    expect(got as number).toBeCloseTo(Number(expected), digits);
-  });
-});

@@ -3,9 +3,6 @@
  * shoot DM from harvest index. Source beside each check; property-test inputs are invented.
  */
 import fc from "fast-check";
-import fs from "fs";
-import path from "path";
-import * as core from "../../src/core/nitrogen";
 import {
   nfixFixedN,
   nfixPerTonne,
@@ -15,28 +12,11 @@ import {
   nfixKgPerTonne,
   NFIX_ROOT_FACTOR_WORDS,
 } from "../../src/core/nitrogen";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code, errorMessage as message } from "../helpers/errors";
 import rootFactors from "../../src/data/nitrogen/root-factors.json";
 import perTonne from "../../src/data/nitrogen/per-tonne.json";
 import checks from "../../src/data/nitrogen/checks.json";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
-function message(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return "";
-}
 
 describe("nfixFixedN: shoot DM × N % × %Ndfa × factor", () => {
   it("1 t/ha at 1 % N and 100 % Ndfa, shoots only, is 10 kg N/ha (derived: 1000 kg × 1/100)", () => {
@@ -223,16 +203,3 @@ describe("properties (inputs invented)", () => {
   });
 });
 
-describe("doc examples", () => {
-  const src = fs.readFileSync(path.join(__dirname, "../../src/core/nitrogen.ts"), "utf8");
-  const examples = [...src.matchAll(/@example (\w+)\((.*)\) \/\/=> (.+)$/gm)];
-  it("every exported function documents an example", () => {
-    expect(examples.length).toBeGreaterThanOrEqual(6);
-  });
-  it.each(examples.map((m) => [m[1]!, m[2]!, m[3]!]))("%s(%s) //=> %s", (fn, args, expected) => {
-    const f = (core as unknown as Record<string, (...a: unknown[]) => unknown>)[fn]!;
-    const got = f(...(JSON.parse(`[${args}]`) as unknown[]));
-    const digits = (expected.split(".")[1] ?? "").length;
-    expect(got as number).toBeCloseTo(Number(expected), digits);
-  });
-});

@@ -1,16 +1,7 @@
 import fc from "fast-check";
 import { convertUnit, UNITS } from "../../src/core/units";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
 
 describe("convertUnit: exact factors", () => {
   // Source: 1959 international yard and pound agreement (lb = 0.45359237 kg, ft = 0.3048 m) and
