@@ -1,0 +1,433 @@
+#!/usr/bin/env node
+/**
+ * Bulk-recalculation benchmark (`npm run bench`; needs `npm run build:node` first).
+ *
+ * In one run, each part in a child process of its own (so peak memory is the part's own):
+ *  1. SOIL formula cells against the same results written as native arithmetic, and one spilling
+ *     formula per column against one formula per row, in the same engine (HyperFormula built
+ *     directly: buildFromSheets + getCellValue over every result cell);
+ *  2. raw core throughput of the heaviest core functions against a plain JS loop;
+ *  3. end-to-end recalculation (read, compute, write) of synthetic season workbooks of 1,000,
+ *     10,000 and 100,000 samples, with peak RSS, and the growth from size to size.
+ * Prints a table and writes bench-output/latest.json (with --save also bench/results.json).
+ *
+ * Options: --sizes=1000,10000,100000  --rows=10000 (engine comparison)  --rounds=3  --save
+ *   --only=engine,core,e2e
+ * The machine may be shared: compare the ratios measured within one run, not absolute times.
+ */
+"use strict";
+const fs = require("fs");
+const os = require("os");
+const path = require("path");
+const { spawnSync, execFileSync } = require("child_process");
+
+const ROOT = path.join(__dirname, "..");
+const BUILD = path.join(ROOT, "build", "src");
+const OUT_DIR = path.join(ROOT, "bench-output");
+
+const now = () => Number(process.hrtime.bigint()) / 1e9;
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+const gc = () => (global.gc ? global.gc() : undefined);
+const mb = (bytes) => bytes / 1024 ** 2;
+
+function options(argv) {
+  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e"] };
+  for (const a of argv) {
+    const [k, v] = a.replace(/^--/, "").split("=");
+    if (k === "sizes") o.sizes = v.split(",").map(Number);
+    else if (k === "rows") o.rows = Number(v);
+    else if (k === "rounds") o.rounds = Number(v);
+    else if (k === "save") o.save = true;
+    else if (k === "only") o.only = v.split(",");
+  }
+  return o;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Child parts
+
+/** SOIL vs native arithmetic, and spilled vs per-row, in HyperFormula built directly. */
+function engineChild(rows, rounds) {
+  const { newEngine } = require(path.join(BUILD, "engine", "hf.js"));
+  const { engineSheet, FORMULAS, FIRST_FORMULA_COL } = require("./workbook");
+  const forms = ["soil", "native", "spill"];
+  const run = (sheets, n) => {
+    gc();
+    const t0 = now();
+    const hf = newEngine(sheets);
+    const sheet = hf.getSheetId("Season");
+    const values = new Array(n * FORMULAS.length);
+    let k = 0;
+    for (let r = 1; r <= n; r++) {
+      for (let j = 0; j < FORMULAS.length; j++) values[k++] = hf.getCellValue({ sheet, row: r, col: FIRST_FORMULA_COL + j });
+    }
+    const seconds = now() - t0;
+    hf.destroy();
+    return { seconds, values };
+  };
+  // Warm up every path (JIT, plugin registration) on a small sheet first.
+  for (const f of forms) run(engineSheet(500, f), 500);
+  const sheets = Object.fromEntries(forms.map((f) => [f, engineSheet(rows, f)]));
+  const times = { soil: [], native: [], spill: [] };
+  let last = {};
+  for (let i = 0; i < rounds; i++) {
+    for (const f of forms) {
+      const r = run(sheets[f], rows);
+      times[f].push(r.seconds);
+      last[f] = r.values;
+    }
+  }
+  // The three forms must give the same results, or the comparison means nothing.
+  let worstNative = 0;
+  let spillMismatches = 0;
+  let nonNumbers = 0;
+  for (let i = 0; i < last.soil.length; i++) {
+    const s = last.soil[i];
+    const n = last.native[i];
+    if (typeof s !== "number" || typeof n !== "number") {
+      nonNumbers += 1;
+      continue;
+    }
+    worstNative = Math.max(worstNative, Math.abs(s - n) / Math.max(1e-300, Math.abs(n)));
+    if (last.spill[i] !== s) spillMismatches += 1;
+  }
+  const m = Object.fromEntries(forms.map((f) => [f, median(times[f])]));
+  return {
+    rows,
+    cells: rows * FORMULAS.length,
+    rounds,
+    seconds: m,
+    allSeconds: times,
+    soilOverNative: m.soil / m.native,
+    perRowOverSpill: m.soil / m.spill,
+    check: { nonNumbers, worstRelativeDifferenceSoilVsNative: worstNative, spillMismatches },
+  };
+}
+
+/** Calls per second of core functions against a plain JS loop doing the same arithmetic. */
+function coreChild(rounds) {
+  const { samples } = require("./workbook");
+  const { mgPerCmol } = require(path.join(BUILD, "core", "chemistry.js"));
+  const cations = require(path.join(BUILD, "core", "cations.js"));
+  const N = 100000;
+  const data = samples(N);
+  const best = (fn) => {
+    let t = Infinity;
+    let sink = 0;
+    for (let i = 0; i < rounds + 1; i++) {
+      gc();
+      const t0 = now();
+      sink += fn();
+      t = Math.min(t, now() - t0);
+    }
+    if (!Number.isFinite(sink)) throw new Error("benchmark sink is not finite");
+    return t;
+  };
+  const out = {};
+
+  // CEC by summation with the Ca, Mg, K, Na and base saturations: 6 core calls per sample.
+  const PARTS = ["Ca", "Mg", "K", "Na", "bases"];
+  const coreCations = () => {
+    let s = 0;
+    for (const d of data) {
+      s += cations.cecSum(d[1], d[2], d[3], d[4], d[5]);
+      for (const p of PARTS) s += cations.cecSaturation(p, d[1], d[2], d[3], d[4], d[5]);
+    }
+    return s;
+  };
+  const eCa = mgPerCmol("Ca");
+  const eMg = mgPerCmol("Mg");
+  const eK = mgPerCmol("K");
+  const eNa = mgPerCmol("Na");
+  const plainCations = () => {
+    let s = 0;
+    for (const d of data) {
+      const ca = d[1] / eCa;
+      const mg = d[2] / eMg;
+      const k = d[3] / eK;
+      const na = d[4] / eNa;
+      const bases = ca + mg + k + na;
+      const cec = bases + d[5];
+      s += cec + (100 * ca) / cec + (100 * mg) / cec + (100 * k) / cec + (100 * na) / cec + (100 * bases) / cec;
+    }
+    return s;
+  };
+  const tc = best(coreCations);
+  const tp = best(plainCations);
+  out.cecWithSaturations = { calls: N * 6, coreCallsPerSecond: (N * 6) / tc, plainCallsPerSecond: (N * 6) / tp, coreOverPlain: tc / tp };
+
+  // The binding layer on a 10,000-row column (per-element shaping around the same core call).
+  const bindings = require(path.join(BUILD, "functions", "index.js"));
+  const col = (j) => data.slice(0, 10000).map((d) => [d[j]]);
+  const cols = [1, 2, 3, 4, 5].map(col);
+  const viaBinding = () => {
+    let s = 0;
+    for (let rep = 0; rep < 10; rep++) for (const row of bindings.cec(...cols)) s += row[0];
+    return s;
+  };
+  const direct = () => {
+    let s = 0;
+    for (let rep = 0; rep < 10; rep++) for (let i = 0; i < 10000; i++) s += cations.cecSum(cols[0][i][0], cols[1][i][0], cols[2][i][0], cols[3][i][0], cols[4][i][0]);
+    return s;
+  };
+  const tb = best(viaBinding);
+  const td = best(direct);
+  out.cecBindingColumn = { elements: 100000, bindingElementsPerSecond: 100000 / tb, coreCallsPerSecond: 100000 / td, bindingOverCore: tb / td };
+
+  // Lime-table interpolation (bilinear in a published buffer-pH table), when the lime core exists.
+  let limeTable;
+  let limeTableRate;
+  let limeBuffer;
+  try {
+    ({ limeTableRate } = require(path.join(BUILD, "core", "lime-table.js")));
+    const { limeCalibration } = require(path.join(BUILD, "core", "lime-calibrations.js"));
+    limeTable = limeCalibration("SIKORA-OR2025").table;
+    ({ limeBuffer } = require(path.join(BUILD, "core", "lime-buffer.js")));
+  } catch (e) {
+    out.limeTable = { skipped: `lime core not available (${e.message})` };
+  }
+  if (limeTable && limeTableRate) {
+    const lo = limeTable.bufferPh[0];
+    const hi = limeTable.bufferPh[limeTable.bufferPh.length - 1];
+    const tlo = limeTable.targetPh[0];
+    const thi = limeTable.targetPh[limeTable.targetPh.length - 1];
+    const inputs = data.map((d, i) => [lo + ((hi - lo) * ((i * 7919) % 1000)) / 1000, tlo + ((thi - tlo) * ((i * 104729) % 997)) / 997]);
+    const coreLime = () => {
+      let s = 0;
+      for (const [b, t] of inputs) s += limeTableRate(limeTable, b, t);
+      return s;
+    };
+    const B = limeTable.bufferPh;
+    const T = limeTable.targetPh;
+    const R = limeTable.rates;
+    const plainLime = () => {
+      let s = 0;
+      for (const [b, t] of inputs) {
+        let i = 1;
+        while (i < B.length - 1 && B[i] < b) i++;
+        let j = 1;
+        while (j < T.length - 1 && T[j] < t) j++;
+        const fb = (b - B[i - 1]) / (B[i] - B[i - 1]);
+        const ft = (t - T[j - 1]) / (T[j] - T[j - 1]);
+        const low = R[i - 1][j - 1] + (R[i - 1][j] - R[i - 1][j - 1]) * ft;
+        const high = R[i][j - 1] + (R[i][j] - R[i][j - 1]) * ft;
+        s += low + (high - low) * fb;
+      }
+      return s;
+    };
+    const tl = best(coreLime);
+    const tq = best(plainLime);
+    out.limeTable = { table: limeTable.name, calls: N, coreCallsPerSecond: N / tl, plainCallsPerSecond: N / tq, coreOverPlain: tl / tq };
+    if (limeBuffer) {
+      const opts = { calibration: "SIKORA-OR2025" };
+      const full = () => {
+        let s = 0;
+        for (const [b, t] of inputs) s += limeBuffer(b, t, opts);
+        return s;
+      };
+      const tf = best(full);
+      out.limeBuffer = { calibration: "SIKORA-OR2025", calls: N, coreCallsPerSecond: N / tf, plainCallsPerSecond: N / tq, coreOverPlain: tf / tq };
+    }
+  }
+  return out;
+}
+
+/** One end-to-end recalculation; the parent reads this process's peak RSS. */
+async function e2eChild(input, output) {
+  const { recalcWorkbook } = require(path.join(BUILD, "engine", "recalc.js"));
+  const t0 = now();
+  const marks = [];
+  const summary = await recalcWorkbook(input, output, { progress: (line) => marks.push([line.split(" ")[0], now()]) });
+  const t1 = now();
+  // Phase boundaries from the recalculator's own progress lines: reading, computing, writing.
+  const at = (word) => (marks.find((m) => m[0] === word) || [word, NaN])[1];
+  const phases = {
+    read: at("computing") - t0,
+    compute: at("writing") - at("computing"),
+    write: t1 - at("writing"),
+  };
+  return {
+    seconds: t1 - t0,
+    phases,
+    formulaCells: summary.formulaCells,
+    soilFormulaCells: summary.soilFormulaCells,
+    errors: summary.errors.length,
+    kept: summary.kept.length,
+    peakRssBytes: process.resourceUsage().maxRSS * 1024,
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Parent
+
+function child(args) {
+  const r = spawnSync(process.execPath, ["--expose-gc", __filename, "--child", ...args], { encoding: "utf8", maxBuffer: 64 * 1024 ** 2 });
+  const line = (r.stdout || "").trim().split("\n").pop() || "";
+  if (r.status !== 0 || !line.startsWith("{")) {
+    return { failed: true, status: r.status, signal: r.signal, stderr: (r.stderr || "").trim().split("\n").slice(-8).join("\n") };
+  }
+  return JSON.parse(line);
+}
+
+function gitCommit() {
+  try {
+    const head = execFileSync("git", ["rev-parse", "--short", "HEAD"], { cwd: ROOT, encoding: "utf8" }).trim();
+    const dirty = execFileSync("git", ["status", "--porcelain", "--", "src", "bench"], { cwd: ROOT, encoding: "utf8" }).trim() !== "";
+    return dirty ? `${head}+changes` : head;
+  } catch {
+    return "unknown";
+  }
+}
+
+const fmtS = (s) => (Number.isFinite(s) ? `${s.toFixed(2)} s` : "–");
+const fmtX = (x) => (Number.isFinite(x) ? `${x.toFixed(2)}×` : "–");
+const fmtRate = (r) => (r >= 1e6 ? `${(r / 1e6).toFixed(2)} M/s` : `${(r / 1e3).toFixed(1)} k/s`);
+
+async function main() {
+  const o = options(process.argv.slice(2));
+  if (!fs.existsSync(path.join(BUILD, "engine", "recalc.js"))) {
+    console.error("bench: build/ is missing; run `npm run build:node` first");
+    process.exit(2);
+  }
+  fs.mkdirSync(OUT_DIR, { recursive: true });
+  const { FORMULAS, writeSeasonWorkbook } = require("./workbook");
+  const results = {
+    date: new Date().toISOString(),
+    commit: gitCommit(),
+    node: process.version,
+    machine: { cpus: os.cpus().length, cpuModel: (os.cpus()[0] || {}).model, totalMemoryGB: +(os.totalmem() / 1024 ** 3).toFixed(1), loadAverage: os.loadavg().map((x) => +x.toFixed(2)) },
+    formulasPerSample: FORMULAS.map((f) => f.soil),
+    engine: undefined,
+    core: undefined,
+    endToEnd: [],
+    growth: [],
+    targets: [],
+  };
+  const say = (s) => process.stderr.write(`${s}\n`);
+
+  if (o.only.includes("engine")) {
+    say(`engine: SOIL vs native vs spilled, ${o.rows} rows × ${FORMULAS.length} formulas, ${o.rounds} rounds`);
+    results.engine = child(["engine", String(o.rows), String(o.rounds)]);
+  }
+  if (o.only.includes("core")) {
+    say("core: throughput against plain JS");
+    results.core = child(["core", String(o.rounds)]);
+  }
+  if (o.only.includes("e2e")) {
+    for (const n of o.sizes) {
+      const file = path.join(OUT_DIR, `season-${n}.xlsx`);
+      say(`end to end: generating ${n} samples`);
+      const bytes = await writeSeasonWorkbook(file, n);
+      say(`end to end: recalculating ${n} samples`);
+      const r = child(["e2e", file, path.join(OUT_DIR, `season-${n}.recalc.xlsx`)]);
+      results.endToEnd.push({ samples: n, inputBytes: bytes, ...r, completed: !r.failed });
+    }
+    const done = results.endToEnd.filter((r) => r.completed);
+    for (let i = 1; i < done.length; i++) {
+      const a = done[i - 1];
+      const b = done[i];
+      results.growth.push({
+        from: a.samples,
+        to: b.samples,
+        sizeRatio: b.samples / a.samples,
+        timeRatio: b.seconds / a.seconds,
+        computeRatio: b.phases.compute / a.phases.compute,
+        peakRssRatio: b.peakRssBytes / a.peakRssBytes,
+      });
+    }
+  }
+
+  // Targets
+  const t = results.targets;
+  const e = results.engine;
+  if (e && !e.failed) {
+    t.push({ target: "SOIL cells / native-arithmetic cells", limit: "≤ 1.3×", value: e.soilOverNative, met: e.soilOverNative <= 1.3 });
+    t.push({ target: `per-row / spilled (${e.rows} rows)`, limit: "≥ 20×", value: e.perRowOverSpill, met: e.perRowOverSpill >= 20 });
+  }
+  const e10 = results.endToEnd.find((r) => r.samples === 10000);
+  if (e10) {
+    t.push({ target: "10,000 samples end to end", limit: "≤ 15 s", value: e10.seconds, met: e10.completed && e10.seconds <= 15 });
+    t.push({ target: "10,000 samples peak RSS (MB)", limit: "≤ 1536 MB", value: e10.completed ? mb(e10.peakRssBytes) : NaN, met: e10.completed && mb(e10.peakRssBytes) <= 1536 });
+  }
+  const e100 = results.endToEnd.find((r) => r.samples === 100000);
+  if (e100) t.push({ target: "100,000 samples complete", limit: "no OOM", value: e100.completed ? 1 : 0, met: e100.completed });
+
+  // Table
+  const lines = [];
+  lines.push(`soilcell bench  ${results.date}  commit ${results.commit}  node ${results.node}  ${results.machine.cpus} cpus  load ${results.machine.loadAverage.join(" ")}`);
+  if (e && !e.failed) {
+    lines.push("");
+    lines.push(`Engine (HyperFormula built directly, ${e.rows} rows × ${FORMULAS.length} formulas = ${e.cells} cells, median of ${e.rounds})`);
+    lines.push(`  SOIL per-row formulas      ${fmtS(e.seconds.soil)}`);
+    lines.push(`  native arithmetic per row  ${fmtS(e.seconds.native)}   SOIL / native   ${fmtX(e.soilOverNative)}`);
+    lines.push(`  SOIL spilled (1 per col)   ${fmtS(e.seconds.spill)}   per-row / spill ${fmtX(e.perRowOverSpill)}`);
+    lines.push(`  results agree: worst relative difference SOIL vs native ${e.check.worstRelativeDifferenceSoilVsNative.toExponential(1)}, spill mismatches ${e.check.spillMismatches}, non-numbers ${e.check.nonNumbers}`);
+  } else if (e) lines.push(`Engine part failed: ${e.stderr}`);
+  const c = results.core;
+  if (c && !c.failed) {
+    lines.push("");
+    lines.push("Core throughput (best of rounds)                  core        plain JS    core / plain");
+    const row = (label, x, plainKey = "plainCallsPerSecond", ratioKey = "coreOverPlain", coreKey = "coreCallsPerSecond") =>
+      lines.push(`  ${label.padEnd(47)} ${fmtRate(x[coreKey]).padEnd(11)} ${fmtRate(x[plainKey]).padEnd(11)} ${fmtX(x[ratioKey])}`);
+    row("cecSum + 5 × cecSaturation (per call)", c.cecWithSaturations);
+    row("binding SOIL.CEC over a column vs cecSum", c.cecBindingColumn, "coreCallsPerSecond", "bindingOverCore", "bindingElementsPerSecond");
+    if (c.limeTable && !c.limeTable.skipped) row(`limeTableRate (${c.limeTable.table})`, c.limeTable);
+    else if (c.limeTable) lines.push(`  lime table: ${c.limeTable.skipped}`);
+    if (c.limeBuffer) row(`limeBuffer (${c.limeBuffer.calibration}) vs plain bilinear`, c.limeBuffer);
+  } else if (c) lines.push(`Core part failed: ${c.stderr}`);
+  if (results.endToEnd.length) {
+    lines.push("");
+    lines.push("End to end (recalcWorkbook: read, compute, write)");
+    lines.push("  samples   formula cells   total      read      compute    write     peak RSS");
+    for (const r of results.endToEnd) {
+      if (!r.completed) {
+        lines.push(`  ${String(r.samples).padEnd(9)} FAILED (status ${r.status}, signal ${r.signal}): ${r.stderr.split("\n").pop()}`);
+        continue;
+      }
+      lines.push(
+        `  ${String(r.samples).padEnd(9)} ${String(r.formulaCells).padEnd(15)} ${fmtS(r.seconds).padEnd(10)} ${fmtS(r.phases.read).padEnd(9)} ${fmtS(r.phases.compute).padEnd(10)} ${fmtS(r.phases.write).padEnd(9)} ${mb(r.peakRssBytes).toFixed(0)} MB${r.errors ? `  (${r.errors} cell errors!)` : ""}`,
+      );
+    }
+    for (const g of results.growth) {
+      lines.push(`  ${g.from} → ${g.to} (×${g.sizeRatio}): time ×${g.timeRatio.toFixed(2)}, compute ×${g.computeRatio.toFixed(2)}, peak RSS ×${g.peakRssRatio.toFixed(2)}`);
+    }
+  }
+  if (t.length) {
+    lines.push("");
+    lines.push("Targets");
+    for (const x of t) {
+      const v = x.target.includes("complete") ? (x.met ? "yes" : "no") : x.limit.includes("s") && !x.limit.includes("MB") ? fmtS(x.value) : x.limit.includes("MB") ? `${x.value.toFixed(0)} MB` : fmtX(x.value);
+      lines.push(`  ${x.met ? "met   " : "MISSED"} ${x.target.padEnd(38)} ${x.limit.padEnd(10)} ${v}`);
+    }
+  }
+  console.log(lines.join("\n"));
+  const json = `${JSON.stringify(results, null, 2)}\n`;
+  fs.writeFileSync(path.join(OUT_DIR, "latest.json"), json);
+  if (o.save) fs.writeFileSync(path.join(__dirname, "results.json"), json);
+  say(`\nwritten ${path.relative(ROOT, path.join(OUT_DIR, "latest.json"))}${o.save ? " and bench/results.json" : ""}`);
+}
+
+if (process.argv[2] === "--child") {
+  const [part, a, b] = process.argv.slice(3);
+  const go = async () => {
+    if (part === "engine") return engineChild(Number(a), Number(b));
+    if (part === "core") return coreChild(Number(a));
+    if (part === "e2e") return e2eChild(a, b);
+    throw new Error(`unknown part ${part}`);
+  };
+  go().then(
+    (r) => process.stdout.write(`\n${JSON.stringify(r)}\n`),
+    (e) => {
+      process.stderr.write(`${e.stack || e}\n`);
+      process.exit(1);
+    },
+  );
+} else {
+  main().catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });
+}
