@@ -1,0 +1,128 @@
+/**
+ * Product rate (CCE, fineness, moisture) and fineness efficiency of liming materials.
+ *
+ * Sources beside each check. "seen" = read in that source; "derived" = arithmetic on a seen
+ * definition; "invented" = made-up inputs for a property or an error case. OXI-xx and LIME-xx
+ * refer to the project's list of published check values.
+ */
+import fc from "fast-check";
+import finenessData from "../../src/data/lime/fineness-ohio.json";
+import { LIME_FINENESS_DEFAULT, limeFineness, limeFinenessOfRanges, limeProductRate } from "../../src/core/lime-product";
+import { SoilError, SoilErrorCode } from "../../src/core/errors";
+
+function codeOf(f: () => unknown): SoilErrorCode | "none" {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SoilError) return e.code;
+    throw e;
+  }
+  return "none";
+}
+function messageOf(f: () => unknown): string {
+  try {
+    f();
+  } catch (e) {
+    return (e as Error).message;
+  }
+  return "";
+}
+
+describe("limeProductRate", () => {
+  it("OXI-12 Penn State AASL home-garden notes (seen): 5 lb/100 ft2 at CCE 100 → 7 lb of a CCE-70 product (the source rounds 7.14)", () => {
+    expect(limeProductRate(5, 70)).toBeCloseTo(7.1429, 4);
+    expect(Math.round(limeProductRate(5, 70))).toBe(7);
+  });
+  it("OXI-13 Clemson by-product liming materials page (seen): CCE 50 → apply 2×; CCE 150 → 2/3×", () => {
+    expect(limeProductRate(3, 50)).toBeCloseTo(6, 12);
+    expect(limeProductRate(3, 150)).toBeCloseTo(2, 12);
+  });
+  it("LIME-03 Tri-State (Vitosh, Johnson & Mengel 1995; seen): tons × 0.90 / NV: 4 tons of NV-90 rate is 4.5 tons of NV-80 lime", () => {
+    // the NV-90 table rate as pure CaCO3 is 4 × 0.9 = 3.6; for an NV-80 product: 3.6 / 0.8 = 4.5
+    expect(limeProductRate(4 * 0.9, 80)).toBeCloseTo(4.5, 12);
+  });
+  it("fineness enters as ECCE = CCE × fineness: 2 t/ha, CCE 90, fineness 85.28 % (BC Factsheet limestone A) → 2.606 t/ha (derived)", () => {
+    expect(limeProductRate(2, 90, 85.28)).toBeCloseTo(2 / (0.9 * 0.8528), 12);
+  });
+  it("moisture: MN Dept. of Agriculture lb ENP/ton = %ENP × 2000 × % dry matter (LIME-38, seen): ENP 80 %, 10 % water → 1440 lb ENP per ton, so 1 ton of ENP needs 2000/1440 tons (derived)", () => {
+    expect(limeProductRate(1, 80, 100, 10)).toBeCloseTo(2000 / 1440, 12);
+  });
+  it("the unit is kept: whatever unit caco3_rate is in, the product rate is in it", () => {
+    expect(limeProductRate(5000, 100)).toBe(5000);
+  });
+  it("arguments outside their ranges are OUT_OF_RANGE (no division by zero ever leaves)", () => {
+    expect(codeOf(() => limeProductRate(-1, 90))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 0))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 251))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 90, 0))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 90, 101))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 90, 100, 100))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 90, 100, -1))).toBe("OUT_OF_RANGE");
+  });
+  it("CCE up to 250 accepts pure MgO (248.3 exact, 250 printed: UNL PASSEL Table 4.4, OXI-10, seen)", () => {
+    expect(limeProductRate(2.5, 250)).toBeCloseTo(1, 12);
+  });
+  it("property: never below the pure rate, and decreasing in CCE (invented inputs)", () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0, max: 50, noNaN: true }),
+        fc.double({ min: 1, max: 100, noNaN: true }),
+        fc.double({ min: 1, max: 100, noNaN: true }),
+        fc.double({ min: 0, max: 90, noNaN: true }),
+        (rate, cce, fine, moist) => {
+          const r = limeProductRate(rate, cce, fine, moist);
+          return r >= rate - 1e-12 && limeProductRate(rate, Math.min(250, cce + 10), fine, moist) <= r + 1e-12;
+        },
+      ),
+    );
+  });
+});
+
+describe("limeFineness", () => {
+  it("the default rating is the Ohio method as given in BC Soil Factsheet 637.200-2 (seen): 100, 60, 20, 0 %", () => {
+    expect(LIME_FINENESS_DEFAULT).toEqual([100, 60, 20, 0]);
+    for (const c of finenessData.classes) expect(c.source).toMatch(/637\.200-2/);
+  });
+  it("BC Factsheet limestone A (seen): 78.8 / 10 / 2.4 / 7.8 % → 85.28 % (fractions sum to 99.0 %, not rescaled)", () => {
+    expect(limeFineness([78.8, 10, 2.4, 7.8])).toBeCloseTo(85.28, 10);
+  });
+  it("BC Factsheet limestone B: the source prints 94.46 %; its arithmetic 90 + 3.6 + 0.8 = 94.40 % (computed)", () => {
+    expect(limeFineness([90, 6, 4, 0])).toBeCloseTo(94.4, 10);
+  });
+  it("a user's own rating as a list (invented three-class rating)", () => {
+    expect(limeFineness([70, 20, 10], [100, 50, 10])).toBeCloseTo(81, 12);
+  });
+  it("fractions must add up to 100 ± 1 %: 98.9 % and 101.1 % are OUT_OF_RANGE, 99 % and 101 % pass", () => {
+    expect(codeOf(() => limeFineness([78.8, 10, 2.4, 7.7]))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeFineness([80, 10, 3.1, 8]))).toBe("OUT_OF_RANGE");
+    expect(limeFineness([80, 10, 3, 8])).toBeCloseTo(86.6, 10);
+    expect(messageOf(() => limeFineness([50, 10, 2, 7]))).toBe("fractions add up to 69 %; they must add up to 100 ± 1 %");
+  });
+  it("counts must match; the default rating needs four fractions (SHAPE_MISMATCH)", () => {
+    expect(codeOf(() => limeFineness([90, 10]))).toBe("SHAPE_MISMATCH");
+    expect(codeOf(() => limeFineness([90, 10], [100, 50, 0]))).toBe("SHAPE_MISMATCH");
+  });
+  it("values outside 0–100 are OUT_OF_RANGE", () => {
+    expect(codeOf(() => limeFineness([110, -10, 0, 0]))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeFineness([100, 0, 0, 0], [120, 60, 20, 0]))).toBe("OUT_OF_RANGE");
+  });
+  it("ranges: a row or a column, numeric text accepted; a blank cell is MISSING_INPUT; a 2-D range is SHAPE_MISMATCH", () => {
+    expect(limeFinenessOfRanges([[90], [6], [4], [0]])).toBeCloseTo(94.4, 10);
+    expect(limeFinenessOfRanges([[90, "6", 4, 0]])).toBeCloseTo(94.4, 10);
+    expect(limeFinenessOfRanges([[70, 20, 10]], [[100], [50], [10]])).toBeCloseTo(81, 12);
+    expect(codeOf(() => limeFinenessOfRanges([[90, null, 4, 6]]))).toBe("MISSING_INPUT");
+    expect(codeOf(() => limeFinenessOfRanges([[90, 6], [4, 0]]))).toBe("SHAPE_MISMATCH");
+    expect(codeOf(() => limeFinenessOfRanges([[90, "six", 4, 0]]))).toBe("NOT_A_NUMBER");
+  });
+  it("property: the efficiency lies between 0 and 100 % for fractions adding up to 100 (invented inputs)", () => {
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 4, maxLength: 4 }), (w) => {
+        const total = w.reduce((a, b) => a + b, 0);
+        if (total === 0) return true;
+        const fr = w.map((x) => Math.min(100, (100 * x) / total));
+        const r = limeFineness(fr);
+        return r >= -1e-9 && r <= 100 + 1e-9;
+      }),
+    );
+  });
+});
