@@ -28,6 +28,8 @@ export interface LimeTableCalibration {
   /** The table, or undefined when it is not shipped (see `status`). */
   readonly table: LimeTable | undefined;
   readonly status: string;
+  /** Why a table is not shipped, in a few words (for the error message). */
+  readonly reason?: string;
   readonly whatToDo?: string;
 }
 
@@ -55,6 +57,7 @@ interface TableFile {
   basis: { neutralizing_value_pct: number | null };
   target_ph: number[];
   rows: { buffer_ph: number; rates: number[] }[];
+  reason?: string;
   what_to_do?: string;
 }
 
@@ -80,6 +83,7 @@ function tableCalibration(file: TableFile): LimeTableCalibration {
     neutralizingValuePct: nv,
     table: tableOf(file),
     status: file.status,
+    reason: file.reason,
     whatToDo: file.what_to_do,
   };
 }
@@ -115,7 +119,7 @@ export const LIME_DEFAULT_CALIBRATION = "SMP";
 export function limeCalibration(name: string): LimeCalibration {
   const c = NAMES.lookup(name, "calibration");
   if (c.kind === "table" && c.table === undefined) {
-    throw new SoilError("NO_REFERENCE_DATA", `the ${c.id} table is not shipped: ${c.status} ${c.whatToDo ?? ""}`.trim());
+    throw new SoilError("NO_REFERENCE_DATA", `the ${c.id} table is not shipped (${c.reason ?? "not verified"}). ${c.whatToDo ?? ""}`.trim());
   }
   return c;
 }

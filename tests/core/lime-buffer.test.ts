@@ -11,26 +11,9 @@ import sikoraData from "../../src/data/lime/sikora-or2025.json";
 import { limeBuffer, limeBufferTableRate, limeMehlichAcidity, limeMehlichFactor, limeMehlichRate } from "../../src/core/lime-buffer";
 import { LIME_CALIBRATION_IDS, limeCalibration, limeCalibrationDepthCm, limeCalibrationUnit, LimeTableCalibration } from "../../src/core/lime-calibrations";
 import { limeRangeRate, limeTableFromRange, limeTableRate, LimeRange } from "../../src/core/lime-table";
-import { SoilError, SoilErrorCode } from "../../src/core/errors";
+import { errorCode as codeOf, errorMessage as messageOf } from "../helpers/errors";
 import { convertRate } from "../../src/core/units";
 
-function codeOf(f: () => unknown): SoilErrorCode | "none" {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return "none";
-}
-function messageOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return "";
-}
 
 const SIK = "SIKORA-OR2025";
 const tonAc = (bufferPh: number, targetPh: number, extra: object = {}) => limeBuffer(bufferPh, targetPh, { calibration: SIK, unit: "ton/ac", ...extra });

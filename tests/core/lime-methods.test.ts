@@ -11,17 +11,8 @@ import methods from "../../src/data/lime/methods.json";
 import { limeAlSat, limeAlSatCmol, limeBaseSat, limeExchAl, limePhBc } from "../../src/core/lime-methods";
 import { limeCaco3MgPerKg, limeLayerKgPerHa } from "../../src/core/lime-rate";
 import { limeProductRate } from "../../src/core/lime-product";
-import { SoilError, SoilErrorCode } from "../../src/core/errors";
+import { errorCode as codeOf } from "../helpers/errors";
 
-function codeOf(f: () => unknown): SoilErrorCode | "none" {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return "none";
-}
 
 /** depth × bulk density giving a 2 000 000 lb/acre furrow slice (UNIT-12 convention): 22.417 cm·g/cm3. */
 const AFS_DEPTH_X_BD = (2e6 * 0.45359237) / 0.40468564224 / 1e5;

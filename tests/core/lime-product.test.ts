@@ -8,25 +8,8 @@
 import fc from "fast-check";
 import finenessData from "../../src/data/lime/fineness-ohio.json";
 import { LIME_FINENESS_DEFAULT, limeFineness, limeFinenessOfRanges, limeProductRate } from "../../src/core/lime-product";
-import { SoilError, SoilErrorCode } from "../../src/core/errors";
+import { errorCode as codeOf, errorMessage as messageOf } from "../helpers/errors";
 
-function codeOf(f: () => unknown): SoilErrorCode | "none" {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return "none";
-}
-function messageOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return "";
-}
 
 describe("limeProductRate", () => {
   it("OXI-12 Penn State AASL home-garden notes (seen): 5 lb/100 ft2 at CCE 100 → 7 lb of a CCE-70 product (the source rounds 7.14)", () => {
