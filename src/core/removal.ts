@@ -153,3 +153,35 @@ export function removalAmount(cropWord: string, yieldValue: number, nutrientWord
   const kgHa = tHa * perTonne;
   return finite(convertRate(kgHa, "kg/ha", outUnit.id), "the nutrient removal");
 }
+
+/** One entry of the list of removal coefficients, for `soilcell list` and help. */
+export interface RemovalTableInfo {
+  readonly crop: string;
+  readonly aliases: readonly string[];
+  readonly product: string;
+  /** What one tonne of yield means (moisture basis). */
+  readonly basis: string;
+  /** Nutrient forms the source gives, e.g. ["N", "P2O5", "K2O"]. */
+  readonly nutrients: readonly string[];
+  /** Standard bushel weight in lb, where one is held (bu/ac yields accepted). */
+  readonly lbPerBushel?: number;
+  readonly source: string;
+  readonly status: string;
+}
+
+/**
+ * The built-in removal coefficients with their sources (for `soilcell list`).
+ * @returns one entry per crop, in file order (no @example: the result is a list)
+ */
+export function removalTables(): RemovalTableInfo[] {
+  return REMOVAL_ROWS.map((r) => ({
+    crop: r.id,
+    aliases: r.aliases,
+    product: r.product,
+    basis: r.basis,
+    nutrients: Object.keys(r.kg_per_t),
+    lbPerBushel: BUSHELS.find((b) => b.crop === r.id)?.lb_per_bu,
+    source: r.source,
+    status: `${r.status}; ${r.seen_at}`,
+  }));
+}

@@ -1,0 +1,218 @@
+/**
+ * SOIL.BAND and SOIL.BANDPOS in core: the catalogue's edge rule and default labels, range shapes,
+ * refusals, and properties. Limits in the edge-case tests are invented (a scale of 10, 20, 30, 40);
+ * published tables are checked in bandsSufficiency.test.ts.
+ */
+import fc from "fast-check";
+import { bandIndex, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../src/core/bands";
+import { SoilError } from "../../src/core/errors";
+
+function code(f: () => unknown): string | undefined {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SoilError) return e.code;
+    throw e;
+  }
+  return undefined;
+}
+
+const L = [10, 20, 30, 40]; // invented
+
+describe("bandLabel: the catalogue's edge rule (functions.md, 'Nutrient bands and fertility')", () => {
+  it("a value equal to a limit belongs to the band above it", () => {
+    expect(bandLabel(10, L)).toBe("Low");
+    expect(bandLabel(20, L)).toBe("Optimum");
+    expect(bandLabel(30, L)).toBe("High");
+    expect(bandLabel(40, L)).toBe("Very high");
+  });
+  it("just below a limit stays in the band below", () => {
+    expect(bandLabel(9.999, L)).toBe("Very low");
+    expect(bandLabel(39.999, L)).toBe("High");
+  });
+  it("below the first limit is the first band, above the last the last band", () => {
+    expect(bandLabel(-5, L)).toBe("Very low");
+    expect(bandLabel(0, L)).toBe("Very low");
+    expect(bandLabel(1e9, L)).toBe("Very high");
+  });
+  it("default labels for four limits: Very low, Low, Optimum, High, Very high", () => {
+    expect(DEFAULT_BAND_LABELS).toEqual(["Very low", "Low", "Optimum", "High", "Very high"]);
+    expect([5, 15, 25, 35, 45].map((v) => bandLabel(v, L))).toEqual(DEFAULT_BAND_LABELS);
+  });
+  it("own labels, in any language, n + 1 of them", () => {
+    expect(bandLabel(25, [10, 20, 30], ["Muy bajo", "Bajo", "Medio", "Alto"])).toBe("Medio");
+    expect(bandLabel(5, [10], ["niedrig", "ausreichend"])).toBe("niedrig");
+    expect(bandLabel(10, [10], ["niedrig", "ausreichend"])).toBe("ausreichend");
+  });
+  it("bandIndex counts the limits at or below the value", () => {
+    expect([0, 10, 15, 20, 40, 50].map((v) => bandIndex(v, L))).toEqual([0, 1, 1, 2, 4, 4]);
+  });
+});
+
+describe("limits and labels as worksheet ranges", () => {
+  it("a column range and a row range give the same bands", () => {
+    const col = [[10], [20], [30], [40]];
+    const row = [[10, 20, 30, 40]];
+    expect(bandLabel(25, col)).toBe("Optimum");
+    expect(bandLabel(25, row)).toBe("Optimum");
+  });
+  it("numeric text in a limit cell is read as a number", () => {
+    expect(bandLabel(25, [["10", "20", "30", "40"]])).toBe("Optimum");
+  });
+  it("trailing blank cells of a longer selection are ignored", () => {
+    expect(bandLabel(25, [[10], [20], [30], [40], [null], [null]])).toBe("Optimum");
+    expect(bandLabel(25, [[10], [20], [30]], [["a"], ["b"], ["c"], ["d"], [""]])).toBe("c");
+  });
+  it("a blank between limits is refused, not skipped", () => {
+    expect(code(() => bandLabel(25, [[10], [null], [30], [40]]))).toBe("MISSING_INPUT");
+  });
+  it("a 2-D block is refused", () => {
+    expect(code(() => bandLabel(25, [[10, 20], [30, 40]]))).toBe("SHAPE_MISMATCH");
+  });
+  it("a number as a label is shown as text", () => {
+    expect(bandLabel(25, [10, 20], [1, 2, 3])).toBe("3");
+  });
+});
+
+describe("refusals (#VALUE! with a message)", () => {
+  it("limits not ascending", () => {
+    expect(code(() => bandLabel(5, [10, 30, 20, 40]))).toBe("NOT_APPLICABLE");
+    expect(() => bandLabel(5, [10, 30, 20, 40])).toThrow(/strictly ascending.*limit 3 \(20\) is not above limit 2 \(30\)/);
+  });
+  it("equal limits are not ascending (an empty band)", () => {
+    expect(code(() => bandLabel(5, [10, 20, 20, 40]))).toBe("NOT_APPLICABLE");
+  });
+  it("other than four limits without labels: says how many labels are needed", () => {
+    expect(code(() => bandLabel(5, [10, 20, 30]))).toBe("MISSING_INPUT");
+    expect(() => bandLabel(5, [10, 20, 30])).toThrow(/give labels \(4 of them\)/);
+  });
+  it("a wrong number of labels names both counts", () => {
+    expect(code(() => bandLabel(5, L, ["a", "b", "c"]))).toBe("SHAPE_MISMATCH");
+    expect(() => bandLabel(5, L, ["a", "b", "c"])).toThrow(/needs 5 entries \(got 3\)/);
+  });
+  it("text and booleans in limits are not numbers", () => {
+    expect(code(() => bandLabel(5, [10, "twenty", 30, 40]))).toBe("NOT_A_NUMBER");
+    expect(code(() => bandLabel(5, [10, true, 30, 40]))).toBe("NOT_A_NUMBER");
+  });
+  it("no limits at all", () => {
+    expect(code(() => bandLabel(5, []))).toBe("MISSING_INPUT");
+    expect(code(() => bandLabel(5, [[null, null]]))).toBe("MISSING_INPUT");
+  });
+  it("a boolean label is refused", () => {
+    expect(code(() => bandLabel(5, [10], ["a", true]))).toBe("NOT_A_NUMBER");
+  });
+  it("a value that is not finite is refused", () => {
+    expect(code(() => bandLabel(Number.NaN, L))).toBe("OUT_OF_RANGE");
+  });
+});
+
+describe("bandPosition: 0 at the first limit, 1 at the second, … (catalogue); half bands at the ends (derived)", () => {
+  it("whole numbers at the limits", () => {
+    expect(L.map((v) => bandPosition(v, L))).toEqual([0, 1, 2, 3]);
+  });
+  it("interpolated within a band", () => {
+    expect(bandPosition(25, L)).toBeCloseTo(1.5, 12);
+    expect(bandPosition(12.5, [10, 20, 40])).toBeCloseTo(0.25, 12);
+    expect(bandPosition(30, [10, 20, 40])).toBeCloseTo(1.5, 12); // the second band is twice as wide
+  });
+  it("below the first limit: the first band's width, −0.5 half a band below", () => {
+    expect(bandPosition(5, L)).toBeCloseTo(-0.5, 12);
+    expect(bandPosition(5, [10, 30, 40])).toBeCloseTo(-0.25, 12);
+  });
+  it("above the last limit: the last band's width, n − 0.5 half a band above", () => {
+    expect(bandPosition(45, L)).toBeCloseTo(3.5, 12);
+    expect(bandPosition(50, [10, 20, 30])).toBeCloseTo(4, 12);
+  });
+  it("not clamped: far outside gives positions beyond −0.5 and n − 0.5", () => {
+    expect(bandPosition(-90, L)).toBeCloseTo(-10, 12);
+    expect(bandPosition(140, L)).toBeCloseTo(13, 12);
+  });
+  it("needs at least two limits", () => {
+    expect(code(() => bandPosition(5, [10]))).toBe("NOT_APPLICABLE");
+  });
+  it("refuses unsorted limits like BAND", () => {
+    expect(code(() => bandPosition(5, [40, 30]))).toBe("NOT_APPLICABLE");
+  });
+  it("a position too large to represent is an error, not Infinity", () => {
+    expect(code(() => bandPosition(1e10, [0, 1e-300]))).toBe("OUT_OF_RANGE");
+  });
+  it("rounding never pushes a value into the next band's position", () => {
+    // 0.1 and 0.3 are not exact in binary; the largest double below 0.3 is still in band 1.
+    const justBelow = 0.3 - 2 ** -54;
+    expect(justBelow).toBeLessThan(0.3);
+    const p = bandPosition(justBelow, [0.1, 0.3, 0.5]);
+    expect(p).toBeLessThan(1);
+    expect(bandIndex(justBelow, [0.1, 0.3, 0.5])).toBe(1);
+  });
+});
+
+// Invented limit sets for the property tests: a start and 1–7 positive gaps (0.001 to 10 000),
+// the spread of real soil-test scales.
+const ascending = fc
+  .tuple(
+    fc.double({ min: -1e6, max: 1e6, noNaN: true, noDefaultInfinity: true }),
+    fc.array(fc.double({ min: 1e-3, max: 1e4, noNaN: true, noDefaultInfinity: true }), { minLength: 1, maxLength: 7 }),
+  )
+  .map(([start, gaps]) => gaps.reduce((xs, g) => [...xs, (xs[xs.length - 1] as number) + g], [start]))
+  .filter((xs) => xs.every((x, i) => i === 0 || x > (xs[i - 1] as number)));
+const value = fc.double({ min: -3e6, max: 3e6, noNaN: true, noDefaultInfinity: true });
+
+describe("properties (fast-check; invented limits)", () => {
+  it("BANDPOS is monotonic non-decreasing in the value", () => {
+    fc.assert(
+      fc.property(ascending, value, value, (limits, a, b) => {
+        const [lo, hi] = a <= b ? [a, b] : [b, a];
+        return bandPosition(lo, limits) <= bandPosition(hi, limits);
+      }),
+    );
+  });
+  it("BAND agrees with BANDPOS: band index = floor(position) + 1, within 0 … n", () => {
+    fc.assert(
+      fc.property(ascending, value, (limits, v) => {
+        const n = limits.length;
+        const k = bandIndex(v, limits);
+        const fromPos = Math.min(n, Math.max(0, Math.floor(bandPosition(v, limits)) + 1));
+        return k === fromPos;
+      }),
+    );
+  });
+  it("BAND agrees with BANDPOS exactly at every limit", () => {
+    fc.assert(
+      fc.property(ascending, (limits) =>
+        limits.every((l, i) => bandIndex(l, limits) === i + 1 && bandPosition(l, limits) === i),
+      ),
+    );
+  });
+  it("BAND agrees with BANDPOS a few ulps either side of each limit (rounding guard)", () => {
+    const f = new Float64Array(1);
+    const u = new BigInt64Array(f.buffer);
+    const nextUp = (x: number) => {
+      if (x === 0) return Number.MIN_VALUE;
+      f[0] = x;
+      u[0] = (u[0] as bigint) + (x > 0 ? 1n : -1n);
+      return f[0] as number;
+    };
+    const step = (x: number, ulps: number) => {
+      let y = x;
+      for (let i = 0; i < Math.abs(ulps); i++) y = ulps > 0 ? nextUp(y) : -nextUp(-y);
+      return y;
+    };
+    fc.assert(
+      fc.property(ascending, fc.nat(7), fc.integer({ min: -4, max: 4 }), (limits, i, ulps) => {
+        const l = limits[i % limits.length] as number;
+        const v = step(l, ulps);
+        const n = limits.length;
+        const fromPos = Math.min(n, Math.max(0, Math.floor(bandPosition(v, limits)) + 1));
+        return bandIndex(v, limits) === fromPos;
+      }),
+    );
+  });
+  it("BAND is the label at the band index", () => {
+    fc.assert(
+      fc.property(ascending, value, (limits, v) => {
+        const labels = Array.from({ length: limits.length + 1 }, (_, i) => `band ${i}`);
+        return bandLabel(v, limits, labels) === `band ${bandIndex(v, limits)}`;
+      }),
+    );
+  });
+});

@@ -1,0 +1,182 @@
+/**
+ * SOIL.REMOVAL in core: coefficients against their sources, unit and form conversion, bushels,
+ * refusals and properties. Each check names its Source; "derived" marks arithmetic on a source.
+ */
+import fc from "fast-check";
+import { removalAmount, removalBushelWeight, removalCoefficient, removalCrops, removalTables, REMOVAL_ROWS } from "../../src/core/removal";
+import { formFactor } from "../../src/core/chemistry";
+import { SoilError } from "../../src/core/errors";
+
+function code(f: () => unknown): string | undefined {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SoilError) return e.code;
+    throw e;
+  }
+  return undefined;
+}
+
+const mid = (c: number | readonly number[]) => (typeof c === "number" ? c : ((c[0] as number) + (c[1] as number)) / 2);
+
+describe("coefficients as their sources print them", () => {
+  // Source: OMAFA Field Crop News (2025) 'Crop Removal Values', Table 1 (seen), kg/t at marketing moisture.
+  it("corn grain: P2O5 6.6-7.9 kg/t, so 10 t/ha removes 72.5 kg P2O5/ha (midpoint, derived)", () => {
+    expect(removalAmount("corn", 10, "P2O5")).toBeCloseTo(72.5, 9);
+  });
+  it("soybean: N 62.3-66.7 kg/t, so 3.5 t/ha removes 225.75 kg N/ha (midpoint, derived)", () => {
+    expect(removalAmount("soybean", 3.5, "N")).toBeCloseTo(3.5 * 64.5, 9);
+  });
+  it("dry beans print single values: N 41.6, P2O5 13.8, K2O 13.8 kg/t", () => {
+    expect(removalCoefficient("dry bean", "N")).toBeCloseTo(41.6, 12);
+    expect(removalCoefficient("navy beans", "P2O5")).toBeCloseTo(13.8, 12);
+    expect(removalCoefficient("dry beans", "K2O")).toBeCloseTo(13.8, 12);
+  });
+  it("canola S 6.67 kg/t; oats P2O5 7.5 kg/t", () => {
+    expect(removalCoefficient("canola", "S")).toBeCloseTo(6.67, 12);
+    expect(removalCoefficient("oats", "P2O5")).toBeCloseTo(7.5, 12);
+  });
+  // Source: Potash Development Association (2020) 'Nutrients in crop material' (= RB209 2020), kg/t fresh (seen).
+  it.each([
+    ["peas", "P2O5", 9.0],
+    ["peas", "K2O", 10.0],
+    ["field beans", "P2O5", 11.0],
+    ["faba bean", "K2O", 12.0],
+    ["oilseed rape", "P2O5", 14.0],
+    ["grass hay", "K2O", 18],
+    ["grass silage", "P2O5", 1.7],
+    ["maize silage", "K2O", 4.4],
+    ["potatoes", "K2O", 5.8],
+    ["sugar beet", "P2O5", 0.8],
+  ])("PDA/RB209 2020: %s %s %s kg/t", (crop, n, v) => {
+    expect(removalCoefficient(crop as string, n as string)).toBeCloseTo(v as number, 12);
+  });
+  it("PDA/RB209 2020: MgO 3.0 kg/t of peas is 1.809 kg Mg/t (derived with atomic weights)", () => {
+    expect(removalCoefficient("peas", "MgO")).toBeCloseTo(3.0, 12);
+    expect(removalCoefficient("peas", "Mg")).toBeCloseTo(3.0 / 1.6583, 3);
+  });
+  // Source: Agriculture Victoria (2017) 'Replacing nutrients removed from cutting hay', Table 1 (seen),
+  // per t of dry matter: lucerne/clover hay P 2.5-3.5, K 20-30, S 3.5 kg.
+  it("lucerne hay: 8.9 t DM removes 222.5 kg K/ha at the range midpoint 25 kg/t (derived)", () => {
+    expect(removalAmount("lucerne hay", 8.9, "K")).toBeCloseTo(222.5, 9);
+    expect(removalAmount("alfalfa", 8.9, "S")).toBeCloseTo(8.9 * 3.5, 9);
+  });
+  it("Agriculture Victoria's worked example: 10 500 kg of hay at 85 % DM is 8.9 t DM (arithmetic check)", () => {
+    expect((10500 * 0.85) / 1000).toBeCloseTo(8.925, 9);
+  });
+});
+
+describe("elemental or oxide, kg/ha or lb/ac, as asked", () => {
+  it("P from P2O5 through the atomic-weight factor (P2O5 → P 0.4364, OXI-02)", () => {
+    expect(removalAmount("corn", 10, "P")).toBeCloseTo(72.5 * formFactor("P2O5", "P"), 9);
+    expect(removalAmount("corn", 10, "P")).toBeCloseTo(31.64, 2);
+  });
+  it("K2O from elemental K (K → K2O 1.2046, OXI-03)", () => {
+    expect(removalAmount("lucerne hay", 1, "K2O")).toBeCloseTo(25 * 1.2046, 3);
+  });
+  it("phosphate and potash are the trade words for P2O5 and K2O (RB209 usage)", () => {
+    expect(removalAmount("peas", 4, "phosphate")).toBeCloseTo(36, 9);
+    expect(removalAmount("peas", 4, "potash")).toBeCloseTo(40, 9);
+  });
+  it("kg/ha to lb/ac with the exact factor (UNIT-08)", () => {
+    expect(removalAmount("corn", 10, "P2O5", "t/ha", "lb/ac")).toBeCloseTo(72.5 * 0.8921791, 5);
+  });
+  it("2 short tons/ac of hay at 18 kg K2O per t is 72 lb K2O/ac (derived: kg/t = lb per 1000 lb; 4000 lb of hay)", () => {
+    expect(removalAmount("grass hay", 2, "K2O", "ton/ac", "lb/ac")).toBeCloseTo(72, 9);
+  });
+  it("kg/ha and lb/ac yields", () => {
+    expect(removalAmount("corn", 10000, "P2O5", "kg/ha")).toBeCloseTo(72.5, 9);
+    expect(removalAmount("corn", 8921.791, "P2O5", "lb/ac")).toBeCloseTo(72.5, 4);
+  });
+});
+
+describe("bushels (USDA standard weights per bushel)", () => {
+  it("bushel weights: corn 56, soybean and wheat 60, barley 48, oats 32, rye 56 lb ('Test weight', USGSA)", () => {
+    expect(["corn", "soybean", "wheat", "barley", "oats", "rye"].map(removalBushelWeight)).toEqual([56, 60, 60, 48, 32, 56]);
+  });
+  // Source: IPNI Plant Nutrition Today, Fall 2008 No. 4 (SUF-08, seen): 200 bu/A corn × 0.27 lb K2O/bu = 54 lb K2O/A.
+  it("IPNI 2008: 200 bu/ac corn removes about 54 lb K2O/ac; the Ontario coefficient gives 54.9 (within 3 %)", () => {
+    const lb = removalAmount("corn", 200, "K2O", "bu/ac", "lb/ac");
+    expect(lb).toBeCloseTo(200 * 4.9 * 56 / 1000, 6);
+    expect(Math.abs(lb - 54) / 54).toBeLessThan(0.03);
+  });
+  // Source: OMAFA 2025 Table 1 prints lb/bu beside kg/t; with the USDA bushel weights our per-bushel
+  // values reproduce the printed ones (derived check of the bushel path; oats excluded: Ontario uses
+  // the 34 lb Canadian bushel).
+  const perBushel = REMOVAL_ROWS.filter((r) => r.published_lb_per_bu && r.id !== "oats").flatMap((r) =>
+    ["N", "P2O5", "K2O"].map((n) => [r.id, n, mid(r.published_lb_per_bu![n] as number | readonly number[])] as const),
+  );
+  it.each(perBushel)("%s %s per bushel matches the printed %s lb/bu", (crop, n, printed) => {
+    const got = removalAmount(crop, 1, n, "bu/ac", "lb/ac");
+    expect(Math.abs(got - printed)).toBeLessThanOrEqual(Math.max(0.012, 0.02 * printed));
+  });
+  it("bu/ac for a crop without a bushel weight is #N/A, saying which units to use", () => {
+    expect(code(() => removalAmount("grass hay", 3, "K2O", "bu/ac"))).toBe("NO_REFERENCE_DATA");
+    expect(() => removalAmount("grass hay", 3, "K2O", "bu/ac")).toThrow(/t\/ha/);
+  });
+  it("bushel spellings: bu/a and bushels/acre", () => {
+    expect(removalAmount("corn", 200, "K2O", "bu/a", "lb/ac")).toBeCloseTo(removalAmount("corn", 200, "K2O", "bushels/acre", "lb/ac"), 12);
+  });
+});
+
+describe("refusals", () => {
+  it("unknown crop lists the crops", () => {
+    expect(code(() => removalAmount("quinoa", 2, "N"))).toBe("UNKNOWN_NAME");
+    expect(() => removalAmount("quinoa", 2, "N")).toThrow(/corn, soybean, wheat/);
+  });
+  it("a nutrient the source does not give for that crop is #N/A, listing those it gives", () => {
+    expect(code(() => removalAmount("peas", 4, "N"))).toBe("NO_REFERENCE_DATA");
+    expect(() => removalAmount("peas", 4, "N")).toThrow(/P2O5, K2O or MgO/);
+    expect(code(() => removalAmount("grass hay", 4, "Mg"))).toBe("NO_REFERENCE_DATA");
+  });
+  it("unknown nutrient word, unknown or wrong-family units", () => {
+    expect(code(() => removalAmount("corn", 10, "phosphoric acid"))).toBe("UNKNOWN_NAME");
+    expect(code(() => removalAmount("corn", 10, "P", "bushels"))).toBe("UNKNOWN_NAME");
+    expect(code(() => removalAmount("corn", 10, "P", "t/ha", "mg/kg"))).toBe("UNIT_MISMATCH");
+    expect(code(() => removalAmount("corn", 10, "P", "mg/kg"))).toBe("UNIT_MISMATCH");
+  });
+  it("a negative yield is refused; a zero yield removes nothing", () => {
+    expect(code(() => removalAmount("corn", -1, "P"))).toBe("OUT_OF_RANGE");
+    expect(removalAmount("corn", 0, "P")).toBe(0);
+  });
+});
+
+describe("data integrity and properties", () => {
+  it("every crop row has a source, a basis and at least one coefficient; ranges are low-high", () => {
+    for (const r of REMOVAL_ROWS) {
+      expect(r.source.length).toBeGreaterThan(20);
+      expect(r.seen_at).toMatch(/^https?:\/\//);
+      expect(r.basis.length).toBeGreaterThan(3);
+      const cs = Object.values(r.kg_per_t);
+      expect(cs.length).toBeGreaterThan(0);
+      for (const c of cs) if (typeof c !== "number") expect(c[1]).toBeGreaterThan(c[0]);
+    }
+    expect(removalCrops()).toContain("lucerne hay");
+  });
+  it("removalTables lists every crop with its basis, nutrients, bushel weight and source", () => {
+    const list = removalTables();
+    expect(list.map((t) => t.crop)).toEqual(removalCrops());
+    const corn = list.find((t) => t.crop === "corn")!;
+    expect(corn.lbPerBushel).toBe(56);
+    expect(corn.nutrients).toEqual(["N", "P2O5", "K2O", "Ca", "Mg", "S"]);
+    expect(corn.source).toMatch(/OMAFA/);
+    expect(list.find((t) => t.crop === "grass hay")!.lbPerBushel).toBeUndefined();
+  });
+  it("removal is linear in yield (invented yields)", () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...removalCrops()), fc.double({ min: 0, max: 100, noNaN: true }), (crop, y) => {
+        const n = Object.keys(REMOVAL_ROWS.find((r) => r.id === crop)!.kg_per_t)[0]!;
+        return Math.abs(removalAmount(crop, y, n) - y * removalAmount(crop, 1, n)) <= 1e-9 * Math.max(1, y);
+      }),
+    );
+  });
+  it("oxide and element round trip: K2O = K × 1.2046, P2O5 = P × 2.2913 (invented yields)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 20, noNaN: true }), (y) => {
+        const k = removalAmount("soybean", y, "K");
+        const k2o = removalAmount("soybean", y, "K2O");
+        return Math.abs(k2o - k * formFactor("K", "K2O")) <= 1e-9 * Math.max(1, k2o);
+      }),
+    );
+  });
+});

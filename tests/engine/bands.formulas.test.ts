@@ -1,0 +1,59 @@
+/**
+ * The bands functions through the headless engine: limits as array literals, spills, defaults,
+ * blanks and errors. Limits of 10, 20, 30, 40 are invented; published values: Source as in
+ * tests/core/bandsSufficiency.test.ts and removal.test.ts (Tri-State 2020 via OSU Ag BMPs and
+ * A&L Great Lakes; Northern Ireland S.R. 2019/81; OMAFA 2025 removal table; LaBarge, OSU, SUF-06).
+ */
+import { evaluateFormula } from "../../src/engine/evaluate";
+
+const value = (f: string) => evaluateFormula(f).value;
+
+describe("band formulas", () => {
+  it("SOIL.BAND with limits as an array literal and the default labels; a limit is in the band above", () => {
+    expect(value("=SOIL.BAND(20,{10,20,30,40})")).toBe("Optimum");
+    expect(value("=SOIL.BAND(5,{10;20;30;40})")).toBe("Very low");
+  });
+  it("SOIL.BAND over a column of values spills, blank in blank out", () => {
+    expect(value('=SOIL.BAND({5;25;"";45},{10,20,30,40})')).toEqual([["Very low"], ["Optimum"], [""], ["Very high"]]);
+  });
+  it("own labels", () => {
+    expect(value('=SOIL.BAND(25,{10,20,30},{"muy bajo","bajo","medio","alto"})')).toBe("medio");
+  });
+  it("limits not ascending and missing labels are #VALUE! with the reason", () => {
+    expect(evaluateFormula("=SOIL.BAND(5,{10,30,20,40})")).toMatchObject({ error: "#VALUE!" });
+    expect(evaluateFormula("=SOIL.BAND(5,{10,30,20,40})").message).toMatch(/strictly ascending/);
+    expect(evaluateFormula("=SOIL.BAND(5,{10,20,30})").message).toMatch(/give labels \(4 of them\)/);
+  });
+  it("SOIL.BANDPOS interpolates and runs on half a band at the ends", () => {
+    expect(value("=SOIL.BANDPOS(25,{10,20,30,40})")).toBeCloseTo(1.5, 12);
+    expect(value("=SOIL.BANDPOS({5;45},{10,20,30,40})")).toEqual([[-0.5], [3.5]]);
+  });
+});
+
+describe("sufficiency, removal and build-up formulas", () => {
+  it("SOIL.SUFFICIENCY: Mehlich-3 P for corn, Mehlich-3 K by CEC, Olsen index", () => {
+    expect(value('=SOIL.SUFFICIENCY("P",25,"corn","Mehlich-3")')).toBe("Optimal");
+    expect(value('=SOIL.SUFFICIENCY("K",110,"corn","Mehlich-3",{4;15})')).toEqual([["Optimal"], ["Deficient"]]);
+    expect(value('=SOIL.SUFFICIENCY("P",23,,"Olsen")')).toBe("Index 2+");
+  });
+  it("SOIL.SUFFICIENCY without a table is #N/A with the message", () => {
+    const r = evaluateFormula('=SOIL.SUFFICIENCY("P",30,"corn","Colwell")');
+    expect(r.error).toBe("#N/A");
+    expect(r.message).toMatch(/no P Colwell table for corn/);
+  });
+  it("SOIL.REMOVAL: t/ha in, kg/ha out by default; bu/ac in, lb/ac out", () => {
+    expect(value('=SOIL.REMOVAL("corn",10,"P2O5")')).toBeCloseTo(72.5, 9);
+    expect(value('=SOIL.REMOVAL("corn",200,"K2O","bu/ac","lb/ac")')).toBeCloseTo(54.88, 2);
+  });
+  it("SOIL.BUILDUP with the default four years, and 0 at or above the target", () => {
+    expect(value("=SOIL.BUILDUP(10,15,20)")).toBeCloseTo(25, 12);
+    expect(value("=SOIL.BUILDUP({10;20},15,20)")).toEqual([[25], [0]]);
+  });
+  it("SOIL.ABOUT has a line for each bands function, with the caution where rates are given", () => {
+    for (const id of ["BAND", "BANDPOS", "SUFFICIENCY", "REMOVAL", "BUILDUP"]) {
+      expect(typeof value(`=SOIL.ABOUT("${id}")`)).toBe("string");
+    }
+    expect(value('=SOIL.ABOUT("REMOVAL")')).toMatch(/Results are estimates/);
+    expect(value('=SOIL.ABOUT("BUILDUP")')).toMatch(/Results are estimates/);
+  });
+});

@@ -1,0 +1,100 @@
+/**
+ * The bands bindings: a season's column against one set of limits, blank in / blank out, error
+ * elements, whole-range arguments and #N/A. Limits and values are invented unless a Source is named.
+ */
+import { band, bandpos, sufficiency, removal, buildup } from "../../src/functions/bands";
+import { PlainHostError, specOf } from "../../src/functions/_binding";
+
+const err = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : undefined);
+
+const LIMITS = [[10], [20], [30], [40]]; // invented, a column range
+
+describe("SOIL.BAND", () => {
+  it("a column of values against a column of limits spills one label per value; blank stays blank", () => {
+    const out = band([[5], [20], [""], [45], [null]], LIMITS);
+    expect(out).toEqual([["Very low"], ["Optimum"], [""], ["Very high"], [""]]);
+  });
+  it("own labels from a row range", () => {
+    expect(band([[25]], [[10, 20, 30]], [["bajo", "medio", "alto", "muy alto"]])).toEqual([["alto"]]);
+  });
+  it("limits not ascending: every element is #VALUE! with the reason", () => {
+    const out = band([[5], [15]], [[10], [30], [20], [40]]);
+    expect(err(out[0]![0])).toMatch(/^#VALUE! limits must be strictly ascending/);
+    expect(err(out[1]![0])).toMatch(/^#VALUE! limits must be strictly ascending/);
+  });
+  it("three limits without labels: #VALUE! asking for four labels", () => {
+    expect(err(band([[5]], [[10, 20, 30]])[0]![0])).toMatch(/^#VALUE! .*give labels \(4 of them\)/);
+  });
+  it("a text value is #VALUE! for that element only", () => {
+    const out = band([[25], ["<5"]], LIMITS);
+    expect(out[0]![0]).toBe("Optimum");
+    expect(err(out[1]![0])).toMatch(/^#VALUE! value: "<5" is not a number/);
+  });
+  it("declares its parameters in catalogue order", () => {
+    expect(specOf(band)?.params.map((p) => p.name)).toEqual(["value", "limits", "labels"]);
+    expect(specOf(bandpos)?.params.map((p) => p.name)).toEqual(["value", "limits"]);
+  });
+});
+
+describe("SOIL.BANDPOS", () => {
+  it("positions for a column; not clamped at the ends", () => {
+    expect(bandpos([[10], [25], [5], [60]], LIMITS)).toEqual([[0], [1.5], [-0.5], [5]]);
+  });
+  it("one limit is not enough", () => {
+    expect(err(bandpos([[5]], [[10]])[0]![0])).toMatch(/^#VALUE! band position needs at least two limits/);
+  });
+});
+
+describe("SOIL.SUFFICIENCY", () => {
+  // Source: Culman et al. (2020) Tri-State Bull. 974 via OSU Ag BMPs: Mehlich-3 P critical level 20 ppm for corn.
+  it("a column of Mehlich-3 P values for corn", () => {
+    expect(sufficiency([["P"]], [[15], [25], [""]], [["corn"]], [["Mehlich-3"]])).toEqual([["Deficient"], ["Optimal"], [""]]);
+  });
+  // Source: A&L Great Lakes summary of Bull. 974: K critical 100 ppm at CEC ≤ 5, 120 ppm above.
+  it("a CEC column picks the K row element by element", () => {
+    expect(sufficiency([["K"]], [[110], [110]], [["corn"]], [["M3"]], [[4], [15]])).toEqual([["Optimal"], ["Deficient"]]);
+  });
+  it("no table for the combination: #N/A with the combinations that exist", () => {
+    const v = sufficiency([["P"]], [[30]], [["corn"]], [["Colwell"]])[0]![0];
+    expect(v).toBeInstanceOf(PlainHostError);
+    expect((v as PlainHostError).kind).toBe("#N/A");
+    expect((v as PlainHostError).message).toMatch(/P Colwell \(wheat; mg\/kg\)/);
+  });
+  it("omitted method is #VALUE! listing the methods", () => {
+    expect(err(sufficiency([["P"]], [[30]], [["corn"]])[0]![0])).toMatch(/^#VALUE! method is needed/);
+  });
+});
+
+describe("SOIL.REMOVAL", () => {
+  // Source: OMAFA Field Crop News (2025) 'Crop Removal Values': corn P2O5 6.6-7.9 kg/t (midpoint 7.25, derived).
+  it("a column of yields, one crop and nutrient", () => {
+    const out = removal([["corn"]], [[10], [""], [12]], [["P2O5"]]);
+    expect(out[0]![0]).toBeCloseTo(72.5, 9);
+    expect(out[1]![0]).toBe("");
+    expect(out[2]![0]).toBeCloseTo(87, 9);
+  });
+  it("crops and nutrients broadcast together; a missing coefficient is #N/A for that element", () => {
+    const out = removal([["peas"], ["peas"]], [[4]], [["P2O5"], ["N"]]);
+    expect(out[0]![0]).toBeCloseTo(36, 9);
+    expect((out[1]![0] as PlainHostError).kind).toBe("#N/A");
+  });
+  it("bu/ac in, lb/ac out", () => {
+    expect(removal([["corn"]], [[200]], [["K2O"]], [["bu/ac"]], [["lb/ac"]])[0]![0]).toBeCloseTo(54.88, 2);
+  });
+  it("declares crop_yield (yield is a reserved word in strict-mode TypeScript)", () => {
+    expect(specOf(removal)?.params.map((p) => p.name)).toEqual(["crop", "crop_yield", "nutrient", "yield_unit", "rate_unit"]);
+  });
+});
+
+describe("SOIL.BUILDUP", () => {
+  // Source: LaBarge, OSU Extension (SUF-06): 20 lb P2O5/A per ppm; Tri-State four-year build-up.
+  it("a column of soil tests against one critical level; omitted years = 4", () => {
+    expect(buildup([[10], [15], [30], [""]], [[15]], [[20]])).toEqual([[25], [0], [0], [""]]);
+  });
+  it("given years", () => {
+    expect(buildup([[10]], [[15]], [[20]], [[2]])).toEqual([[50]]);
+  });
+  it("a zero buffer factor is #VALUE!", () => {
+    expect(err(buildup([[10]], [[15]], [[0]])[0]![0])).toMatch(/^#VALUE! buffer_factor must be greater than 0/);
+  });
+});
