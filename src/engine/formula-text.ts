@@ -21,8 +21,8 @@ function outsideStrings(formula: string, fn: (part: string) => string): string {
     .join("");
 }
 
-/** Excel's stored form (or typed form) → the form the engine parses. Keeps a leading "=" if present. */
-export function toEngineFormula(formula: string): string {
+/** Excel's stored form → the form a user types (our names, no _xlfn. prefixes). Keeps a leading "=". */
+export function toTypedFormula(formula: string): string {
   return outsideStrings(formula, (part) =>
     part
       .replace(STORED_CALL, (m) => {
@@ -31,6 +31,31 @@ export function toEngineFormula(formula: string): string {
       })
       .replace(/_xlfn\._xlws\.|_xlfn\.|_xlws\./gi, ""),
   );
+}
+
+/**
+ * Excel's literals the engine's parser does not read, rewritten to ones it does: an upper-case
+ * exponent (Excel saves 1E-05), TRUE/FALSE without brackets, and "" inside a string. Text in
+ * quotes ("strings", 'sheet names') is left alone apart from the "" escape.
+ */
+function engineLiterals(formula: string): string {
+  return formula
+    .split(/("(?:[^"]|"")*"|'(?:[^']|'')*')/)
+    .map((part, i) => {
+      if (i % 2 === 1) {
+        if (!part.startsWith('"') || !part.slice(1, -1).includes('""')) return part;
+        return `(${part.slice(1, -1).split('""').map((p) => `"${p}"`).join("&CHAR(34)&")})`;
+      }
+      return part
+        .replace(/(?<![A-Za-z0-9_.$!\]])(\d+\.?\d*|\.\d+)E([+-]?\d+)(?![A-Za-z0-9_.(])/g, "$1e$2")
+        .replace(/(?<![A-Za-z0-9_.$!\]])(TRUE|FALSE)(?![A-Za-z0-9_.(!:])/gi, "$1()");
+    })
+    .join("");
+}
+
+/** Excel's stored form (or typed form) → the form the engine parses. Keeps a leading "=" if present. */
+export function toEngineFormula(formula: string): string {
+  return engineLiterals(toTypedFormula(formula));
 }
 
 /** Typed form → Excel's stored form for our functions (other text unchanged). No leading "=". */

@@ -8,7 +8,7 @@ import fs from "fs";
 import path from "path";
 import { DetailedCellError, HyperFormula } from "hyperformula";
 import { CellAddress, a1, parseRange, rangeA1 } from "./cellref";
-import { callsSoil, toEngineFormula, toStoredFormula } from "./formula-text";
+import { callsSoil, toStoredFormula, toTypedFormula } from "./formula-text";
 import { newEngine } from "./hf";
 import { CachedValue, CellWrite, patchSheetXml } from "./sheet-patch";
 import { FormulaCell, readWorkbook } from "./workbook-read";
@@ -91,7 +91,7 @@ function spillOf(hf: HyperFormula, sheet: number, at: CellAddress): Spill {
 }
 
 function typed(stored: string): string {
-  return `=${toEngineFormula(stored)}`;
+  return `=${toTypedFormula(stored)}`;
 }
 
 /**
@@ -152,7 +152,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
       soilFormulaCells += 1;
       if (cm === null) cm = await dynamicArrayIndex(pkg);
       const ref = rangeA1(f.address, spill.rows, spill.cols);
-      writes.push({ address: f.address, value: cachedOf(value), arrayFormula: { text: toStoredFormula(formula), ref, cm } });
+      writes.push({ address: f.address, value: cachedOf(value), arrayFormula: { text: toStoredFormula(f.stored), ref, cm } }); // the file's own text, only our names in stored form
     } else {
       writes.push({ address: f.address, value: cachedOf(value) });
     }
