@@ -311,3 +311,24 @@ describe("argument checks", () => {
     expect(codeOf(() => limeBuffer(6, 6, { calibration: SIK, unit: "mg/kg" }))).toBe("UNIT_MISMATCH");
   });
 });
+
+describe("ABOUT lines carry the method, its source and the cautions (cautions.json, each caution with its source)", () => {
+  // eslint-disable-next-line @typescript-eslint/no-var-requires
+  const about = require("../../src/data/about/lime.json") as Record<string, string>;
+  // eslint-disable-next-line @typescript-eslint/no-var-requires
+  const cautions = require("../../src/data/lime/cautions.json") as { cautions: { id: string; text: string; source: string }[] };
+  const RATE_FUNCTIONS = ["LIMEBUFFER", "LIMEAL", "LIMEALSAT", "LIMEBASESAT", "LIMEPHBC", "LIMEPRODUCT"];
+  it.each(RATE_FUNCTIONS)("%s says results are estimates to check against local calibrations, regulations and licensed advice", (id) => {
+    expect(about[id]).toMatch(/Results are estimates: check them against local calibrations, regulations and licensed advice\./);
+  });
+  it("the split threshold quoted is the one the cited source uses (Ball 2002, Noble Foundation: 2.5 ton/ac surface, 4 ton/ac worked in; seen)", () => {
+    const split = cautions.cautions.find((c) => c.id === "split")!;
+    expect(split.text).toMatch(/2\.5 ton\/ac/);
+    expect(split.source).toMatch(/Ball/);
+    expect(about.LIMEBUFFER).toMatch(/2\.5 ton\/ac a year, 4 ton\/ac worked in: Ball 2002/);
+  });
+  it("handling care for caustic burnt and hydrated lime is in the product-rate line", () => {
+    expect(about.LIMEPRODUCT).toMatch(/burnt \(quick\) and hydrated lime are caustic/);
+    expect(cautions.cautions.every((c) => c.source.length > 0)).toBe(true);
+  });
+});
