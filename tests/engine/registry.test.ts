@@ -50,9 +50,12 @@ describe("registry", () => {
   it("every description's summary fits Excel's 128 characters", () => {
     for (const f of REGISTRY) expect((f.meta.description ?? "").split("\n")[0]!.length).toBeLessThanOrEqual(128);
   });
+  // Names JavaScript cannot carry: `yield` is reserved in strict mode, and the metadata generator
+  // takes Excel's parameter names from the TypeScript signature.
+  const RESERVED: Record<string, Record<string, string>> = { REMOVAL: { yield: "crop_yield" } };
   (catalogue ? it : it.skip)("every built function keeps the catalogue's argument names and order", () => {
     for (const f of REGISTRY) {
-      const expected = catalogue!.get(f.id);
+      const expected = catalogue!.get(f.id)?.map((n) => RESERVED[f.id]?.[n] ?? n);
       if (!expected) continue; // functions added beyond the catalogue
       expect(f.meta.parameters.map((p) => p.name).slice(0, expected.length)).toEqual(expected);
     }
