@@ -13,7 +13,8 @@ const fs = require("fs");
 const path = require("path");
 const JSZip = require("jszip");
 
-const BUILD = path.join(__dirname, "..", "build", "src");
+// SOILCELL_BENCH_BUILD points at another compiled tree (a what-if copy) to measure instead of build/.
+const BUILD = process.env.SOILCELL_BENCH_BUILD ? path.resolve(process.env.SOILCELL_BENCH_BUILD, "src") : path.join(__dirname, "..", "build", "src");
 const { mgPerCmol, formFactor } = require(path.join(BUILD, "core", "chemistry.js"));
 const { toStoredFormula } = require(path.join(BUILD, "engine", "formula-text.js"));
 
@@ -95,7 +96,9 @@ function samples(n, seed = 9) {
 
 /**
  * Engine input (sheet name → rows) for `n` samples: the data and one formula per row and column
- * (`form` "soil" or "native"), or one spilling SOIL formula per column (`form` "spill").
+ * (`form` "soil" or "native"), one spilling formula per column (`form` "spill" for SOIL,
+ * "nativeSpill" for the native arithmetic in the engine's ARRAYFORMULA), or the data alone
+ * (`form` "data", the cost of loading the sheet that every form pays).
  */
 function engineSheet(n, form) {
   const rows = [[...DATA_COLUMNS, ...FORMULAS.map((f) => f.header)]];
@@ -103,10 +106,11 @@ function engineSheet(n, form) {
   for (let i = 0; i < n; i++) {
     const excelRow = i + 2;
     const row = data[i].slice();
-    if (form !== "spill") for (const f of FORMULAS) row.push(`=${forRow(f[form], excelRow)}`);
+    if (form === "soil" || form === "native") for (const f of FORMULAS) row.push(`=${forRow(f[form], excelRow)}`);
     rows.push(row);
   }
   if (form === "spill") FORMULAS.forEach((f, j) => (rows[1][FIRST_FORMULA_COL + j] = `=${forColumn(f.soil, 2, n + 1)}`));
+  if (form === "nativeSpill") FORMULAS.forEach((f, j) => (rows[1][FIRST_FORMULA_COL + j] = `=ARRAYFORMULA(${forColumn(f.native, 2, n + 1)})`));
   return { Season: rows };
 }
 
