@@ -3,6 +3,9 @@
  * messages, no stack traces for expected failures, progress on stderr, results on stdout.
  */
 import { aboutFunction, CAUTION } from "../core/about";
+import { sufficiencyTables } from "../core/bandsSufficiency";
+import { limeCalibrationTables } from "../core/lime-calibrations";
+import { removalTables } from "../core/removal";
 import { evaluateFormula, EvalResult } from "../engine/evaluate";
 import { REGISTRY } from "../engine/registry";
 import { RecalcRefused, RecalcSummary, defaultOutputPath, recalcWorkbook } from "../engine/recalc";
@@ -82,21 +85,35 @@ async function runRecalc(args: string[], io: Io): Promise<number> {
 }
 
 function runList(args: string[], io: Io): number {
-  const rows = REGISTRY.map((f) => ({
+  const functions = REGISTRY.map((f) => ({
     name: f.formulaName,
     arguments: f.meta.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)),
     description: f.meta.description ?? "",
     about: safeAbout(f.id),
   }));
+  const tables = { lime: limeCalibrationTables(), sufficiency: sufficiencyTables(), removal: removalTables() };
   if (args.includes("--json")) {
-    io.out(JSON.stringify(rows, null, 2));
+    io.out(JSON.stringify({ functions, tables }, null, 2));
     return 0;
   }
-  for (const r of rows) {
+  for (const r of functions) {
     io.out(`${r.name}(${r.arguments.join(", ")})`);
     io.out(`    ${r.description.split("\n")[0]}`);
     if (r.about) io.out(`    ${r.about}`);
   }
+  io.out("");
+  io.out("Lime calibrations (SOIL.LIMEBUFFER):");
+  for (const t of tables.lime) {
+    const depth = t.depthCm === undefined ? "depth not stated" : `${t.depthCm} cm`;
+    io.out(`  ${t.id}  ${t.unit}, ${depth}${t.shipped ? "" : ", NOT SHIPPED (answers #N/A)"}  — ${t.source}`);
+  }
+  io.out("Sufficiency tables (SOIL.SUFFICIENCY):");
+  for (const t of tables.sufficiency) {
+    const cec = t.cec ? `, ${t.cec}` : "";
+    io.out(`  ${t.nutrient} ${t.method} ${t.unit}, crop ${t.crop}${cec}: limits ${t.limits.join(", ")}  — ${t.source}`);
+  }
+  io.out("Removal coefficients (SOIL.REMOVAL):");
+  for (const t of tables.removal) io.out(`  ${t.crop} (${t.product}, ${t.basis}): ${t.nutrients.join(", ")}  — ${t.source}`);
   io.out(CAUTION);
   return 0;
 }

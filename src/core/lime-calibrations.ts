@@ -142,3 +142,27 @@ export function limeCalibrationDepthCm(name: string): number {
 export function limeCalibrationUnit(name: string): string {
   return limeCalibration(name).unit;
 }
+
+export interface LimeCalibrationInfo {
+  readonly id: string;
+  readonly source: string;
+  readonly unit: string;
+  /** Calibration depth in cm, where the source states one. */
+  readonly depthCm?: number;
+  /** False for a calibration whose table could not be sourced (it answers #N/A, saying why). */
+  readonly shipped: boolean;
+}
+
+/**
+ * The built-in calibrations with their sources (for `soilcell list`).
+ * @returns one entry per built-in, default first (no @example: the result is a list)
+ */
+export function limeCalibrationTables(): LimeCalibrationInfo[] {
+  return BUILT_INS.map((c) => ({
+    id: c.id,
+    source: c.source,
+    unit: c.unit,
+    depthCm: c.depthCm,
+    shipped: c.kind !== "table" || c.table !== undefined,
+  }));
+}

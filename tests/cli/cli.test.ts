@@ -38,9 +38,15 @@ describe("soilcell eval", () => {
 describe("soilcell list", () => {
   it("lists every function with its arguments and source", () => {
     const r = run("list", "--json");
-    const rows = JSON.parse(r.stdout) as { name: string; about: string }[];
+    const listed = JSON.parse(r.stdout) as { functions: { name: string; about: string }[]; tables: Record<string, { source: string }[]> };
+    const rows = listed.functions;
     expect(rows.map((x) => x.name)).toEqual(expect.arrayContaining(["SOIL.CONVERT", "SOIL.CMOL", "SOIL.MGKG", "SOIL.OXIDE", "SOIL.ABOUT", "SOIL.VERSION"]));
     expect(rows.find((x) => x.name === "SOIL.CONVERT")!.about).toMatch(/NIST/);
+    // every reference table row names its source
+    for (const kind of ["lime", "sufficiency", "removal"]) {
+      expect(listed.tables[kind]!.length).toBeGreaterThan(0);
+      for (const t of listed.tables[kind]!) expect(t.source.length).toBeGreaterThan(5);
+    }
   });
 });
 
