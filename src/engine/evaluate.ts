@@ -39,7 +39,12 @@ export function evaluateFormula(formula: string): EvalResult {
     }
     const isArray = hf.isCellPartOfArray({ sheet, row: 0, col: 0 });
     if (!isArray) return { value: plain(top) };
-    const { height, width } = hf.getSheetDimensions(sheet);
+    // The spill's own extent (the sheet may be larger: a referenced empty cell counts in its size).
+    const inArray = (row: number, col: number) => hf.isCellPartOfArray({ sheet, row, col });
+    let height = 1;
+    while (inArray(height, 0)) height += 1;
+    let width = 1;
+    while (inArray(0, width)) width += 1;
     const rows: EvalValue[][] = [];
     for (let r = 0; r < height; r++) {
       const row: EvalValue[] = [];
