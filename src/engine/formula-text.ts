@@ -69,12 +69,18 @@ export function toStoredFormula(formula: string): string {
   );
 }
 
+const SOIL_CALL = new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.[A-Za-z]`, "i");
+
 /** True when a formula calls one of our functions, in either form. */
 export function callsSoil(formula: string): boolean {
-  const engine = toEngineFormula(formula);
+  return engineFormulaCallsSoil(toEngineFormula(formula));
+}
+
+/** callsSoil for a formula already in the engine's form (what toEngineFormula returned). */
+export function engineFormulaCallsSoil(engine: string): boolean {
   let found = false;
   outsideStrings(engine, (part) => {
-    if (new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.[A-Za-z]`, "i").test(part)) found = true;
+    if (SOIL_CALL.test(part)) found = true;
     return part;
   });
   return found;
