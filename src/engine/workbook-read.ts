@@ -14,6 +14,8 @@ export interface FormulaCell {
   readonly stored: string;
   /** The range an array formula covers in the file, when it is one. */
   readonly arrayRef?: string;
+  /** The formula as the engine parses it (toEngineFormula of `stored`), so it is rewritten once. */
+  readonly engine?: string;
 }
 
 export interface ReadWorkbook {
@@ -74,9 +76,10 @@ export async function readWorkbook(bytes: Buffer, sheetNames: readonly string[])
         if (formula) {
           const value = cell.value as { shareType?: string; ref?: string };
           const arrayRef = value && value.shareType === "array" && value.ref ? value.ref : undefined;
-          formulas.push({ sheet: name, address: { row: r, col: c }, stored: formula, arrayRef });
+          const engine = toEngineFormula(formula);
+          formulas.push({ sheet: name, address: { row: r, col: c }, stored: formula, arrayRef, engine });
           if (arrayRef) spillChildren.push(parseRange(arrayRef));
-          out[c] = `=${toEngineFormula(formula)}`;
+          out[c] = `=${engine}`;
         } else {
           out[c] = rawValue(cell.value);
         }
