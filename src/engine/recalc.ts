@@ -8,7 +8,7 @@ import fs from "fs";
 import path from "path";
 import { DetailedCellError, HyperFormula } from "hyperformula";
 import { CellAddress, a1, parseRange, rangeA1 } from "./cellref";
-import { callsSoil, toStoredFormula, toTypedFormula } from "./formula-text";
+import { callsSoil, engineFormulaCallsSoil, toStoredFormula, toTypedFormula } from "./formula-text";
 import { newEngine } from "./hf";
 import { CachedValue, CellWrite, patchSheetXml } from "./sheet-patch";
 import { FormulaCell, readWorkbook } from "./workbook-read";
@@ -134,15 +134,16 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     const value = hf.getCellValue({ sheet: sheetId, row: f.address.row, col: f.address.col });
     const writes = writesBySheet.get(f.sheet) ?? [];
     writesBySheet.set(f.sheet, writes);
-    const formula = typed(f.stored);
-    const isSoil = callsSoil(f.stored);
+    // The typed form is wanted only in problem reports; the engine form came with the cell.
+    const formula = () => typed(f.stored);
+    const isSoil = f.engine !== undefined ? engineFormulaCallsSoil(f.engine) : callsSoil(f.stored);
     if (!isSoil && value instanceof DetailedCellError && value.value === "#NAME?") {
-      kept.push({ sheet: f.sheet, cell: a1(f.address), formula, error: value.value, message: value.message || "function not supported headless" });
+      kept.push({ sheet: f.sheet, cell: a1(f.address), formula: formula(), error: value.value, message: value.message || "function not supported headless" });
       continue;
     }
     const spill = value instanceof DetailedCellError ? { rows: 1, cols: 1 } : spillOf(hf, sheetId, f.address);
     const report = (at: CellAddress, v: unknown) => {
-      if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula, error: v.value, message: v.message });
+      if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula: formula(), error: v.value, message: v.message });
       else if (typeof v === "string" && /^#(VALUE!|N\/A)\s/.test(v)) {
         // never produced: per-element errors arrive as DetailedCellError
       }
