@@ -1,0 +1,390 @@
+/**
+ * One table of SOIL calls checked in every host we can run: the headless engine (a formula typed
+ * as a user would, through evaluateFormula) and the built add-in bundle in Chromium (the same
+ * call made as Excel's runtime makes it: every argument a matrix, an omitted one null). Both must
+ * give the expected value, and the browser must give exactly what the engine gives.
+ *
+ * Each case names its Source (as in tests/core and tests/engine); argument values that are only
+ * there to exercise shapes, blanks and errors are invented.
+ */
+
+/** One cell of an argument: a number, a text, or null for a blank cell. */
+export type CaseCell = number | string | null;
+/** An argument: a single value, a range (rows of cells), or undefined for an omitted argument. */
+export type CaseArg = CaseCell | CaseCell[][] | undefined;
+
+export interface ExpectedError {
+  readonly error: "#VALUE!" | "#N/A";
+  /** The whole message, or a pattern it must match. */
+  readonly message: string | RegExp;
+}
+/** An expected element: a number (to `digits` decimals), a text or a pattern, "" for blank, an error. */
+export type ExpectedCell = number | string | RegExp | ExpectedError;
+export type Expected = ExpectedCell | ExpectedCell[][];
+
+export interface HostCase {
+  /** What is checked and its source. */
+  readonly name: string;
+  /** The functions.md area, one of the binding modules. */
+  readonly area: string;
+  /** Function id without namespace, e.g. "CMOL". */
+  readonly id: string;
+  readonly args: readonly CaseArg[];
+  readonly expected: Expected;
+  /** Decimals a number must match to (toBeCloseTo); default 9. */
+  readonly digits?: number;
+}
+
+const col = (...cells: CaseCell[]): CaseCell[][] => cells.map((c) => [c]);
+const row = (...cells: CaseCell[]): CaseCell[][] => [cells];
+const err = (message: string | RegExp, error: ExpectedError["error"] = "#VALUE!"): ExpectedError => ({ error, message });
+
+// Derived from IUPAC/CIAAW standard atomic weights (Ca 40.078, Mg 24.305, K 39.0983, Na 22.98977):
+// mg/kg per cmol(+)/kg = atomic weight × 10 ÷ charge. Source: CIAAW 2021 standard atomic weights.
+const CEC05 = { ca: 2000 / 200.39, mg: 180 / 121.525, k: 150 / 390.983, na: 30 / 229.8977, acidity: 2 };
+const CEC05_SUM = CEC05.ca + CEC05.mg + CEC05.k + CEC05.na + CEC05.acidity;
+const pctOf = (x: number) => (100 * x) / CEC05_SUM;
+
+export const CASES: readonly HostCase[] = [
+  // ---- units -------------------------------------------------------------------------------
+  {
+    name: "CONVERT mg/kg → kg/ha over 15 cm at 1.3 g/cm3 (UNIT-16, derived from the layer-mass definition)",
+    area: "units",
+    id: "CONVERT",
+    args: [10, "mg/kg", "kg/ha", 15, 1.3],
+    expected: 19.5,
+  },
+  {
+    name: "CONVERT broadcasts a column of values against a column of units (UNIT-16 derived; lb/ac from the exact pound 0.45359237 kg and acre 4046.8564224 m2, derived)",
+    area: "units",
+    id: "CONVERT",
+    args: [col(10, 20), "mg/kg", col("kg/ha", "lb/ac"), 15, 1.3],
+    expected: [[19.5], [39 / (0.45359237 / 0.40468564224)]],
+  },
+  {
+    name: "CONVERT without the density it needs is #VALUE! naming it (UNIT-16 inputs; message is the contract)",
+    area: "units",
+    id: "CONVERT",
+    args: [10, "mg/kg", "kg/ha", 15],
+    expected: err("converting mg/kg to kg/ha needs bulk_density (dry bulk density in g/cm3)"),
+  },
+  {
+    name: "CONVERT with an argument left out in the middle takes its default (none: depth is asked for)",
+    area: "units",
+    id: "CONVERT",
+    args: [10, "mg/kg", "kg/ha", undefined, 1.3],
+    expected: err(/needs depth_cm/),
+  },
+  {
+    name: "CMOL column spill with a blank and a negative element (IUPAC/CIAAW: 200.39 mg/kg Ca per cmol(+)/kg, derived)",
+    area: "units",
+    id: "CMOL",
+    args: [col(200.39, null, -1), "Ca"],
+    expected: [[1], [""], [err(/^mg_per_kg must be at least 0/)]],
+  },
+  {
+    name: "CMOL accepts numeric text; a below-detection text is NOT_A_NUMBER with a hint (IUPAC/CIAAW derived; inputs invented)",
+    area: "units",
+    id: "CMOL",
+    args: [col("200.39", "<5"), "Ca"],
+    expected: [[1], [err(/^mg_per_kg: "<5" is not a number \(a below- or above-detection value/)]],
+  },
+  {
+    name: "CMOL of an unknown ion lists the accepted ones (inputs invented)",
+    area: "units",
+    id: "CMOL",
+    args: [200.39, "Xx"],
+    expected: err('unknown ion "Xx"; use Ca, Mg, K, Na, NH4, H, Al or Mn'),
+  },
+  {
+    name: "CMOL ranges of different shapes are one #VALUE! naming both (inputs invented)",
+    area: "units",
+    id: "CMOL",
+    args: [row(1, 2), col("Ca", "Mg")],
+    expected: err("mg_per_kg is 1×2 but ion is 2×1; ranges must have the same shape, or be a single cell"),
+  },
+  {
+    name: "OXIDE 2×2 block with a blank: P2O5 → P factor 0.4364 (Source: Virginia Tech SPES-201NP, seen)",
+    area: "units",
+    id: "OXIDE",
+    args: [
+      [
+        [100, 50],
+        [null, 20],
+      ],
+      "P2O5",
+      "P",
+    ],
+    expected: [
+      [43.64, 21.82],
+      ["", 8.728],
+    ],
+    digits: 2,
+  },
+  // ---- cations -----------------------------------------------------------------------------
+  {
+    name: "CEC of the CEC-05 soil by summation, 13.976 cmol(+)/kg (derived from IUPAC equivalent weights)",
+    area: "cations",
+    id: "CEC",
+    args: [2000, 180, 150, 30, 2],
+    expected: 13.976,
+    digits: 3,
+  },
+  {
+    name: "CEC column of Ca spills with blank in blank out and a per-element error (CEC-05 derived; other inputs invented)",
+    area: "cations",
+    id: "CEC",
+    args: [col(2000, null, -1), 180, 150, 30, 2],
+    expected: [[13.976], [""], [err(/^ca must be at least 0 mg\/kg/)]],
+    digits: 3,
+  },
+  {
+    name: "SATURATION row of five parts of the CEC-05 soil (derived from IUPAC equivalent weights)",
+    area: "cations",
+    id: "SATURATION",
+    args: [row("Ca", "Mg", "K", "Na", "acidity"), 2000, 180, 150, 30, 2],
+    expected: [[pctOf(CEC05.ca), pctOf(CEC05.mg), pctOf(CEC05.k), pctOf(CEC05.na), pctOf(CEC05.acidity)]],
+    digits: 3,
+  },
+  {
+    name: "SAR of 15, 6, 4 mmol(c)/L is 6.708 (CEC-10, derived from the USDA Handbook 60 SAR definition)",
+    area: "cations",
+    id: "SAR",
+    args: [15, 6, 4],
+    expected: 6.708,
+    digits: 3,
+  },
+  {
+    name: "CEC with an unknown unit lists the accepted ones (inputs invented)",
+    area: "cations",
+    id: "CEC",
+    args: [1, 1, 1, 1, 0, "lbs"],
+    expected: err('unknown unit "lbs" for unit; use mg/kg, g/kg, %, cmol/kg, mmol/kg, mg/dm3'),
+  },
+  // ---- nitrogen ----------------------------------------------------------------------------
+  {
+    name: "NDFA of the NFIX-02 case is 71.43 % (derived from the natural abundance equation)",
+    area: "nitrogen",
+    id: "NDFA",
+    args: [6, 1, -1],
+    expected: 71.43,
+    digits: 2,
+  },
+  {
+    name: "NDFA with reference equal to B cannot be computed (inputs invented; message is the contract)",
+    area: "nitrogen",
+    id: "NDFA",
+    args: [-1, 0, -1],
+    expected: err("d15n_reference equals b_value (-1 ‰): the natural abundance method cannot tell soil N from fixed N here"),
+  },
+  {
+    name: "NFIXDM pasture rule 20 kg N/t over a column with a blank and an out-of-range DM (Source: Peoples et al. 2012, seen)",
+    area: "nitrogen",
+    id: "NFIXDM",
+    args: [col(2, null, -1), "pasture"],
+    expected: [[40], [""], [err(/^shoot_dm must be from 0 to 60 t\/ha/)]],
+  },
+  {
+    name: "NFIXED of NFIX-04, 200 kg shoot N × 71.4 %, shoots only (derived)",
+    area: "nitrogen",
+    id: "NFIXED",
+    args: [8, 2.5, 71.4, "shoot"],
+    expected: 142.8,
+  },
+  {
+    name: "NFIXED with root_factor omitted says a factor is needed (inputs invented)",
+    area: "nitrogen",
+    id: "NFIXED",
+    args: [8, 2.5, 80],
+    expected: err(/^root_factor is needed/),
+  },
+  {
+    name: "NDIFF with soil mineral N corrections, 250 − 90 + 40 − 60 (derived from the N-difference definition; inputs invented)",
+    area: "nitrogen",
+    id: "NDIFF",
+    args: [250, 90, 40, 60],
+    expected: 140,
+  },
+  // ---- lime --------------------------------------------------------------------------------
+  {
+    name: "LIMEBUFFER SIKORA-OR2025 buffer 6.0 to pH 5.6 is 1.7 ton/ac (Source: Moore 2025, OSU Extension EM 9585 Table 1, seen)",
+    area: "lime",
+    id: "LIMEBUFFER",
+    args: [6, 5.6, "SIKORA-OR2025", undefined, undefined, "ton/ac"],
+    expected: 1.7,
+  },
+  {
+    name: "LIMEBUFFER column of buffer pH spills; 4.0 is outside the table, not extrapolated (EM 9585 Table 1, seen)",
+    area: "lime",
+    id: "LIMEBUFFER",
+    args: [col(6.5, 6, 4), 6, "SIKORA-OR2025", undefined, undefined, "ton/ac"],
+    expected: [[1.2], [2.5], [err(/^buffer_ph 4 is outside the SIKORA-OR2025 table/)]],
+  },
+  {
+    name: "LIMEAL with the factor left out takes 1.5: 2 cmol(+)/kg Al over 20 cm at 1.2 g/cm3 is 3.6031 t/ha CaCO3 (LIME-24, derived)",
+    area: "lime",
+    id: "LIMEAL",
+    args: [2, undefined, 20, 1.2],
+    expected: 3.6031,
+    digits: 4,
+  },
+  {
+    name: "FINENESS of limestone A, a whole column taken as one value, is 85.28 % (Source: BC Soil Factsheet 637.200-2, seen)",
+    area: "lime",
+    id: "FINENESS",
+    args: [col(78.8, 10, 2.4, 7.8)],
+    expected: 85.28,
+  },
+  // ---- bands -------------------------------------------------------------------------------
+  {
+    name: "BAND text results spill over a column with a blank; a limit belongs to the band above (limits 10/20/30/40 invented)",
+    area: "bands",
+    id: "BAND",
+    args: [col(5, 25, null, 45), row(10, 20, 30, 40)],
+    expected: [["Very low"], ["Optimum"], [""], ["Very high"]],
+  },
+  {
+    name: "BAND with limits not ascending is #VALUE! with the reason (invented limits)",
+    area: "bands",
+    id: "BAND",
+    args: [5, row(10, 30, 20, 40)],
+    expected: err(/strictly ascending/),
+  },
+  {
+    name: "SUFFICIENCY Mehlich-3 K 110 mg/kg for corn by CEC 4 and 15 (Source: Culman et al. 2020, Tri-State Bulletin 974, as restated by OSU Ag BMPs, seen)",
+    area: "bands",
+    id: "SUFFICIENCY",
+    args: ["K", 110, "corn", "Mehlich-3", col(4, 15)],
+    expected: [["Optimal"], ["Deficient"]],
+  },
+  {
+    name: "SUFFICIENCY with no table for the combination is #N/A (a gap in the shipped tables, not a value)",
+    area: "bands",
+    id: "SUFFICIENCY",
+    args: ["P", 30, "corn", "Colwell"],
+    expected: err(/no P Colwell table for corn/, "#N/A"),
+  },
+  {
+    name: "REMOVAL corn 10 t/ha as P2O5 is 72.5 kg/ha, the midpoint of 6.6–7.9 kg/t (Source: OMAFA Field Crop News 2025 'Crop Removal Values' Table 1, seen; derived)",
+    area: "bands",
+    id: "REMOVAL",
+    args: ["corn", 10, "P2O5"],
+    expected: 72.5,
+  },
+  {
+    name: "BUILDUP over four years by default, 0 at or above the target (Tri-State build-up rule, derived; inputs invented)",
+    area: "bands",
+    id: "BUILDUP",
+    args: [col(10, 20), 15, 20],
+    expected: [[25], [0]],
+  },
+  // ---- meta --------------------------------------------------------------------------------
+  {
+    name: "VERSION names the package version (invented check of the format)",
+    area: "meta",
+    id: "VERSION",
+    args: [],
+    expected: /^soilcell \d+\.\d+\.\d+$/,
+  },
+  {
+    name: "ABOUT of CMOL names its source (IUPAC)",
+    area: "meta",
+    id: "ABOUT",
+    args: ["CMOL"],
+    expected: /IUPAC/,
+  },
+  {
+    name: "ABOUT of an unknown id lists the functions (invented id)",
+    area: "meta",
+    id: "ABOUT",
+    args: ["NOPE"],
+    expected: err(/^unknown function "NOPE"; use ABOUT, /),
+  },
+];
+
+// ---------------------------------------------------------------------------------------------
+// Writing a case as a formula
+
+function literal(c: CaseCell): string {
+  if (c === null) return '""';
+  if (typeof c === "number") return String(c);
+  return `"${c.replace(/"/g, '""')}"`;
+}
+
+function argText(a: CaseArg): string {
+  if (a === undefined) return "";
+  if (Array.isArray(a)) return `{${a.map((r) => r.map(literal).join(",")).join(";")}}`;
+  return literal(a);
+}
+
+/** The formula a user would type for a case, e.g. `=SOIL.CMOL({200.39;"";-1},"Ca")`. */
+export function formulaOf(c: HostCase): string {
+  const args = [...c.args];
+  while (args.length && args[args.length - 1] === undefined) args.pop();
+  return `=SOIL.${c.id}(${args.map(argText).join(",")})`;
+}
+
+/** The arguments as Excel's runtime passes them to a matrix-only function of `paramCount` params. */
+export function excelArgsOf(c: HostCase, paramCount: number): (CaseCell[][] | null)[] {
+  const out: (CaseCell[][] | null)[] = [];
+  for (let i = 0; i < paramCount; i++) {
+    const a = c.args[i];
+    out.push(a === undefined ? null : Array.isArray(a) ? a.map((r) => [...r]) : [[a]]);
+  }
+  return out;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Results, the same shape from every host
+
+export interface ResultError {
+  readonly error: string;
+  readonly message: string;
+}
+export type ResultCell = number | string | ResultError;
+export type Result = ResultCell | ResultCell[][];
+
+function isExpectedError(e: unknown): e is ExpectedError {
+  return typeof e === "object" && e !== null && !(e instanceof RegExp) && "error" in e;
+}
+
+/** Every way `actual` differs from `expected`, as lines (empty when it matches). */
+export function mismatches(c: HostCase, actual: Result): string[] {
+  const digits = c.digits ?? 9;
+  const problems: string[] = [];
+  const cellCheck = (where: string, e: ExpectedCell, a: ResultCell | undefined) => {
+    const shown = JSON.stringify(a);
+    if (isExpectedError(e)) {
+      if (typeof a !== "object" || a === null) return problems.push(`${where}: expected ${e.error}, got ${shown}`);
+      if (a.error !== e.error) problems.push(`${where}: expected ${e.error}, got ${a.error}`);
+      const ok = typeof e.message === "string" ? a.message === e.message : e.message.test(a.message);
+      if (!ok) problems.push(`${where}: message ${JSON.stringify(a.message)} does not match ${String(e.message)}`);
+      return;
+    }
+    if (e instanceof RegExp) {
+      if (typeof a !== "string" || !e.test(a)) problems.push(`${where}: expected text matching ${String(e)}, got ${shown}`);
+      return;
+    }
+    if (typeof e === "number") {
+      if (typeof a !== "number" || !(Math.abs(a - e) < 10 ** -digits / 2)) problems.push(`${where}: expected ${e} to ${digits} decimals, got ${shown}`);
+      return;
+    }
+    if (a !== e) problems.push(`${where}: expected ${JSON.stringify(e)}, got ${shown}`);
+  };
+  if (Array.isArray(c.expected)) {
+    if (!Array.isArray(actual)) return [`expected ${c.expected.length} rows, got the single value ${JSON.stringify(actual)}`];
+    const want = c.expected;
+    const shapeOk = actual.length === want.length && actual.every((r, i) => r.length === want[i]!.length);
+    if (!shapeOk) return [`expected shape ${want.length}×${want[0]!.length}, got ${actual.length}×${actual[0]?.length ?? 0}`];
+    want.forEach((r, i) => r.forEach((e, j) => cellCheck(`[${i}][${j}]`, e, actual[i]![j])));
+  } else {
+    if (Array.isArray(actual)) return [`expected a single value, got ${actual.length} rows ${JSON.stringify(actual)}`];
+    cellCheck("value", c.expected, actual);
+  }
+  return problems;
+}
+
+/** A 1×1 grid is a single value, as a host shows it in one cell. */
+export function unwrap(rows: ResultCell[][]): Result {
+  return rows.length === 1 && rows[0]!.length === 1 ? rows[0]![0]! : rows;
+}
