@@ -31,8 +31,20 @@ type HfValue = unknown;
 /** A HyperFormula argument value as Excel would pass it to a custom function. */
 function excelArg(v: HfValue): unknown {
   if (v === undefined) return null;
-  if (v instanceof SimpleRangeValue) return v.data.map((row) => row.map(excelCell));
+  if (v instanceof SimpleRangeValue) return excelGrid(v.data);
   return [[excelCell(v)]];
+}
+
+const isPlain = (c: unknown) => typeof c === "number" || typeof c === "string" || typeof c === "boolean";
+
+/**
+ * A range's rows as Excel would pass them. Copied only when some cell needs converting: a whole
+ * column of plain values is passed as it is (bindings only read their arguments), which spares
+ * an array per row on every spilling call.
+ */
+function excelGrid(data: unknown[][]): unknown[][] {
+  for (const row of data) for (const c of row) if (!isPlain(c)) return data.map((r) => r.map(excelCell));
+  return data;
 }
 
 function excelCell(c: unknown): unknown {
@@ -41,6 +53,12 @@ function excelCell(c: unknown): unknown {
     return (c as { val: number }).val; // HyperFormula's typed numbers (dates, percents)
   }
   return c;
+}
+
+/** The binding's result rows as engine values; copied only when some element needs converting. */
+function hfGrid(rows: unknown[][]): unknown[][] {
+  for (const row of rows) for (const v of row) if (!isPlain(v)) return rows.map((r) => r.map(hfCell));
+  return rows;
 }
 
 function hfCell(v: unknown): unknown {
@@ -65,7 +83,7 @@ function implement(fn: RegisteredFunction) {
     return self.runFunction(ast.args, state, self.metadata(fn.formulaName), (...args: unknown[]) => {
       const rows = fn.binding(...args.map((a, i) => (omitted[i] ? null : excelArg(a))));
       if (rows.length === 1 && (rows[0] as unknown[]).length === 1) return hfCell((rows[0] as unknown[])[0]);
-      return SimpleRangeValue.onlyValues(rows.map((r) => r.map(hfCell)) as never);
+      return SimpleRangeValue.onlyValues(hfGrid(rows) as never);
     });
   };
 }
