@@ -1,0 +1,390 @@
+/**
+ * `npm run demo`: recalculates every sample workbook headless into demo-output/ with the same
+ * code Excel runs, then reads the results back and prints what a consultant would want to know
+ * first: how many samples were interpreted, how much lime each farm needs, which paddocks sit
+ * below optimum, and which cells are in error and why. The inputs are never written.
+ */
+import crypto from "crypto";
+import fs from "fs";
+import path from "path";
+import ExcelJS from "exceljs";
+import { CAUTION } from "../core/about";
+import { CellProblem, RecalcSummary, recalcWorkbook } from "../engine/recalc";
+
+/** Sheet names and column headers the sample workbooks use; the generator takes them from here. */
+export const LAYOUT = {
+  SHEETS: { farms: "Farms", legume: "Legume N budget", legumeTotals: "Farm totals" },
+  /** The group label above a lab sheet's interpretation columns (row above the headers). */
+  SOIL_GROUP: "Interpretation: SOIL formulas",
+  HEADERS: {
+    sampleId: "Sample ID",
+    farm: "Farm",
+    paddock: "Paddock",
+    area: "Area (ha)",
+    crop: "Next crop",
+    product: "Lime product",
+    lab: "Lab",
+    samples: "Samples",
+    pBand: "P band",
+    pPos: "P position (band scale)",
+    kBand: "K band",
+    kPos: "K position (band scale)",
+    limeCaco3: "Lime as CaCO3 (t/ha)",
+    limeProduct: "Lime product (t/ha)",
+    limeTonnes: "Lime to spread (t)",
+    needLime: "Paddocks needing lime",
+    pBelow: "P below optimum",
+    kBelow: "K below optimum",
+    legumePaddocks: "Legume paddocks",
+    nFixedTotal: "N fixed (kg N)",
+    nCreditTotal: "N credit to next crop (kg N)",
+    nBalance: "N balance (kg N/ha)",
+  },
+} as const;
+
+const H = LAYOUT.HEADERS;
+
+export interface DemoOptions {
+  /** Folder of workbooks to recalculate; default sample-workbooks/ of the repository. */
+  readonly inputDir?: string;
+  /** Folder for the recalculated copies; default demo-output/ of the repository. */
+  readonly outputDir?: string;
+  /** Where the human summary goes; default stdout. Pass null for none. */
+  readonly print?: ((line: string) => void) | null;
+}
+
+export interface WorkbookResult {
+  readonly file: string;
+  readonly output: string;
+  readonly formulaCells: number;
+  readonly soilFormulaCells: number;
+  readonly spilledCells: number;
+  readonly errors: readonly CellProblem[];
+  readonly kept: readonly CellProblem[];
+  readonly seconds: number;
+}
+
+export interface LabSamples {
+  readonly workbook: string;
+  readonly sheet: string;
+  readonly samples: number;
+  /** Samples with at least one SOIL result in the row. */
+  readonly interpreted: number;
+}
+
+export interface FarmLime {
+  readonly farm: string;
+  readonly lab: string;
+  readonly samples: number;
+  readonly paddocksNeedingLime: number;
+  readonly product: string;
+  /** Product as received, tonnes, over the farm's sampled paddocks. */
+  readonly tonnes: number;
+}
+
+export interface BelowOptimum {
+  readonly farm: string;
+  /** Sample IDs whose P (or K) lies below the first limit of its band table. */
+  readonly p: readonly string[];
+  /** null where the lab sheet has no K band (no reference table for that extraction). */
+  readonly k: readonly string[] | null;
+}
+
+export interface LegumeFarm {
+  readonly farm: string;
+  readonly paddocks: number;
+  readonly nFixedKg: number;
+  readonly nCreditKg: number;
+}
+
+export interface ErrorReason {
+  readonly error: string;
+  readonly message: string;
+  readonly cells: readonly string[];
+}
+
+export interface DemoSummary {
+  readonly inputDir: string;
+  readonly outputDir: string;
+  readonly workbooks: readonly WorkbookResult[];
+  readonly labs: readonly LabSamples[];
+  readonly samples: number;
+  readonly lime: readonly FarmLime[];
+  readonly belowOptimum: readonly BelowOptimum[];
+  readonly legume: readonly LegumeFarm[];
+  /** Paddocks of the legume budget whose grain took more N than the crop fixed. */
+  readonly legumeNegative: readonly string[];
+  readonly errors: readonly (CellProblem & { workbook: string })[];
+  readonly reasons: readonly ErrorReason[];
+  /** Every input file has the same bytes after the run as before. */
+  readonly inputsUntouched: boolean;
+}
+
+/**
+ * The repository root: the nearest folder above this file with soilcell's package.json and a
+ * sample-workbooks/ folder (the compiled build/ holds a copy of package.json, but no samples).
+ */
+export function repoRoot(from = __dirname): string {
+  let dir = from;
+  for (;;) {
+    const pkg = path.join(dir, "package.json");
+    if (fs.existsSync(pkg) && fs.existsSync(path.join(dir, "sample-workbooks"))) {
+      try {
+        if (JSON.parse(fs.readFileSync(pkg, "utf8")).name === "soilcell") return dir;
+      } catch {
+        // not ours; keep looking
+      }
+    }
+    const up = path.dirname(dir);
+    if (up === dir) return process.cwd();
+    dir = up;
+  }
+}
+
+const digest = (file: string) => crypto.createHash("sha256").update(fs.readFileSync(file)).digest("hex");
+
+/** A cell's value as the file caches it (formula results unwrapped; errors as { error }). */
+function plain(v: ExcelJS.CellValue): unknown {
+  if (v === null || v === undefined) return null;
+  if (typeof v === "object" && !(v instanceof Date)) {
+    if ("formula" in v || "sharedFormula" in v) return plain((v as { result?: ExcelJS.CellValue }).result ?? null);
+    if ("richText" in v) return v.richText.map((t) => t.text).join("");
+  }
+  return v;
+}
+
+const asNumber = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
+const asText = (v: unknown): string => (v === null || v === undefined ? "" : typeof v === "object" ? "" : String(v));
+
+interface Table {
+  readonly headerRow: number;
+  readonly header: Map<string, number>;
+  readonly rows: unknown[][];
+}
+
+/** Reads a sheet as a table under the header row that holds `firstHeader` in column A. */
+function table(ws: ExcelJS.Worksheet, firstHeader: string): Table | undefined {
+  let headerRow = 0;
+  for (let r = 1; r <= Math.min(ws.rowCount, 10); r++) {
+    if (asText(plain(ws.getCell(r, 1).value)) === firstHeader) {
+      headerRow = r;
+      break;
+    }
+  }
+  if (!headerRow) return undefined;
+  const header = new Map<string, number>();
+  ws.getRow(headerRow).eachCell((cell, c) => header.set(asText(plain(cell.value)), c));
+  const rows: unknown[][] = [];
+  for (let r = headerRow + 1; r <= ws.rowCount; r++) {
+    const row = ws.getRow(r);
+    const first = plain(row.getCell(1).value);
+    if (first === null || first === "") break;
+    const values: unknown[] = [];
+    for (let c = 1; c <= ws.columnCount; c++) values[c] = plain(row.getCell(c).value);
+    rows.push(values);
+  }
+  return { headerRow, header, rows };
+}
+
+const column = (t: Table, name: string): number | undefined => t.header.get(name);
+
+async function readOutputs(outputs: readonly { file: string; output: string }[]) {
+  const labs: LabSamples[] = [];
+  const lime: FarmLime[] = [];
+  const below = new Map<string, { p: string[]; k: string[] | null }>();
+  const legume: LegumeFarm[] = [];
+  const legumeNegative: string[] = [];
+  for (const { file, output } of outputs) {
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.readFile(output);
+    for (const ws of wb.worksheets) {
+      const lab = table(ws, H.sampleId);
+      if (lab && column(lab, H.farm) && column(lab, H.limeCaco3)) {
+        // Merged cells repeat their value: the group starts at the first column that shows it.
+        let firstSoil = column(lab, H.limeCaco3) as number;
+        if (lab.headerRow > 1) {
+          ws.getRow(lab.headerRow - 1).eachCell((cell, c) => {
+            if (asText(plain(cell.value)) === LAYOUT.SOIL_GROUP) firstSoil = Math.min(firstSoil, c);
+          });
+        }
+        const soilCols = [...lab.header.values()].filter((c) => c >= firstSoil);
+        let interpreted = 0;
+        for (const row of lab.rows) {
+          if (soilCols.some((c) => row[c] !== null && row[c] !== "")) interpreted++;
+          const farm = asText(row[column(lab, H.farm) as number]);
+          const id = asText(row[1]);
+          const kCol = column(lab, H.kPos);
+          const entry = below.get(farm) ?? { p: [], k: kCol ? [] : null };
+          below.set(farm, entry);
+          const p = asNumber(row[column(lab, H.pPos) ?? 0]);
+          const k = kCol ? asNumber(row[kCol]) : null;
+          if (p !== null && p < 0) entry.p.push(id);
+          if (k !== null && k < 0) entry.k?.push(id);
+        }
+        labs.push({ workbook: path.basename(file), sheet: ws.name, samples: lab.rows.length, interpreted });
+      }
+      if (ws.name === LAYOUT.SHEETS.farms) {
+        const t = table(ws, H.farm);
+        if (!t) continue;
+        for (const row of t.rows) {
+          const farm = asText(row[1]);
+          if (!column(t, H.lab) || !asText(row[column(t, H.lab) as number])) continue; // the totals row
+          lime.push({
+            farm,
+            lab: asText(row[column(t, H.lab) as number]),
+            samples: asNumber(row[column(t, H.samples) as number]) ?? 0,
+            paddocksNeedingLime: asNumber(row[column(t, H.needLime) as number]) ?? 0,
+            product: asText(row[column(t, H.product) as number]),
+            tonnes: asNumber(row[column(t, H.limeTonnes) as number]) ?? 0,
+          });
+        }
+      }
+      if (ws.name === LAYOUT.SHEETS.legumeTotals) {
+        const t = table(ws, H.farm);
+        if (!t) continue;
+        for (const row of t.rows) {
+          const farm = asText(row[1]);
+          if (/^all farms$/i.test(farm)) continue;
+          legume.push({
+            farm,
+            paddocks: asNumber(row[column(t, H.legumePaddocks) as number]) ?? 0,
+            nFixedKg: asNumber(row[column(t, H.nFixedTotal) as number]) ?? 0,
+            nCreditKg: asNumber(row[column(t, H.nCreditTotal) as number]) ?? 0,
+          });
+        }
+      }
+      if (ws.name === LAYOUT.SHEETS.legume) {
+        const t = table(ws, H.sampleId);
+        const bal = t && column(t, H.nBalance);
+        if (!t || !bal) continue;
+        for (const row of t.rows) {
+          const v = asNumber(row[bal]);
+          if (v !== null && v < 0) legumeNegative.push(asText(row[1]));
+        }
+      }
+    }
+  }
+  const belowOptimum = [...below.entries()].map(([farm, e]) => ({ farm, p: e.p, k: e.k }));
+  return { labs, lime, belowOptimum, legume, legumeNegative };
+}
+
+function groupReasons(errors: readonly (CellProblem & { workbook: string })[]): ErrorReason[] {
+  const byReason = new Map<string, ErrorReason & { cells: string[] }>();
+  for (const e of errors) {
+    const key = `${e.error} ${e.message}`;
+    const r = byReason.get(key) ?? { error: e.error, message: e.message, cells: [] };
+    r.cells.push(`${e.workbook}: ${e.sheet}!${e.cell}`);
+    byReason.set(key, r);
+  }
+  return [...byReason.values()];
+}
+
+const fmt = (n: number, digits = 1) => n.toLocaleString("en-GB", { minimumFractionDigits: digits, maximumFractionDigits: digits });
+
+function report(s: DemoSummary, say: (line: string) => void): void {
+  say(`soilcell demo: ${s.workbooks.length} sample workbooks recalculated headless into ${path.relative(process.cwd(), s.outputDir) || s.outputDir}/`);
+  for (const w of s.workbooks) {
+    say(`  ${path.basename(w.file)}: ${w.formulaCells} formula cells (${w.soilFormulaCells} SOIL formulas, ${w.spilledCells} spilled cells), ${w.errors.length} in error, ${w.seconds.toFixed(1)} s`);
+  }
+  say("");
+  say(`Samples interpreted: ${s.labs.reduce((a, l) => a + l.interpreted, 0)} of ${s.samples}`);
+  for (const l of s.labs) say(`  ${l.sheet}: ${l.interpreted} of ${l.samples}`);
+  if (s.lime.length) {
+    say("");
+    say("Lime needed per farm (product as received over the sampled paddocks):");
+    for (const f of s.lime) {
+      say(`  ${f.farm.padEnd(14)} ${fmt(f.tonnes).padStart(8)} t of ${f.product}, ${f.paddocksNeedingLime} of ${f.samples} paddocks`);
+    }
+    say(`  ${"all farms".padEnd(14)} ${fmt(s.lime.reduce((a, f) => a + f.tonnes, 0)).padStart(8)} t`);
+  }
+  if (s.belowOptimum.length) {
+    say("");
+    say("Paddocks with bands below optimum (under the first limit of the band table):");
+    for (const b of s.belowOptimum) {
+      const show = (ids: readonly string[] | null) =>
+        ids === null ? "no reference table" : ids.length ? `${ids.length} (${ids.slice(0, 5).join(", ")}${ids.length > 5 ? ", …" : ""})` : "0";
+      say(`  ${b.farm.padEnd(14)} P ${show(b.p)}; K ${show(b.k)}`);
+    }
+  }
+  if (s.legume.length) {
+    say("");
+    say("Legume N budget:");
+    for (const f of s.legume) say(`  ${f.farm.padEnd(14)} ${f.paddocks} paddocks, ${fmt(f.nFixedKg, 0)} kg N fixed, ${fmt(f.nCreditKg, 0)} kg N credit to the next crop`);
+    if (s.legumeNegative.length) say(`  grain removed more N than was fixed in: ${s.legumeNegative.join(", ")}`);
+  }
+  say("");
+  say(`Cells in error: ${s.errors.length}`);
+  for (const r of s.reasons) {
+    say(`  ${r.cells.length} × ${r.error} ${r.message}`);
+    for (const c of r.cells.slice(0, 6)) say(`      ${c}`);
+  }
+  say("");
+  say(s.inputsUntouched ? "Inputs untouched (same bytes as before the run)." : "WARNING: an input file changed during the run.");
+  say(CAUTION);
+}
+
+/**
+ * Recalculates every .xlsx in `inputDir` into `outputDir` (same file names), reads the results,
+ * prints a short summary and returns it.
+ */
+export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
+  const root = repoRoot();
+  const inputDir = path.resolve(options.inputDir ?? path.join(root, "sample-workbooks"));
+  const outputDir = path.resolve(options.outputDir ?? path.join(root, "demo-output"));
+  if (inputDir === outputDir) throw new Error("the demo's output folder must differ from its input folder");
+  const files = fs
+    .readdirSync(inputDir)
+    .filter((f) => f.toLowerCase().endsWith(".xlsx") && !f.startsWith("~$") && !f.startsWith("."))
+    .sort()
+    .map((f) => path.join(inputDir, f));
+  if (!files.length) throw new Error(`no .xlsx files in ${inputDir}`);
+  fs.mkdirSync(outputDir, { recursive: true });
+  const before = new Map(files.map((f) => [f, digest(f)]));
+
+  const workbooks: WorkbookResult[] = [];
+  for (const file of files) {
+    const output = path.join(outputDir, path.basename(file));
+    const r: RecalcSummary = await recalcWorkbook(file, output);
+    workbooks.push({
+      file,
+      output,
+      formulaCells: r.formulaCells,
+      soilFormulaCells: r.soilFormulaCells,
+      spilledCells: r.spilledCells,
+      errors: r.errors,
+      kept: r.kept,
+      seconds: r.seconds,
+    });
+  }
+  const read = await readOutputs(workbooks);
+  const errors = workbooks.flatMap((w) => w.errors.map((e) => ({ ...e, workbook: path.basename(w.file) })));
+  const summary: DemoSummary = {
+    inputDir,
+    outputDir,
+    workbooks,
+    labs: read.labs,
+    samples: read.labs.reduce((a, l) => a + l.samples, 0),
+    lime: read.lime,
+    belowOptimum: read.belowOptimum,
+    legume: read.legume,
+    legumeNegative: read.legumeNegative,
+    errors,
+    reasons: groupReasons(errors),
+    inputsUntouched: files.every((f) => digest(f) === before.get(f)),
+  };
+  const say = options.print === undefined ? (line: string) => process.stdout.write(`${line}\n`) : options.print;
+  if (say) report(summary, say);
+  return summary;
+}
+
+if (require.main === module) {
+  runDemo().then(
+    (s) => {
+      process.exitCode = s.inputsUntouched ? 0 : 1;
+    },
+    (e: unknown) => {
+      process.stderr.write(`soilcell demo: ${e instanceof Error ? e.message : String(e)}\n`);
+      process.exitCode = 2;
+    },
+  );
+}

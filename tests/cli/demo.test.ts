@@ -1,0 +1,208 @@
+/**
+ * The demo (`npm run demo`): recalculates the committed sample workbooks and summarises them.
+ * The sample data are invented (scripts/samples, fixed seed). Expected figures are computed here
+ * independently, from the lab values in the input files and the core functions, not read back
+ * from the engine: lime by the SIKORA-OR2025 table (Source: Moore 2025, OSU Extension EM 9585,
+ * Table 1) and the Al-saturation method (Source: Cochrane, Salinas & Sánchez 1980), products by
+ * CCE, fineness and moisture (Source: Penn State AASL notes; BC Soil Factsheet 637.200-2), bands
+ * by the Colwell P critical ranges (Source: GRDC Update 2020, southern NSW), legume N by the
+ * shoot-based and per-tonne rules (Source: Peoples et al. 2012; Walley et al. 2007 as reported
+ * in doi:10.1007/s13593-015-0297-y).
+ */
+import crypto from "crypto";
+import fs from "fs";
+import path from "path";
+import ExcelJS from "exceljs";
+import { DemoSummary, LAYOUT, repoRoot, runDemo } from "../../src/cli/demo";
+import { limeBuffer } from "../../src/core/lime-buffer";
+import { limeAlSat } from "../../src/core/lime-methods";
+import { limeFineness, limeProductRate } from "../../src/core/lime-product";
+import { bandPosition } from "../../src/core/bands";
+import { sufficiencyTableId, sufficiencyTables } from "../../src/core/bandsSufficiency";
+import { nfixFixedN, nfixPerTonne, nfixShootDm } from "../../src/core/nitrogen";
+import { nfixNdfa } from "../../src/core/nitrogen-isotope";
+import { tempDir } from "../helpers/workbook";
+
+const SAMPLES = path.join(repoRoot(), "sample-workbooks");
+const SEASON = path.join(SAMPLES, "caddow-2025-soil-tests.xlsx");
+const LEGUME = path.join(SAMPLES, "caddow-2025-legume-n-budget.xlsx");
+const H = LAYOUT.HEADERS;
+
+type Row = Record<string, unknown>;
+
+/** The rows of a sheet under its header row (the row whose column A is `first`), raw input values. */
+async function rowsOf(file: string, sheet: string, first: string): Promise<Row[]> {
+  const wb = new ExcelJS.Workbook();
+  await wb.xlsx.readFile(file);
+  const ws = wb.getWorksheet(sheet)!;
+  let head = 0;
+  for (let r = 1; r <= 10 && !head; r++) if (ws.getCell(r, 1).value === first) head = r;
+  const names: string[] = [];
+  ws.getRow(head).eachCell((c, i) => (names[i] = String(c.value)));
+  const out: Row[] = [];
+  for (let r = head + 1; r <= ws.rowCount; r++) {
+    const row = ws.getRow(r);
+    if (row.getCell(1).value === null || row.getCell(1).value === undefined) break;
+    const o: Row = {};
+    names.forEach((n, i) => (o[n] = row.getCell(i).value));
+    out.push(o);
+  }
+  return out;
+}
+
+/** A lab value as a number: numbers, numeric text; blank → undefined. */
+const num = (v: unknown): number | undefined => {
+  if (v === null || v === undefined || v === "") return undefined;
+  const n = typeof v === "number" ? v : Number(String(v).trim());
+  if (!Number.isFinite(n)) throw new Error(`not a number: ${String(v)}`);
+  return n;
+};
+
+const digest = (f: string) => crypto.createHash("sha256").update(fs.readFileSync(f)).digest("hex");
+
+describe("npm run demo (invented sample workbooks)", () => {
+  let summary: DemoSummary;
+  let printed: string[];
+  let out: string;
+  let before: Map<string, string>;
+  let products: Map<string, { cce: number; moisture: number; fineness: number }>;
+  let settings: { targetPh: number; targetAlSat: number; depthB: number };
+
+  beforeAll(async () => {
+    out = path.join(tempDir(), "demo-output");
+    before = new Map(fs.readdirSync(SAMPLES).map((f) => [f, digest(path.join(SAMPLES, f))]));
+    printed = [];
+    summary = await runDemo({ inputDir: SAMPLES, outputDir: out, print: (l) => printed.push(l) });
+
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.readFile(SEASON);
+    const p = wb.getWorksheet("Lime products")!;
+    products = new Map();
+    for (let r = 4; r <= 6; r++) {
+      const fractions = [4, 5, 6, 7].map((c) => p.getCell(r, c).value as number);
+      products.set(String(p.getCell(r, 1).value), {
+        cce: p.getCell(r, 2).value as number,
+        moisture: p.getCell(r, 3).value as number,
+        fineness: limeFineness(fractions),
+      });
+    }
+    const s = wb.getWorksheet("Settings")!;
+    settings = { targetPh: s.getCell("C4").value as number, targetAlSat: s.getCell("C5").value as number, depthB: s.getCell("C6").value as number };
+  });
+
+  it("recalculates every sample workbook into the output folder and leaves the inputs untouched", async () => {
+    expect(summary.workbooks.map((w) => path.basename(w.file))).toEqual(["caddow-2025-legume-n-budget.xlsx", "caddow-2025-soil-tests.xlsx"]);
+    for (const w of summary.workbooks) {
+      expect(path.dirname(w.output)).toBe(out);
+      const check = new ExcelJS.Workbook();
+      await check.xlsx.readFile(w.output); // opens
+      expect(w.kept).toEqual([]);
+    }
+    expect(summary.inputsUntouched).toBe(true);
+    for (const [f, d] of before) expect(digest(path.join(SAMPLES, f))).toBe(d);
+  });
+
+  it("counts the samples of each lab", () => {
+    expect(summary.labs.map((l) => [l.sheet, l.samples, l.interpreted])).toEqual([
+      ["Lab A Brindlewick", 150, 150],
+      ["Lab B Quillon Downs", 130, 130],
+    ]);
+    expect(summary.samples).toBe(280);
+    expect(printed).toContain("Samples interpreted: 280 of 280");
+  });
+
+  it("lime for a Lab A farm equals the SIKORA-OR2025 table and the product's CCE, fineness and moisture, computed from core", async () => {
+    const rows = (await rowsOf(SEASON, "Lab A Brindlewick", H.sampleId)).filter((r) => r[H.farm] === "Pellowmere");
+    let tonnes = 0;
+    let paddocks = 0;
+    for (const r of rows) {
+      const buffer = num(r["Buffer pH (Sikora)"]);
+      if (buffer === undefined) continue; // the lab runs the buffer only below pH 6.7: no rate
+      const caco3 = limeBuffer(buffer, settings.targetPh, { calibration: "SIKORA-OR2025", soilPh: num(r["pH (1:1 water)"]), unit: "t/ha" });
+      const p = products.get(String(r[H.product]))!;
+      const t = limeProductRate(caco3, p.cce, p.fineness, p.moisture) * num(r[H.area])!;
+      tonnes += t;
+      if (t > 0) paddocks++;
+    }
+    const farm = summary.lime.find((f) => f.farm === "Pellowmere")!;
+    expect(farm.tonnes).toBeCloseTo(tonnes, 6);
+    expect(farm.paddocksNeedingLime).toBe(paddocks);
+    expect(farm.samples).toBe(rows.length);
+    expect(tonnes).toBeGreaterThan(0);
+  });
+
+  it("lime for a Lab B farm equals the Al-saturation method over the sampled layer, computed from core", async () => {
+    const rows = (await rowsOf(SEASON, "Lab B Quillon Downs", H.sampleId)).filter((r) => r[H.farm] === "Mistlecombe");
+    let tonnes = 0;
+    for (const r of rows) {
+      const caco3 = limeAlSat(num(r["Exch. Al (cmol(+)/kg)"])!, num(r["Exch. Ca (cmol(+)/kg)"])!, num(r["Exch. Mg (cmol(+)/kg)"])!, {
+        targetAlSat: settings.targetAlSat,
+        depthCm: settings.depthB,
+        bulkDensity: num(r["Bulk density (g/cm3)"]),
+      });
+      const p = products.get(String(r[H.product]))!;
+      tonnes += limeProductRate(caco3, p.cce, p.fineness, p.moisture) * num(r[H.area])!;
+    }
+    expect(summary.lime.find((f) => f.farm === "Mistlecombe")!.tonnes).toBeCloseTo(tonnes, 6);
+  });
+
+  it("paddocks with Colwell P below the critical range match the core band tables", async () => {
+    const rows = (await rowsOf(SEASON, "Lab B Quillon Downs", H.sampleId)).filter((r) => r[H.farm] === "Tarnaby Flats");
+    const tables = sufficiencyTables();
+    const below = rows
+      .filter((r) => {
+        const p = num(r["Colwell P (mg/kg)"]);
+        if (p === undefined) return false;
+        const id = sufficiencyTableId("P", String(r[H.crop]), "Colwell");
+        return bandPosition(p, tables.find((t) => t.id === id)!.limits) < 0;
+      })
+      .map((r) => String(r[H.sampleId]));
+    const farm = summary.belowOptimum.find((b) => b.farm === "Tarnaby Flats")!;
+    expect(farm.p).toEqual(below);
+    expect(below.length).toBeGreaterThan(0);
+    expect(farm.k).toBeNull(); // no Colwell K table: not assessed, not "0 below"
+  });
+
+  it("reports exactly the two deliberate below-detection values, with the message", () => {
+    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Lab A Brindlewick!AJ60", "Lab B Quillon Downs!AI96"]);
+    for (const e of summary.errors) {
+      expect(e.error).toBe("#VALUE!");
+      expect(e.message).toContain('"<0.5" is not a number');
+      expect(e.message).toContain("below- or above-detection value is your call");
+    }
+    expect(summary.reasons).toHaveLength(1);
+    expect(summary.reasons[0]!.cells).toHaveLength(2);
+    expect(printed).toContain("Cells in error: 2");
+  });
+
+  it("legume N fixed for a farm equals the shoot-based and per-tonne rules, computed from core", async () => {
+    const rows = (await rowsOf(LEGUME, LAYOUT.SHEETS.legume, H.sampleId)).filter((r) => r[H.farm] === "Tarnaby Flats");
+    let fixedKg = 0;
+    for (const r of rows) {
+      const cut = num(r["Shoot DM, peak cut (t/ha)"]);
+      const dm = cut ?? nfixShootDm(num(r["Grain yield (t/ha)"])!, num(r["Harvest index"])!);
+      let fixed: number;
+      if (r["Use"] === "pasture") fixed = nfixPerTonne(dm, "pasture");
+      else {
+        const ref = num(r["δ15N reference (‰)"]);
+        const ndfa = ref === undefined ? num(r["%Ndfa assumed (Assumptions)"])! : nfixNdfa(ref, num(r["δ15N legume (‰)"])!, num(r["B value (‰)"])!);
+        fixed = nfixFixedN(dm, num(r["Shoot N (%)"])!, ndfa, String(r["Below-ground factor"]));
+      }
+      fixedKg += fixed * num(r[H.area])!;
+    }
+    const farm = summary.legume.find((f) => f.farm === "Tarnaby Flats")!;
+    expect(farm.paddocks).toBe(rows.length);
+    expect(farm.nFixedKg).toBeCloseTo(fixedKg, 4);
+    expect(summary.legumeNegative.every((id) => /^(WRN|QDH)-/.test(id))).toBe(true); // the soybean paddocks
+  });
+
+  it("the committed workbooks hold Excel's stored form with cached values", async () => {
+    const JSZip = (await import("jszip")).default;
+    const zip = await JSZip.loadAsync(fs.readFileSync(SEASON));
+    const names = Object.keys(zip.files);
+    expect(names).toContain("xl/metadata.xml");
+    const all = (await Promise.all(names.filter((n) => /^xl\/worksheets\/sheet\d+\.xml$/.test(n)).map((n) => zip.file(n)!.async("string")))).join("");
+    expect(all).toMatch(/<c r="V3"[^>]* cm="1"><f t="array" ref="V3:V152">_xldudf_SOIL_CEC\(M3:M152,N3:N152,L3:L152,O3:O152\)<\/f><v>[0-9.]+<\/v>/);
+    expect(all).not.toMatch(/SOIL\.[A-Z]+\(/); // no typed form left
+  });
+});
