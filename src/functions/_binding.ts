@@ -144,7 +144,13 @@ export function declare<const Ps extends readonly Param[]>(
 ): (args: ArrayLike<unknown>) => Out {
   const spec: BindingSpec = { params, element: element as BindingSpec["element"] };
   SPECS.set(binding, spec);
-  return (args) => run(spec, Array.from(args));
+  return (args) => {
+    // An indexed copy: Array.from walks an `arguments` object through its iterator, which cost
+    // more than the rest of a one-cell call's shaping.
+    const list = new Array<unknown>(args.length);
+    for (let i = 0; i < args.length; i++) list[i] = args[i];
+    return run(spec, list);
+  };
 }
 
 /** The declaration behind a binding function (for the engine and the tests). */
