@@ -58,14 +58,23 @@ export function toEngineFormula(formula: string): string {
   return engineLiterals(toTypedFormula(formula));
 }
 
-/** Typed form → Excel's stored form for our functions (other text unchanged). No leading "=". */
+/**
+ * Typed form → Excel's stored form for our functions (other text unchanged). No leading "=".
+ * Stored names in another letter case (LibreOffice saves `_xldudf_soil_cmol`) are written in
+ * Excel's own case.
+ */
 export function toStoredFormula(formula: string): string {
   const body = formula.replace(/^=/, "");
   return outsideStrings(body, (part) =>
-    part.replace(TYPED_CALL, (m, id: string) => {
-      const known = REGISTRY.find((f) => f.id === id.toUpperCase());
-      return known ? `_xldudf_${NAMESPACE}_${known.id.replace(/\./g, "_")}` : m;
-    }),
+    part
+      .replace(TYPED_CALL, (m, id: string) => {
+        const known = REGISTRY.find((f) => f.id === id.toUpperCase());
+        return known ? `_xldudf_${NAMESPACE}_${known.id.replace(/\./g, "_")}` : m;
+      })
+      .replace(STORED_CALL, (m) => {
+        const id = STORED.get(m.toUpperCase());
+        return id ? `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}` : m;
+      }),
   );
 }
 

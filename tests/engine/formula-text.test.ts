@@ -8,6 +8,8 @@ describe("stored form ↔ typed form", () => {
     );
     expect(toStoredFormula('=soil.cmol(A1,"SOIL.CMOL(")*2')).toBe('_xldudf_SOIL_CMOL(A1,"SOIL.CMOL(")*2');
     expect(toEngineFormula("_xldudf_OTHER_THING(1)")).toBe("_xldudf_OTHER_THING(1)");
+    // LibreOffice saves our stored names in lower case; they are written back in Excel's case
+    expect(toStoredFormula('_xldudf_soil_cmol(A1,"Ca")')).toBe('_xldudf_SOIL_CMOL(A1,"Ca")');
   });
   it("round trip for every registered id", () => {
     expect(toEngineFormula(toStoredFormula('=SOIL.CONVERT(1,"t/ha","kg/ha")'))).toBe('SOIL.CONVERT(1,"t/ha","kg/ha")');
