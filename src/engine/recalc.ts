@@ -12,7 +12,7 @@ import { callsSoil, engineFormulaCallsSoil, toStoredFormula, toTypedFormula } fr
 import { newEngine } from "./hf";
 import { CachedValue, CellWrite, patchSheetXml } from "./sheet-patch";
 import { FormulaCell, readWorkbook } from "./workbook-read";
-import { WorkbookFileError, dynamicArrayIndex, openPackage } from "./xlsx-package";
+import { WorkbookFileError, dynamicArrayIndex, openPackage, readingCopy } from "./xlsx-package";
 
 export interface CellProblem {
   readonly sheet: string;
@@ -67,8 +67,18 @@ function sameFile(a: string, b: string): boolean {
   }
 }
 
+/** The error values Excel itself writes; the engine's own (#CYCLE!, #ERROR!, #LIC!) are not valid in a file. */
+const EXCEL_ERRORS = new Set(["#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#SPILL!", "#CALC!", "#GETTING_DATA"]);
+
+/** What the engine's own error values mean, for the summary when the engine gives no message. */
+const ENGINE_ERROR_MEANING: Record<string, string> = {
+  "#CYCLE!": "circular reference: the value depends on itself; no value written, Excel will compute it",
+  "#ERROR!": "the formula cannot be read headless",
+};
+
 function cachedOf(v: unknown): CachedValue {
-  if (v instanceof DetailedCellError) return { error: v.value };
+  // An engine-only error is written as no cached value at all (Excel recomputes it on open).
+  if (v instanceof DetailedCellError) return EXCEL_ERRORS.has(v.value) ? { error: v.value } : null;
   if (v === null || v === undefined) return null;
   if (typeof v === "number") return Number.isFinite(v) ? v : { error: "#NUM!" };
   if (typeof v === "string" || typeof v === "boolean") return v;
@@ -111,9 +121,9 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   }
   const pkg = await openPackage(bytes);
   say(`reading ${path.basename(input)} (${pkg.sheets.length} sheets)`);
-  const book = await readWorkbook(bytes, pkg.sheets.map((s) => s.name));
+  const book = await readWorkbook(await readingCopy(pkg), pkg.sheets.map((s) => s.name));
   say(`computing ${book.formulas.length} formula cells`);
-  const hf = newEngine(book.sheets);
+  const hf = asFileError("the workbook cannot be loaded into the formula engine", () => newEngine(book.sheets));
   for (const n of book.namedExpressions) {
     try {
       hf.addNamedExpression(n.name, n.expression);
@@ -137,13 +147,14 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     // The typed form is wanted only in problem reports; the engine form came with the cell.
     const formula = () => typed(f.stored);
     const isSoil = f.engine !== undefined ? engineFormulaCallsSoil(f.engine) : callsSoil(f.stored);
-    if (!isSoil && value instanceof DetailedCellError && value.value === "#NAME?") {
-      kept.push({ sheet: f.sheet, cell: a1(f.address), formula: formula(), error: value.value, message: value.message || "function not supported headless" });
+    if (!isSoil && value instanceof DetailedCellError && (value.value === "#NAME?" || value.value === "#ERROR!")) {
+      const message = value.value === "#NAME?" ? "function not supported headless" : "formula syntax not supported headless";
+      kept.push({ sheet: f.sheet, cell: a1(f.address), formula: formula(), error: value.value, message: value.message || message });
       continue;
     }
     const spill = value instanceof DetailedCellError ? { rows: 1, cols: 1 } : spillOf(hf, sheetId, f.address);
     const report = (at: CellAddress, v: unknown) => {
-      if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula: formula(), error: v.value, message: v.message });
+      if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula: formula(), error: v.value, message: v.message || ENGINE_ERROR_MEANING[v.value] || "" });
       else if (typeof v === "string" && /^#(VALUE!|N\/A)\s/.test(v)) {
         // never produced: per-element errors arrive as DetailedCellError
       }
@@ -189,7 +200,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     const writes = writesBySheet.get(sheet.name);
     if (!writes || writes.length === 0) continue;
     const xml = (await pkg.read(sheet.path)) as string;
-    pkg.write(sheet.path, patchSheetXml(xml, dedupe(writes)));
+    pkg.write(sheet.path, asFileError(`sheet "${sheet.name}" cannot be updated`, () => patchSheetXml(xml, dedupe(writes))));
   }
   const out = await pkg.toBuffer();
   writeAtomically(output, out);
@@ -205,6 +216,16 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     kept,
     seconds,
   };
+}
+
+/** Runs a step on the file's contents; anything it throws becomes a plain WorkbookFileError. */
+function asFileError<T>(what: string, step: () => T): T {
+  try {
+    return step();
+  } catch (e) {
+    if (e instanceof WorkbookFileError) throw e;
+    throw new WorkbookFileError(`${what} (${(e as Error).message})`);
+  }
 }
 
 /** When two writes name one cell (a formula inside another's old range), the formula wins. */

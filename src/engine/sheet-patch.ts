@@ -24,7 +24,7 @@ const ROW = /<row\b[^>]*?(?:\/>|>[\s\S]*?<\/row>)/g;
 
 function cellStyle(xml: string | undefined): string {
   if (!xml) return "";
-  const m = /^<c\b[^>]*?\ss="(\d+)"/.exec(xml);
+  const m = /^<c\b[^>]*?\ss=["'](\d+)["']/.exec(xml);
   return m ? ` s="${m[1]}"` : "";
 }
 
@@ -36,7 +36,7 @@ function existingFormula(xml: string | undefined): string | undefined {
 
 function existingCm(xml: string | undefined): string {
   if (!xml) return "";
-  const m = /^<c\b[^>]*?\scm="(\d+)"/.exec(xml);
+  const m = /^<c\b[^>]*?\scm=["'](\d+)["']/.exec(xml);
   return m ? ` cm="${m[1]}"` : "";
 }
 
@@ -74,16 +74,15 @@ export function cellXml(write: CellWrite, old: string | undefined): string {
   return `<c r="${r}"${s}${cm} t="e">${f}<v>${encodeXml(v.error)}</v></c>`;
 }
 
-function cellRef(xml: string): CellAddress {
-  const m = /^<c\b[^>]*?\sr="([A-Z]+\d+)"/.exec(xml);
-  if (!m) throw new Error("a cell without an r attribute is not supported");
-  return parseA1(m[1] as string);
+// The r attribute is optional in the file format: a row or cell without one follows the previous.
+function cellRef(xml: string, previousCol: number): CellAddress {
+  const m = /^<c\b[^>]*?\sr=["']([A-Z]+\d+)["']/.exec(xml);
+  return m ? parseA1(m[1] as string) : { row: -1, col: previousCol + 1 };
 }
 
-function rowNumber(xml: string): number {
-  const m = /^<row\b[^>]*?\sr="(\d+)"/.exec(xml);
-  if (!m) throw new Error("a row without an r attribute is not supported");
-  return Number(m[1]) - 1;
+function rowNumber(xml: string, previousRow: number): number {
+  const m = /^<row\b[^>]*?\sr=["'](\d+)["']/.exec(xml);
+  return m ? Number(m[1]) - 1 : previousRow + 1;
 }
 
 /** Applies `writes` to a worksheet part's XML. */
@@ -109,9 +108,10 @@ export function patchSheetXml(xml: string, writes: readonly CellWrite[]): string
   let last = 0;
   const pending = [...byRow.keys()].sort((a, b) => a - b);
   let p = 0;
+  let r = -1;
   for (const m of body.matchAll(ROW)) {
     const rowXml = m[0];
-    const r = rowNumber(rowXml);
+    r = rowNumber(rowXml, r);
     while (p < pending.length && (pending[p] as number) < r) {
       out.push(body.slice(last, m.index));
       last = m.index as number;
@@ -142,15 +142,16 @@ function patchRow(rowXml: string, writes: CellWrite[]): string {
   const openEnd = rowXml.indexOf(">");
   const selfClosing = rowXml[openEnd - 1] === "/";
   // A row's optional spans attribute is only a hint; drop it since cells may be added.
-  const openTag = (selfClosing ? rowXml.slice(0, openEnd - 1) : rowXml.slice(0, openEnd)).replace(/\sspans="[^"]*"/, "");
+  const openTag = (selfClosing ? rowXml.slice(0, openEnd - 1) : rowXml.slice(0, openEnd)).replace(/\sspans=(?:"[^"]*"|'[^']*')/, "");
   const inner = selfClosing ? "" : rowXml.slice(openEnd + 1, rowXml.length - "</row>".length);
   const byCol = new Map(writes.map((w) => [w.address.col, w]));
   const pending = [...byCol.keys()].sort((a, b) => a - b);
   const out: string[] = [];
   let last = 0;
   let p = 0;
+  let c = -1;
   for (const m of inner.matchAll(CELL)) {
-    const c = cellRef(m[0]).col;
+    c = cellRef(m[0], c).col;
     while (p < pending.length && (pending[p] as number) < c) {
       out.push(inner.slice(last, m.index));
       last = m.index as number;
