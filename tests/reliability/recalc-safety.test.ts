@@ -1,0 +1,300 @@
+/**
+ * recalc never loses data: it refuses to write over its input however the output is named, it
+ * writes a temporary file and renames it (so a failed or killed run leaves no partial file at
+ * the output path, and an older output stays whole), and a failing cell does not stop the rest.
+ * Workbook contents are invented; expected SOIL values as in tests/core (Source: IUPAC/CIAAW
+ * atomic weights, 200.39 mg/kg Ca per cmol(+)/kg).
+ */
+import { spawn, spawnSync } from "child_process";
+import fs from "fs";
+import path from "path";
+import ExcelJS from "exceljs";
+import JSZip from "jszip";
+import { RecalcRefused, recalcWorkbook, writeAtomically } from "../../src/engine/recalc";
+import { WorkbookFileError } from "../../src/engine/xlsx-package";
+import { cellValues, tempDir, writeWorkbook } from "../helpers/workbook";
+
+const BIN = path.join(__dirname, "../../bin/soilcell.js");
+
+async function small(file: string): Promise<string> {
+  return writeWorkbook(file, (wb) => {
+    const ws = wb.addWorksheet("Lab");
+    ws.getCell("A1").value = 400.78;
+    ws.getCell("B1").value = { formula: 'SOIL.CMOL(A1,"Ca")' } as never;
+  });
+}
+
+const partials = (dir: string) => fs.readdirSync(dir).filter((f) => f.endsWith(".partial"));
+
+describe("recalc refuses to write over its input", () => {
+  let dir: string;
+  let input: string;
+  let bytes: Buffer;
+  beforeAll(async () => {
+    dir = tempDir();
+    input = await small(path.join(dir, "in.xlsx"));
+    bytes = fs.readFileSync(input);
+  });
+  afterEach(() => expect(fs.readFileSync(input).equals(bytes)).toBe(true));
+
+  it("the same path", async () => {
+    await expect(recalcWorkbook(input, input)).rejects.toBeInstanceOf(RecalcRefused);
+  });
+
+  it("another spelling of the same path (relative, with .. and .)", async () => {
+    const rel = path.relative(process.cwd(), input);
+    await expect(recalcWorkbook(input, rel)).rejects.toBeInstanceOf(RecalcRefused);
+    const sub = path.join(dir, "sub");
+    fs.mkdirSync(sub, { recursive: true });
+    await expect(recalcWorkbook(input, path.join(sub, "..", ".", "in.xlsx"))).rejects.toBeInstanceOf(RecalcRefused);
+  });
+
+  it("an output that is a symlink to the input, and an input reached through a symlink", async () => {
+    const link = path.join(dir, "link.xlsx");
+    fs.symlinkSync(input, link);
+    await expect(recalcWorkbook(input, link)).rejects.toBeInstanceOf(RecalcRefused);
+    await expect(recalcWorkbook(link, input)).rejects.toBeInstanceOf(RecalcRefused);
+    const dirLink = path.join(dir, "dirlink");
+    fs.symlinkSync(dir, dirLink);
+    await expect(recalcWorkbook(input, path.join(dirLink, "in.xlsx"))).rejects.toBeInstanceOf(RecalcRefused);
+    expect(fs.lstatSync(link).isSymbolicLink()).toBe(true);
+  });
+
+  it("an output that is a hard link to the input: the input's bytes stay as they were", async () => {
+    const hard = path.join(dir, "hard.xlsx");
+    fs.linkSync(input, hard);
+    // Either refused or written as a new file in place of the link: never through it.
+    await recalcWorkbook(input, hard).catch((e) => expect(e).toBeInstanceOf(RecalcRefused));
+  });
+
+  it("through the CLI: exit 2, one line, the input untouched", () => {
+    const r = spawnSync(process.execPath, [BIN, "recalc", input, "-o", path.join(dir, ".", "in.xlsx")], { encoding: "utf8" });
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split("\n")).toEqual([expect.stringMatching(/^soilcell: refusing to write over the input/)]);
+  });
+});
+
+describe("recalc writes a temporary file and renames it", () => {
+  let dir: string;
+  let input: string;
+  beforeAll(async () => {
+    dir = tempDir();
+    input = await small(path.join(dir, "in.xlsx"));
+  });
+
+  it("an output path that is a directory: a plain error, the directory as it was, no partial file", async () => {
+    const target = path.join(dir, "taken.xlsx");
+    fs.mkdirSync(target);
+    fs.writeFileSync(path.join(target, "keep.txt"), "kept");
+    await expect(recalcWorkbook(input, target)).rejects.toBeInstanceOf(WorkbookFileError);
+    expect(fs.readdirSync(target)).toEqual(["keep.txt"]);
+    expect(partials(dir)).toEqual([]);
+  });
+
+  it("a temporary file that cannot be written: a plain error, an older output left whole", async () => {
+    const target = path.join(dir, "older.xlsx");
+    fs.writeFileSync(target, "older output");
+    const tmp = path.join(dir, `.older.xlsx.${process.pid}.partial`);
+    fs.mkdirSync(tmp); // the temporary name is taken by a directory: writing it fails
+    await expect(recalcWorkbook(input, target)).rejects.toThrow(/cannot write .*older\.xlsx: EISDIR/);
+    expect(fs.readFileSync(target, "utf8")).toBe("older output");
+    fs.rmdirSync(tmp);
+  });
+
+  it("a directory that cannot be written: a plain error, no partial file, an older output left whole", async () => {
+    const locked = path.join(dir, "locked");
+    fs.mkdirSync(locked);
+    const target = path.join(locked, "out.xlsx");
+    fs.writeFileSync(target, "older output");
+    fs.chmodSync(locked, 0o555);
+    let how = "chmod";
+    const probe = path.join(locked, "probe");
+    const writable = () => {
+      try {
+        fs.writeFileSync(probe, "");
+        fs.unlinkSync(probe);
+        return true;
+      } catch {
+        return false;
+      }
+    };
+    if (writable()) {
+      // root ignores modes; an immutable directory stops it too where the file system allows
+      how = spawnSync("chattr", ["+i", locked]).status === 0 && !writable() ? "chattr" : "";
+    }
+    try {
+      if (!how) {
+        console.warn("skipped: cannot make a directory read-only here (running as root without chattr)");
+        return;
+      }
+      await expect(recalcWorkbook(input, target)).rejects.toThrow(/cannot write .*out\.xlsx: E(ACCES|PERM)/);
+      expect(fs.readFileSync(target, "utf8")).toBe("older output");
+      expect(partials(locked)).toEqual([]);
+    } finally {
+      if (how === "chattr") spawnSync("chattr", ["-i", locked]);
+      fs.chmodSync(locked, 0o755);
+    }
+  });
+
+  it("writeAtomically: a failed rename removes the temporary file", () => {
+    const target = path.join(dir, "full-dir");
+    fs.mkdirSync(target);
+    fs.writeFileSync(path.join(target, "x"), "x"); // renaming a file over a non-empty directory fails
+    expect(() => writeAtomically(target, Buffer.from("new"))).toThrow(WorkbookFileError);
+    expect(partials(dir)).toEqual([]);
+    expect(fs.readdirSync(target)).toEqual(["x"]);
+  });
+});
+
+describe("a recalc killed at any moment leaves no file, or a whole one, at the output path", () => {
+  let dir: string;
+  let input: string;
+  const ROWS = 12000;
+  beforeAll(async () => {
+    dir = tempDir();
+    input = path.join(dir, "big.xlsx");
+    const wb = new ExcelJS.Workbook();
+    const ws = wb.addWorksheet("Lab");
+    for (let r = 1; r <= ROWS; r++) {
+      ws.getCell(r, 1).value = 200.39 * (1 + (r % 7));
+      ws.getCell(r, 2).value = { formula: `SOIL.CMOL(A${r},"Ca")` } as never;
+      ws.getCell(r, 3).value = `invented sample ${r}`;
+    }
+    await wb.xlsx.writeFile(input);
+  }, 120000);
+
+  /** Runs the CLI and SIGKILLs it `delayMs` after its stderr first shows `cue` (or after start). */
+  function killed(output: string, cue: RegExp | undefined, delayMs: number): Promise<{ killedAt: string; cueToExitMs: number }> {
+    return new Promise((resolve) => {
+      const child = spawn(process.execPath, [BIN, "recalc", input, "-o", output], { stdio: ["ignore", "ignore", "pipe"] });
+      let stage = "start";
+      let armed = false;
+      let cueAt = Date.now();
+      const arm = () => {
+        if (armed) return;
+        armed = true;
+        cueAt = Date.now();
+        if (delayMs >= 0) setTimeout(() => child.kill("SIGKILL"), delayMs);
+      };
+      child.stderr.on("data", (d: Buffer) => {
+        stage = d.toString().trim().split("\n").pop()!.split(" ")[0]!;
+        if (cue && cue.test(d.toString())) arm();
+      });
+      if (!cue) arm();
+      child.on("exit", (code, signal) => resolve({ killedAt: signal ? stage : `finished (${code})`, cueToExitMs: Date.now() - cueAt }));
+    });
+  }
+
+  async function wholeOrAbsent(output: string): Promise<"absent" | "whole"> {
+    if (!fs.existsSync(output)) return "absent";
+    const zip = await JSZip.loadAsync(fs.readFileSync(output), { checkCRC32: true });
+    const v = await cellValues(output, "Lab");
+    expect((v.get(`B${ROWS}`) as { result: number }).result).toBeCloseTo(1 + (ROWS % 7), 9);
+    expect(zip.file("xl/worksheets/sheet1.xml")).not.toBeNull();
+    return "whole";
+  }
+
+  const full = { seconds: 0, writingMs: 0 };
+  it("a run left alone writes the whole file", async () => {
+    const out = path.join(dir, "full.xlsx");
+    const t = Date.now();
+    const run = await killed(out, /writing/, -1);
+    expect(run.killedAt).toBe("finished (0)");
+    full.seconds = (Date.now() - t) / 1000;
+    full.writingMs = run.cueToExitMs;
+    expect(await wholeOrAbsent(out)).toBe("whole");
+  }, 120000);
+
+  const outcomes: string[] = [];
+  afterAll(() => {
+    if (process.env.RELIABILITY_REPORT) {
+      process.stdout.write(`full run ${full.seconds.toFixed(1)} s (writing ${full.writingMs} ms); kills:\n  ${outcomes.join("\n  ")}\n`);
+    }
+  });
+
+  // Kills while reading, as computing starts, and at fractions of the writing stage measured in
+  // the full run (the temporary file exists only at its very end, so the later fractions matter).
+  it.each([
+    ["while reading", undefined, 300],
+    ["as computing starts", /computing/, 0],
+    ...(process.env.FUZZ_RUNS ? [0, 0.25, 0.5, 0.7, 0.8, 0.85, 0.9, 0.93, 0.96, 0.98, 1, 1.05] : [0, 0.5, 0.85, 0.95]).map((f) => [`at ${Math.round(f * 100)}% of writing`, /writing/, f] as const),
+  ] as const)("killed %s", async (label, cue, at) => {
+    const out = path.join(dir, `out-${label.replace(/\W+/g, "-")}.xlsx`);
+    const delay = cue && /writing/.test(String(cue)) ? Math.round(at * full.writingMs) : at;
+    const { killedAt } = await killed(out, cue, delay);
+    const state = await wholeOrAbsent(out);
+    // A kill cannot clean up: what it leaves is only under the temporary name, never at the output path.
+    const left = partials(dir);
+    outcomes.push(`${label} (${delay} ms): ${killedAt === "finished (0)" ? "finished first" : `killed while "${killedAt}"`}, output ${state}, ${left.length} temporary file left`);
+    for (const f of left) fs.unlinkSync(path.join(dir, f));
+  }, 120000);
+});
+
+describe("a write killed while the temporary file is being written", () => {
+  it("leaves the temporary file only: nothing at the output path, an older output whole", async () => {
+    const dir = tempDir();
+    const target = path.join(dir, "out.xlsx");
+    fs.writeFileSync(target, "older output");
+    const recalcJs = path.join(__dirname, "../../build/src/engine/recalc.js");
+    const script = `require(${JSON.stringify(recalcJs)}).writeAtomically(${JSON.stringify(target)}, Buffer.alloc(768 * 1024 * 1024, 1))`;
+    const child = spawn(process.execPath, ["-e", script], { stdio: "ignore" });
+    const partial = () => partials(dir)[0];
+    const exited = new Promise<string | null>((resolve) => child.on("exit", (_, signal) => resolve(signal)));
+    // kill as soon as the temporary file has some bytes but not all of them
+    const deadline = Date.now() + 60000;
+    while (Date.now() < deadline) {
+      const p = partial();
+      if (p && fs.statSync(path.join(dir, p)).size > 0) break;
+      await new Promise((r) => setTimeout(r, 2));
+    }
+    child.kill("SIGKILL");
+    const signal = await exited;
+    const left = partial();
+    expect(signal).toBe("SIGKILL");
+    expect(left).toBeDefined();
+    expect(fs.statSync(path.join(dir, left!)).size).toBeLessThan(768 * 1024 * 1024);
+    expect(fs.readFileSync(target, "utf8")).toBe("older output");
+    fs.rmSync(dir, { recursive: true, force: true });
+  }, 120000);
+});
+
+describe("a failing cell does not stop the rest", () => {
+  it("every other cell is computed and written, and the summary lists each failing cell", async () => {
+    const dir = tempDir();
+    const input = await writeWorkbook(path.join(dir, "mixed.xlsx"), (wb) => {
+      const a = wb.addWorksheet("Lab A");
+      a.addRow([400.78, "n.d.", -1, 200.39]);
+      a.getCell("A2").value = { formula: 'SOIL.CMOL(A1:D1,"Ca")' } as never; // spills A2:D2, B2 and C2 in error
+      a.getCell("A3").value = { formula: 'SOIL.CMOL(A1,"Fe")' } as never; // unknown ion
+      a.getCell("A4").value = { formula: "1/0" } as never; // a native error
+      a.getCell("A5").value = { formula: "A2*10" } as never;
+      const b = wb.addWorksheet("O'Brien's farm");
+      b.getCell("A1").value = { formula: "SOIL.CONVERT(10,\"mg/kg\",\"kg/ha\",15,1.3)" } as never;
+      b.getCell("A2").value = { formula: 'SOIL.CONVERT(10,"mg/kg","kg/ha")' } as never; // needs depth and density
+      b.getCell("A3").value = { formula: "'Lab A'!D2+A1" } as never;
+    });
+    const output = path.join(dir, "out.xlsx");
+    const s = await recalcWorkbook(input, output);
+    expect(s.errors.map((e) => `${e.sheet}!${e.cell} ${e.error}`)).toEqual([
+      "Lab A!B2 #VALUE!",
+      "Lab A!C2 #VALUE!",
+      "Lab A!A3 #VALUE!",
+      "Lab A!A4 #DIV/0!",
+      "O'Brien's farm!A2 #VALUE!",
+    ]);
+    for (const e of s.errors) expect(e.message === "" ? e.error === "#DIV/0!" : e.formula.startsWith("=")).toBe(true);
+    const a = await cellValues(output, "Lab A");
+    expect((a.get("A2") as { result: number }).result).toBeCloseTo(2, 10);
+    expect(a.get("D2")).toBeCloseTo(1, 10);
+    expect((a.get("A5") as { result: number }).result).toBeCloseTo(20, 9);
+    const b = await cellValues(output, "O'Brien's farm");
+    expect((b.get("A1") as { result: number }).result).toBeCloseTo(19.5, 10); // Source: UNIT-16 layer mass, as tests/core
+    expect((b.get("A3") as { result: number }).result).toBeCloseTo(20.5, 9);
+    const cli = spawnSync(process.execPath, [BIN, "recalc", input, "-o", path.join(dir, "cli.xlsx")], { encoding: "utf8" });
+    expect(cli.status).toBe(1);
+    expect(cli.stdout).toMatch(/5 cells in error/);
+    for (const line of ["Lab A!B2  #VALUE! mg_per_kg: \"n.d.\" is not a number", "Lab A!C2  #VALUE!", "Lab A!A3  #VALUE! unknown ion \"Fe\"", "Lab A!A4  #DIV/0!", "O'Brien's farm!A2  #VALUE!"]) {
+      expect(cli.stdout).toContain(line);
+    }
+  });
+});
