@@ -24,6 +24,18 @@ export function atomicWeight(symbol: string): number {
  * @example molarMass("CaCO3") //=> 100.086
  */
 export function molarMass(formula: string): number {
+  let mass = MOLAR_MASSES.get(formula);
+  if (mass === undefined) {
+    mass = parseMolarMass(formula);
+    MOLAR_MASSES.set(formula, mass);
+  }
+  return mass;
+}
+
+/** Few distinct formulas are ever asked for (those of the data files), so the cache stays small. */
+const MOLAR_MASSES = new Map<string, number>();
+
+function parseMolarMass(formula: string): number {
   let pos = 0;
   function group(): number {
     let total = 0;

@@ -27,11 +27,21 @@ export function nameTable<T>(entries: readonly { id: string; aliases?: readonly 
     }
   }
   const ids = entries.map((e) => e.id);
+  // Words as typed are few (a unit column repeats one word); remember their normal form.
+  const seen = new Map<string, string>();
+  const key = (word: string): string => {
+    let k = seen.get(word);
+    if (k === undefined) {
+      k = normaliseWord(word);
+      if (seen.size < 4096) seen.set(word, k);
+    }
+    return k;
+  };
   return {
     ids,
-    has: (word) => map.has(normaliseWord(word)),
+    has: (word) => map.has(key(word)),
     lookup(word, what) {
-      const found = map.get(normaliseWord(word));
+      const found = map.get(key(word));
       if (found === undefined) {
         throw new SoilError("UNKNOWN_NAME", `unknown ${what} "${word}"; use ${listWords(ids)}`);
       }

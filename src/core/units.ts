@@ -65,13 +65,14 @@ export function unitById(word: string): UnitDef {
 
 /** Looks up a unit and requires it to be of one of `families`; otherwise UNIT_MISMATCH listing those units. */
 export function unitOfFamily(word: string, families: readonly UnitFamily[], argName: string): UnitDef {
-  const accepted = families.flatMap(unitsOf);
+  // The accepted list is built only for a message: this runs once per cell of a season.
+  const accepted = () => families.flatMap(unitsOf).join(", ");
   if (!TABLE.has(word)) {
-    throw new SoilError("UNKNOWN_NAME", `unknown unit "${word}" for ${argName}; use ${accepted.join(", ")}`);
+    throw new SoilError("UNKNOWN_NAME", `unknown unit "${word}" for ${argName}; use ${accepted()}`);
   }
   const u = unitById(word);
   if (!families.includes(u.family)) {
-    throw new SoilError("UNIT_MISMATCH", `${argName} "${word}" is not accepted here; use ${accepted.join(", ")}`);
+    throw new SoilError("UNIT_MISMATCH", `${argName} "${word}" is not accepted here; use ${accepted()}`);
   }
   return u;
 }
