@@ -12,7 +12,7 @@
 import fc from "fast-check";
 import { SOIL_ERROR_CODES, SoilError } from "../../src/core/errors";
 import { ElementResult } from "../../src/functions/_binding";
-import { FUNCTIONS, RUNS, argsFor, coreValuesFor, params, resultProblems, show, wordsOf } from "./kit";
+import { FUNCTIONS, RUNS, TIMEOUT, argsFor, coreValuesFor, params, resultProblems, show, wordsOf } from "./kit";
 
 interface Tally {
   cases: number;
@@ -48,7 +48,7 @@ describe.each(FUNCTIONS.map((f) => [f.formulaName, f] as const))("%s", (_, fn) =
       }),
       params(fn, RUNS, "binding"),
     );
-  });
+  }, TIMEOUT);
 
   it(`core: throws only SoilError, returns only finite numbers or text (${RUNS} calls)`, () => {
     const element = fn.spec.element as (...v: unknown[]) => ElementResult;
@@ -72,5 +72,5 @@ describe.each(FUNCTIONS.map((f) => [f.formulaName, f] as const))("%s", (_, fn) =
       }),
       params(fn, RUNS, "core"),
     );
-  });
+  }, TIMEOUT);
 });

@@ -7,7 +7,7 @@
 import fc from "fast-check";
 import { RegisteredFunction } from "../../src/engine/registry";
 import { evaluateFormula, EvalResult } from "../../src/engine/evaluate";
-import { FUNCTIONS, PARITY_RUNS, Words, params, plausibleNumber, finiteNumber, show, wordArb, wordsOf } from "./kit";
+import { FUNCTIONS, PARITY_RUNS, TIMEOUT, Words, params, plausibleNumber, finiteNumber, show, wordArb, wordsOf } from "./kit";
 
 type Scalar = { t: "num"; n: number; text: string } | { t: "str"; s: string } | { t: "bool"; b: boolean };
 type Lit = Scalar | { t: "blank" } | { t: "omit" } | { t: "array"; rows: Scalar[][] };
@@ -177,5 +177,5 @@ describe.each(FUNCTIONS.map((f) => [f.formulaName, f] as const))("%s", (_, fn) =
       }),
       params(fn, PARITY_RUNS, "parity"),
     );
-  });
+  }, TIMEOUT);
 });

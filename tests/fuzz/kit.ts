@@ -16,6 +16,8 @@ export const RUNS = Number(process.env.FUZZ_RUNS ?? 200);
 /** True under `npm run fuzz` (an explicit FUZZ_RUNS). */
 export const DEEP = process.env.FUZZ_RUNS !== undefined;
 export const PARITY_RUNS = Number(process.env.FUZZ_PARITY_RUNS ?? (DEEP ? Math.max(50, Math.round(RUNS / 20)) : 15));
+/** Per-test time limit: the suite's 60 s, or more for deep runs (LIMEBUFFER takes ~6 ms a case). */
+export const TIMEOUT = Math.max(60000, RUNS * 30, PARITY_RUNS * 100);
 
 export const FUNCTIONS: readonly RegisteredFunction[] = REGISTRY;
 
