@@ -1,5 +1,6 @@
-#!/usr/bin/env node
-// The soilcell command. The TypeScript sources are compiled into build/ by `npm run build:node`
+#!/usr/bin/env -S node --max-old-space-size=8192
+// The soilcell command, with room for a season of 100,000 samples (8 GB heap limit; override
+// with NODE_OPTIONS or by running node yourself). The TypeScript sources are compiled into build/ by `npm run build:node`
 // (run automatically by `npm ci` / `npm install`).
 const path = require("path");
 const fs = require("fs");
