@@ -35,16 +35,18 @@ export function toTypedFormula(formula: string): string {
 
 /**
  * Excel's literals the engine's parser does not read, rewritten to ones it does: an upper-case
- * exponent (Excel saves 1E-05), TRUE/FALSE without brackets, and "" inside a string. Text in
- * quotes ("strings", 'sheet names') is left alone apart from the "" escape.
+ * exponent (Excel saves 1E-05), TRUE/FALSE without brackets, and "" or \ inside a string. Text in
+ * quotes ("strings", 'sheet names') is left alone apart from those two characters.
  */
 function engineLiterals(formula: string): string {
   return formula
     .split(/("(?:[^"]|"")*"|'(?:[^']|'')*')/)
     .map((part, i) => {
       if (i % 2 === 1) {
-        if (!part.startsWith('"') || !part.slice(1, -1).includes('""')) return part;
-        return `(${part.slice(1, -1).split('""').map((p) => `"${p}"`).join("&CHAR(34)&")})`;
+        // The engine's strings take no "" and treat \ as an escape: both become CHAR().
+        const text = part.startsWith('"') ? part.slice(1, -1).replace(/""/g, '"') : "";
+        if (!/["\\]/.test(text)) return part;
+        return `(${text.split(/(["\\])/).map((p) => (p === '"' ? "CHAR(34)" : p === "\\" ? "CHAR(92)" : `"${p}"`)).join("&")})`;
       }
       return part
         .replace(/(?<![A-Za-z0-9_.$!\]])(\d+\.?\d*|\.\d+)E([+-]?\d+)(?![A-Za-z0-9_.(])/g, "$1e$2")
