@@ -3,7 +3,7 @@
  * Excel saves exponents upper-case, e.g. 1E-05; TRUE and FALSE are literals; "" escapes a quote in
  * a string), and recalc writes the file's own formula text back, not the rewritten one.
  * Source of the stored forms: Excel's formula grammar as documented (MS-XLSX formulas), from
- * memory; workbook contents are invented. The engine reads \\ in a string as an escape: found by the parity fuzzer.
+ * memory; workbook contents are invented. The engine reads a backslash in a string as an escape: found by the parity fuzzer.
  */
 import path from "path";
 import { evaluateFormula } from "../../src/engine/evaluate";
