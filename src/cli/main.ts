@@ -72,8 +72,10 @@ async function runRecalc(args: string[], io: Io): Promise<number> {
   }
   try {
     const summary = await recalcWorkbook(input, output ?? defaultOutputPath(input), { progress: (l) => io.err(l) });
-    if (json) io.out(JSON.stringify(summary, null, 2));
-    else printSummary(summary, io);
+    if (json) {
+      io.out(JSON.stringify(summary, null, 2));
+      io.err(CAUTION); // stdout stays pure JSON
+    } else printSummary(summary, io);
     return summary.errors.length ? 1 : 0;
   } catch (e) {
     if (e instanceof RecalcRefused || e instanceof WorkbookFileError) {
