@@ -17,6 +17,7 @@ const JSZip = require("jszip");
 const BUILD = process.env.SOILCELL_BENCH_BUILD ? path.resolve(process.env.SOILCELL_BENCH_BUILD, "src") : path.join(__dirname, "..", "build", "src");
 const { mgPerCmol, formFactor } = require(path.join(BUILD, "core", "chemistry.js"));
 const { toStoredFormula } = require(path.join(BUILD, "engine", "formula-text.js"));
+const { columnLetters: colLetters } = require(path.join(BUILD, "engine", "cellref.js"));
 
 const DATA_COLUMNS = ["Sample", "Ca mg/kg", "Mg mg/kg", "K mg/kg", "Na mg/kg", "Acidity cmol/kg", "pH", "Buffer pH", "P mg/kg"];
 const FIRST_FORMULA_COL = DATA_COLUMNS.length; // J
@@ -114,16 +115,6 @@ function engineSheet(n, form) {
   return { Season: rows };
 }
 
-function colLetters(c) {
-  let n = c + 1;
-  let s = "";
-  while (n > 0) {
-    const m = (n - 1) % 26;
-    s = String.fromCharCode(65 + m) + s;
-    n = Math.floor((n - 1) / 26);
-  }
-  return s;
-}
 
 const esc = (s) => String(s).replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 

@@ -99,15 +99,10 @@ const COLOURS = {
 const fill = (argb) => ({ type: "pattern", pattern: "solid", fgColor: { argb } });
 const thin = (argb = COLOURS.rule) => ({ style: "thin", color: { argb } });
 
-/** Column number (1-based) → letters. */
+/** Column number (1-based) → letters, with the engine's own A1 code (build/ is made by npm run samples). */
+const { columnLetters } = require("../../build/src/engine/cellref");
 function col(n) {
-  let s = "";
-  while (n > 0) {
-    const m = (n - 1) % 26;
-    s = String.fromCharCode(65 + m) + s;
-    n = Math.floor((n - 1) / 26);
-  }
-  return s;
+  return columnLetters(n - 1);
 }
 
 /** A sheet name quoted for a formula reference. */

@@ -53,15 +53,9 @@ export interface DemoOptions {
   readonly print?: ((line: string) => void) | null;
 }
 
-export interface WorkbookResult {
+/** One sample workbook's recalculation: the engine's own summary, named by the sample file. */
+export interface WorkbookResult extends Omit<RecalcSummary, "input" | "sheets"> {
   readonly file: string;
-  readonly output: string;
-  readonly formulaCells: number;
-  readonly soilFormulaCells: number;
-  readonly spilledCells: number;
-  readonly errors: readonly CellProblem[];
-  readonly kept: readonly CellProblem[];
-  readonly seconds: number;
 }
 
 export interface LabSamples {
@@ -345,16 +339,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
   for (const file of files) {
     const output = path.join(outputDir, path.basename(file));
     const r: RecalcSummary = await recalcWorkbook(file, output);
-    workbooks.push({
-      file,
-      output,
-      formulaCells: r.formulaCells,
-      soilFormulaCells: r.soilFormulaCells,
-      spilledCells: r.spilledCells,
-      errors: r.errors,
-      kept: r.kept,
-      seconds: r.seconds,
-    });
+    workbooks.push({ ...r, file, output });
   }
   const read = await readOutputs(workbooks);
   const errors = workbooks.flatMap((w) => w.errors.map((e) => ({ ...e, workbook: path.basename(w.file) })));

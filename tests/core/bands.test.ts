@@ -5,17 +5,8 @@
  */
 import fc from "fast-check";
 import { bandIndex, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../src/core/bands";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
 
 const L = [10, 20, 30, 40]; // invented
 

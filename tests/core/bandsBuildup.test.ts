@@ -6,17 +6,8 @@
  */
 import fc from "fast-check";
 import { buildupRate, BUILDUP_DEFAULT_YEARS } from "../../src/core/bandsBuildup";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
 
 describe("buildupRate", () => {
   it("P from 10 to the 15 ppm Bray critical level at 20 lb P2O5/ppm over 4 years: 25 lb P2O5/A a year (derived, SUF-06)", () => {

@@ -4,17 +4,8 @@
  * Source (the same source the table row carries).
  */
 import { sufficiencyBand, sufficiencyTableId, sufficiencyTables, SUFFICIENCY_ROWS } from "../../src/core/bandsSufficiency";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
 
 describe("Bray-1 P", () => {
   // Source: Magdoff & van Es (2009) Building Soils for Better Crops, SARE, Table 21.2 (published-values SUF-15):

@@ -10,25 +10,11 @@ import fc from "fast-check";
 import { cecChargeOf, cecSum, cecSaturation, cecCaMgRatio, cecEsp, BaseCation, SATURATION_PARTS } from "../../src/core/cations";
 import { cecSar, sarMgPerMmolc, SAR_UNITS } from "../../src/core/cationsSar";
 import { mgKgFromCmol, mgPerCmol } from "../../src/core/chemistry";
-import { SoilError, SoilErrorCode } from "../../src/core/errors";
+import { SoilErrorCode } from "../../src/core/errors";
+import { errorCode, errorMessage } from "../helpers/errors";
 
-function codeOf(f: () => unknown): SoilErrorCode | "none" {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return "none";
-}
-function messageOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return "";
-}
+const codeOf = (f: () => unknown): SoilErrorCode | "none" => errorCode(f) ?? "none";
+const messageOf = errorMessage;
 
 const IONS: BaseCation[] = ["Ca", "Mg", "K", "Na"];
 

@@ -5,17 +5,8 @@
 import fc from "fast-check";
 import { removalAmount, removalBushelWeight, removalCoefficient, removalCrops, removalTables, REMOVAL_ROWS } from "../../src/core/removal";
 import { formFactor } from "../../src/core/chemistry";
-import { SoilError } from "../../src/core/errors";
+import { errorCode as code } from "../helpers/errors";
 
-function code(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof SoilError) return e.code;
-    throw e;
-  }
-  return undefined;
-}
 
 const mid = (c: number | readonly number[]) => (typeof c === "number" ? c : ((c[0] as number) + (c[1] as number)) / 2);
 
