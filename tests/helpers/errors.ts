@@ -1,4 +1,4 @@
-/** Test helpers for core errors: the code (or message) a call throws, undefined/"" if it does not. */
+/** Test helpers for core errors: the code (or message) a call throws, undefined/"" if it does not. No values here: the source of each check is named in the test that uses them. */
 import { SoilError, SoilErrorCode } from "../../src/core/errors";
 
 export function errorCode(f: () => unknown): SoilErrorCode | undefined {

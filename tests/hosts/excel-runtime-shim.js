@@ -1,5 +1,6 @@
 /*
- * Stands in for Office's custom-functions-runtime.js when the built page runs in plain Chromium
+ * Source of the API it mimics: @types/custom-functions-runtime (CustomFunctions.associate, Error,
+ * ErrorCode) and the runtime copy in @microsoft/office-js. Stands in for Office's custom-functions-runtime.js when the built page runs in plain Chromium
  * (there is no Excel here). It plays the part of Excel's runtime that the add-in touches:
  * CustomFunctions.associate (recorded, ids upper-cased as the real runtime does),
  * CustomFunctions.Error and CustomFunctions.ErrorCode (the same codes and fields as the real
