@@ -44,6 +44,13 @@ describe("registry", () => {
       expect(f.meta.parameters.map((p) => Boolean(p.optional))).toEqual(f.spec.params.map((p) => p.optional));
     }
   });
+  it("the README's generated function list is up to date (npm run docs)", () => {
+    const readme = fs.readFileSync(path.join(__dirname, "../../README.md"), "utf8");
+    for (const f of REGISTRY) {
+      const args = f.meta.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ");
+      expect(readme).toContain(`\`SOIL.${f.id}(${args})\``);
+    }
+  });
   it("every function has an ABOUT line", () => {
     for (const f of REGISTRY) expect(aboutFunction(f.id).length).toBeGreaterThan(20);
   });
