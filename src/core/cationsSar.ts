@@ -9,7 +9,7 @@
  * Analytical Lab, method 840; formula seen in the CSUS Office of Water Programs glossary, "SAR").
  */
 import sarUnits from "../data/cations/sar-units.json";
-import { molarMass, ionById } from "./chemistry";
+import { mgPerCmol } from "./chemistry";
 import { SoilError, listWords } from "./errors";
 import { nameTable, normaliseWord } from "./names";
 import { check, finite } from "./validate";
@@ -38,8 +38,7 @@ function sarBasis(unitWord: string | undefined): SarBasis {
 
 /** Milligrams of an ion per millimole of its charge: molar mass ÷ charge (Na 22.990, Ca 20.039, Mg 12.153). */
 export function sarMgPerMmolc(ionWord: "Na" | "Ca" | "Mg"): number {
-  const ion = ionById(ionWord);
-  return molarMass(ion.formula) / ion.charge;
+  return mgPerCmol(ionWord) / 10; // 1 cmol of charge = 10 mmol of charge
 }
 
 /**

@@ -4,17 +4,16 @@
  */
 import { DetailedCellError } from "hyperformula";
 import { newEngine } from "./hf";
-import { toStoredFormula, toEngineFormula } from "./formula-text";
+import { toEngineFormula } from "./formula-text";
 
 export type EvalValue = number | string | boolean | null;
 
 export interface EvalResult {
-  /** A single value, or rows of values when the formula spills. */
+  /** A single value, or rows of values when the formula spills (an element in error reads "#VALUE! message"). */
   readonly value?: EvalValue | EvalValue[][];
   /** "#VALUE!", "#N/A", … when the formula's top-left result is an error. */
   readonly error?: string;
   readonly message?: string;
-  /** Per-element errors inside a spilled result, as "#VALUE! message" strings in `value`. */
 }
 
 function plain(v: unknown): EvalValue {
@@ -57,4 +56,3 @@ export function evaluateFormula(formula: string): EvalResult {
   }
 }
 
-export { toStoredFormula };

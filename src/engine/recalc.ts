@@ -11,7 +11,7 @@ import { CellAddress, a1, parseRange, rangeA1 } from "./cellref";
 import { callsSoil, engineFormulaCallsSoil, toStoredFormula, toTypedFormula } from "./formula-text";
 import { newEngine } from "./hf";
 import { CachedValue, CellWrite, patchSheetXml } from "./sheet-patch";
-import { FormulaCell, readWorkbook } from "./workbook-read";
+import { readWorkbook } from "./workbook-read";
 import { WorkbookFileError, dynamicArrayIndex, openPackage, readingCopy } from "./xlsx-package";
 
 export interface CellProblem {
@@ -155,9 +155,6 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     const spill = value instanceof DetailedCellError ? { rows: 1, cols: 1 } : spillOf(hf, sheetId, f.address);
     const report = (at: CellAddress, v: unknown) => {
       if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula: formula(), error: v.value, message: v.message || ENGINE_ERROR_MEANING[v.value] || "" });
-      else if (typeof v === "string" && /^#(VALUE!|N\/A)\s/.test(v)) {
-        // never produced: per-element errors arrive as DetailedCellError
-      }
     };
     report(f.address, value);
     if (isSoil) {
