@@ -136,7 +136,7 @@ function engineChild(rows, rounds) {
 function coreChild(rounds) {
   const { samples } = require("./workbook");
   const { mgPerCmol } = require(path.join(BUILD, "core", "chemistry.js"));
-  const cations = require(path.join(BUILD, "core", "cations.js"));
+  const cations = require(path.join(BUILD, "core", "cations", "cations.js"));
   const N = 100000;
   const data = samples(N);
   // Best of several runs in process CPU time (the first runs warm the JIT up).
@@ -210,10 +210,10 @@ function coreChild(rounds) {
   let limeTableRate;
   let limeBuffer;
   try {
-    ({ limeTableRate } = require(path.join(BUILD, "core", "lime-table.js")));
-    const { limeCalibration } = require(path.join(BUILD, "core", "lime-calibrations.js"));
+    ({ limeTableRate } = require(path.join(BUILD, "core", "lime", "table.js")));
+    const { limeCalibration } = require(path.join(BUILD, "core", "lime", "calibrations.js"));
     limeTable = limeCalibration("SIKORA-OR2025").table;
-    ({ limeBuffer } = require(path.join(BUILD, "core", "lime-buffer.js")));
+    ({ limeBuffer } = require(path.join(BUILD, "core", "lime", "buffer.js")));
   } catch (e) {
     out.limeTable = { skipped: `lime core not available (${e.message})` };
   }

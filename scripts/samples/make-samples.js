@@ -24,7 +24,7 @@ const need = (p) => {
 const { recalcWorkbook } = need("engine/recalc");
 const build = {
   chemistry: need("core/chemistry"),
-  sufficiency: need("core/bandsSufficiency"),
+  sufficiency: need("core/bands/sufficiency"),
   about: need("core/about"),
   layout: need("cli/demo").LAYOUT,
 };

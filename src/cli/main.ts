@@ -3,9 +3,9 @@
  * messages, no stack traces for expected failures, progress on stderr, results on stdout.
  */
 import { aboutFunction, CAUTION } from "../core/about";
-import { sufficiencyTables } from "../core/bandsSufficiency";
-import { limeCalibrationTables } from "../core/lime-calibrations";
-import { removalTables } from "../core/removal";
+import { sufficiencyTables } from "../core/bands/sufficiency";
+import { limeCalibrationTables } from "../core/lime/calibrations";
+import { removalTables } from "../core/bands/removal";
 import { evaluateFormula, EvalResult } from "../engine/evaluate";
 import { REGISTRY } from "../engine/registry";
 import { RecalcRefused, RecalcSummary, defaultOutputPath, recalcWorkbook } from "../engine/recalc";

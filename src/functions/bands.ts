@@ -1,8 +1,8 @@
 /** Excel bindings: bands. Argument shaping only; the science is in src/core. */
-import { bandLabel, bandPosition } from "../core/bands";
-import { sufficiencyBand } from "../core/bandsSufficiency";
-import { removalAmount } from "../core/removal";
-import { buildupRate } from "../core/bandsBuildup";
+import { bandLabel, bandPosition } from "../core/bands/bands";
+import { sufficiencyBand } from "../core/bands/sufficiency";
+import { removalAmount } from "../core/bands/removal";
+import { buildupRate } from "../core/bands/buildup";
 import { declare, num, optNum, optRange, optText, range, text } from "./_binding";
 
 /**

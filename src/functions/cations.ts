@@ -1,6 +1,6 @@
 /** Excel bindings: cations. Argument shaping only; the science is in src/core. */
-import { cecSum, cecSaturation, cecCaMgRatio, cecEsp } from "../core/cations";
-import { cecSar } from "../core/cationsSar";
+import { cecSum, cecSaturation, cecCaMgRatio, cecEsp } from "../core/cations/cations";
+import { cecSar } from "../core/cations/sar";
 import { declare, num, optNum, optText, text } from "./_binding";
 
 /**

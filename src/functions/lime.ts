@@ -1,7 +1,7 @@
 /** Excel bindings: lime. Argument shaping only; the science is in src/core. */
-import { limeBuffer } from "../core/lime-buffer";
-import { limeAlSat, limeBaseSat, limeExchAl, limePhBc } from "../core/lime-methods";
-import { limeFinenessOfRanges, limeProductRate } from "../core/lime-product";
+import { limeBuffer } from "../core/lime/buffer";
+import { limeAlSat, limeBaseSat, limeExchAl, limePhBc } from "../core/lime/methods";
+import { limeFinenessOfRanges, limeProductRate } from "../core/lime/product";
 import { declare, num, optNum, optRange, optText, range } from "./_binding";
 
 /**

@@ -1,6 +1,6 @@
 /** Excel bindings: legume nitrogen. Argument shaping only; the science is in src/core. */
-import { nfixFixedN, nfixPerTonne, nfixNBalance, nfixShootDm } from "../core/nitrogen";
-import { nfixNdfa, nfixNDifference } from "../core/nitrogen-isotope";
+import { nfixFixedN, nfixPerTonne, nfixNBalance, nfixShootDm } from "../core/nitrogen/nitrogen";
+import { nfixNdfa, nfixNDifference } from "../core/nitrogen/isotope";
 import { declare, num, optNum, optText } from "./_binding";
 
 /**

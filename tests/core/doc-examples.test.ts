@@ -18,7 +18,8 @@ interface Example {
 
 function examples(): Example[] {
   const out: Example[] = [];
-  for (const f of fs.readdirSync(CORE).filter((n) => n.endsWith(".ts")).sort()) {
+  const files = (fs.readdirSync(CORE, { recursive: true }) as string[]).filter((n) => n.endsWith(".ts")).sort();
+  for (const f of files) {
     const lines = fs.readFileSync(path.join(CORE, f), "utf8").split("\n");
     lines.forEach((l, i) => {
       const m = /^\s*\*\s*@example\s+(.+?)\s*\/\/=>\s*(.+?)\s*$/.exec(l);

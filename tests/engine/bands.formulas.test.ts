@@ -1,7 +1,7 @@
 /**
  * The bands functions through the headless engine: limits as array literals, spills, defaults,
  * blanks and errors. Limits of 10, 20, 30, 40 are invented; published values: Source as in
- * tests/core/bandsSufficiency.test.ts and removal.test.ts (Tri-State 2020 via OSU Ag BMPs and
+ * tests/core/bands/sufficiency.test.ts and removal.test.ts (Tri-State 2020 via OSU Ag BMPs and
  * A&L Great Lakes; Northern Ireland S.R. 2019/81; OMAFA 2025 removal table; LaBarge, OSU, SUF-06).
  */
 import { evaluateFormula } from "../../src/engine/evaluate";

@@ -14,7 +14,7 @@
  * will move soil test levels', seen). Buffer factors are soil-specific: the results are estimates
  * to check against local calibrations, regulations and licensed advice.
  */
-import { BOUNDS, check, finite } from "./validate";
+import { BOUNDS, check, finite } from "../validate";
 
 /** Years over which the Tri-State recommendations build a deficient soil test up to the critical level. */
 export const BUILDUP_DEFAULT_YEARS = 4;

@@ -6,9 +6,9 @@
  * refer to the project's list of published check values.
  */
 import fc from "fast-check";
-import finenessData from "../../src/data/lime/fineness-ohio.json";
-import { LIME_FINENESS_DEFAULT, limeFineness, limeFinenessOfRanges, limeProductRate } from "../../src/core/lime-product";
-import { errorCode as codeOf, errorMessage as messageOf } from "../helpers/errors";
+import finenessData from "../../../src/data/lime/fineness-ohio.json";
+import { LIME_FINENESS_DEFAULT, limeFineness, limeFinenessOfRanges, limeProductRate } from "../../../src/core/lime/product";
+import { errorCode as codeOf, errorMessage as messageOf } from "../../helpers/errors";
 
 
 describe("limeProductRate", () => {

@@ -15,17 +15,17 @@
  * Magdoff & van Es, SARE; Northern Ireland S.R. 2019/81; GRDC Update 2020; Plank, UGA; Yin & Vyn
  * 2002 via OMAFA) — see sufficiencyTables().
  */
-import pBray1 from "../data/bands/p-bray1.json";
-import pMehlich3 from "../data/bands/p-mehlich3.json";
-import kMehlich3 from "../data/bands/k-mehlich3.json";
-import pOlsen from "../data/bands/p-olsen.json";
-import pColwell from "../data/bands/p-colwell.json";
-import tissueAlfalfa from "../data/bands/tissue-alfalfa.json";
-import tissueSoybean from "../data/bands/tissue-soybean.json";
-import { SoilError, listWords } from "./errors";
-import { nameTable } from "./names";
+import pBray1 from "../../data/bands/p-bray1.json";
+import pMehlich3 from "../../data/bands/p-mehlich3.json";
+import kMehlich3 from "../../data/bands/k-mehlich3.json";
+import pOlsen from "../../data/bands/p-olsen.json";
+import pColwell from "../../data/bands/p-colwell.json";
+import tissueAlfalfa from "../../data/bands/tissue-alfalfa.json";
+import tissueSoybean from "../../data/bands/tissue-soybean.json";
+import { SoilError, listWords } from "../errors";
+import { nameTable } from "../names";
 import { bandLabel } from "./bands";
-import { check } from "./validate";
+import { check } from "../validate";
 
 /** One reference table as stored in src/data/bands/*.json. */
 export interface SufficiencyRow {

@@ -8,11 +8,11 @@
  * soils, USDA Agriculture Handbook 60 (L.A. Richards, ed.), pp. 25–26 (citation seen at UC Davis
  * Analytical Lab, method 840; formula seen in the CSUS Office of Water Programs glossary, "SAR").
  */
-import sarUnits from "../data/cations/sar-units.json";
-import { mgPerCmol } from "./chemistry";
-import { SoilError, listWords } from "./errors";
-import { nameTable, normaliseWord } from "./names";
-import { check, finite } from "./validate";
+import sarUnits from "../../data/cations/sar-units.json";
+import { mgPerCmol } from "../chemistry";
+import { SoilError, listWords } from "../errors";
+import { nameTable, normaliseWord } from "../names";
+import { check, finite } from "../validate";
 
 type SarBasis = "charge" | "mass";
 

@@ -3,9 +3,9 @@
  * refusals and properties. Each check names its Source; "derived" marks arithmetic on a source.
  */
 import fc from "fast-check";
-import { removalAmount, removalBushelWeight, removalCoefficient, removalCrops, removalTables, REMOVAL_ROWS } from "../../src/core/removal";
-import { formFactor } from "../../src/core/chemistry";
-import { errorCode as code } from "../helpers/errors";
+import { removalAmount, removalBushelWeight, removalCoefficient, removalCrops, removalTables, REMOVAL_ROWS } from "../../../src/core/bands/removal";
+import { formFactor } from "../../../src/core/chemistry";
+import { errorCode as code } from "../../helpers/errors";
 
 
 const mid = (c: number | readonly number[]) => (typeof c === "number" ? c : ((c[0] as number) + (c[1] as number)) / 2);

@@ -4,13 +4,13 @@
  * harvest index. Factors, rules and guards are data in `src/data/nitrogen/*.json`, each with its
  * source; no default below-ground factor exists because the published ones could not be verified.
  */
-import rootFactors from "../data/nitrogen/root-factors.json";
-import perTonne from "../data/nitrogen/per-tonne.json";
-import checks from "../data/nitrogen/checks.json";
-import { SoilError, listWords } from "./errors";
-import { nameTable } from "./names";
-import { check, finite, Bound } from "./validate";
-import { convertUnit } from "./units";
+import rootFactors from "../../data/nitrogen/root-factors.json";
+import perTonne from "../../data/nitrogen/per-tonne.json";
+import checks from "../../data/nitrogen/checks.json";
+import { SoilError, listWords } from "../errors";
+import { nameTable } from "../names";
+import { check, finite, Bound } from "../validate";
+import { convertUnit } from "../units";
 
 const TISSUE = checks.tissue;
 

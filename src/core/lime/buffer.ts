@@ -10,18 +10,18 @@
  * Sources: Moore (2025) OSU Extension EM 9585, Table 1 (seen); NCDA&CS lime factor table page,
  * Mehlich buffer acidity (seen). The SMP table (Shoemaker, McLean & Pratt 1961) is not shipped.
  */
-import { SoilError } from "./errors";
+import { SoilError } from "../errors";
 import {
   LIME_DEFAULT_CALIBRATION,
   LimeCalibration,
   LimeMehlichCalibration,
   LimeTableCalibration,
   limeCalibration,
-} from "./lime-calibrations";
-import { LIME_DEFAULT_UNIT, limeDepth } from "./lime-rate";
-import { LimeRange, limeTableCheckBufferPh, limeTableFromRange, limeTableRate } from "./lime-table";
-import { convertRate } from "./units";
-import { BOUNDS, check, finite } from "./validate";
+} from "./calibrations";
+import { LIME_DEFAULT_UNIT, limeDepth } from "./rate";
+import { LimeRange, limeTableCheckBufferPh, limeTableFromRange, limeTableRate } from "./table";
+import { convertRate } from "../units";
+import { BOUNDS, check, finite } from "../validate";
 
 export interface LimeBufferOptions {
   /** A built-in name, or a range holding a table (a 1×1 range holding text is a name). Default SMP. */

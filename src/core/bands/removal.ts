@@ -13,13 +13,13 @@
  * and K2O offtakes (pulses, forage, roots); Agriculture Victoria (2017) hay removal table; USDA
  * standard bushel weights. All seen; see each row.
  */
-import removalData from "../data/bands/removal.json";
-import bushelData from "../data/bands/bushel-weights.json";
-import { SoilError, listWords } from "./errors";
-import { nameTable, normaliseWord } from "./names";
-import { convertRate, unitOfFamily, unitsOf } from "./units";
-import { formFactor } from "./chemistry";
-import { BOUNDS, check, finite } from "./validate";
+import removalData from "../../data/bands/removal.json";
+import bushelData from "../../data/bands/bushel-weights.json";
+import { SoilError, listWords } from "../errors";
+import { nameTable, normaliseWord } from "../names";
+import { convertRate, unitOfFamily, unitsOf } from "../units";
+import { formFactor } from "../chemistry";
+import { BOUNDS, check, finite } from "../validate";
 
 /** A coefficient as printed: one value, or the two ends of a printed range. */
 type Coefficient = number | readonly [number, number];

@@ -17,8 +17,8 @@
  * Source: the band rule and default labels are the project catalogue's (functions.md, "Nutrient
  * bands and fertility"); the arithmetic is linear interpolation (derived).
  */
-import { SoilError } from "./errors";
-import { check, finite } from "./validate";
+import { SoilError } from "../errors";
+import { check, finite } from "../validate";
 
 /** The labels of five bands (four limits) when none are given. */
 export const DEFAULT_BAND_LABELS: readonly string[] = ["Very low", "Low", "Optimum", "High", "Very high"];

@@ -7,12 +7,12 @@
  *   US tons per acre of 100-score lime; seen in full).
  * - MEHLICH: the NCDA&CS buffer-acidity formula (seen), which needs the soil pH.
  */
-import smp from "../data/lime/smp.json";
-import sikora from "../data/lime/sikora-or2025.json";
-import mehlich from "../data/lime/mehlich-ncda.json";
-import { SoilError } from "./errors";
-import { nameTable } from "./names";
-import { LimeTable } from "./lime-table";
+import smp from "../../data/lime/smp.json";
+import sikora from "../../data/lime/sikora-or2025.json";
+import mehlich from "../../data/lime/mehlich-ncda.json";
+import { SoilError } from "../errors";
+import { nameTable } from "../names";
+import { LimeTable } from "./table";
 
 /** A built-in calibration table and what its numbers mean. */
 export interface LimeTableCalibration {

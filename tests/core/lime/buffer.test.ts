@@ -7,12 +7,12 @@
  * LIME-xx refers to the project's list of published check values.
  */
 import fc from "fast-check";
-import sikoraData from "../../src/data/lime/sikora-or2025.json";
-import { limeBuffer, limeBufferTableRate, limeMehlichAcidity, limeMehlichFactor, limeMehlichRate } from "../../src/core/lime-buffer";
-import { LIME_CALIBRATION_IDS, limeCalibration, limeCalibrationDepthCm, limeCalibrationUnit, LimeTableCalibration } from "../../src/core/lime-calibrations";
-import { limeRangeRate, limeTableFromRange, limeTableRate, LimeRange } from "../../src/core/lime-table";
-import { errorCode as codeOf, errorMessage as messageOf } from "../helpers/errors";
-import { convertRate } from "../../src/core/units";
+import sikoraData from "../../../src/data/lime/sikora-or2025.json";
+import { limeBuffer, limeBufferTableRate, limeMehlichAcidity, limeMehlichFactor, limeMehlichRate } from "../../../src/core/lime/buffer";
+import { LIME_CALIBRATION_IDS, limeCalibration, limeCalibrationDepthCm, limeCalibrationUnit, LimeTableCalibration } from "../../../src/core/lime/calibrations";
+import { limeRangeRate, limeTableFromRange, limeTableRate, LimeRange } from "../../../src/core/lime/table";
+import { errorCode as codeOf, errorMessage as messageOf } from "../../helpers/errors";
+import { convertRate } from "../../../src/core/units";
 
 
 const SIK = "SIKORA-OR2025";
@@ -314,9 +314,9 @@ describe("argument checks", () => {
 
 describe("ABOUT lines carry the method, its source and the cautions (cautions.json, each caution with its source)", () => {
   // eslint-disable-next-line @typescript-eslint/no-var-requires
-  const about = require("../../src/data/about/lime.json") as Record<string, string>;
+  const about = require("../../../src/data/about/lime.json") as Record<string, string>;
   // eslint-disable-next-line @typescript-eslint/no-var-requires
-  const cautions = require("../../src/data/lime/cautions.json") as { cautions: { id: string; text: string; source: string }[] };
+  const cautions = require("../../../src/data/lime/cautions.json") as { cautions: { id: string; text: string; source: string }[] };
   const RATE_FUNCTIONS = ["LIMEBUFFER", "LIMEAL", "LIMEALSAT", "LIMEBASESAT", "LIMEPHBC", "LIMEPRODUCT"];
   it.each(RATE_FUNCTIONS)("%s says results are estimates to check against local calibrations, regulations and licensed advice", (id) => {
     expect(about[id]).toMatch(/Results are estimates: check them against local calibrations, regulations and licensed advice\./);

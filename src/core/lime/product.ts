@@ -11,10 +11,10 @@
  * Sources: Penn State AASL home-garden notes (CCE adjustment, seen); BC Soil Factsheet 637.200-2
  * (fineness rating of the method developed in Ohio, seen).
  */
-import fineness from "../data/lime/fineness-ohio.json";
-import { SoilError } from "./errors";
-import { LimeRange } from "./lime-table";
-import { BOUNDS, check, finite } from "./validate";
+import fineness from "../../data/lime/fineness-ohio.json";
+import { SoilError } from "../errors";
+import { LimeRange } from "./table";
+import { BOUNDS, check, finite } from "../validate";
 
 /**
  * Rate of a liming product to spread for a pure-CaCO3 rate:

@@ -8,8 +8,8 @@
  * Source: linear interpolation between the rows of a published table is how extension tables
  * are read between their printed steps (common practice); no table values live in this file.
  */
-import { SoilError } from "./errors";
-import { check, finite } from "./validate";
+import { SoilError } from "../errors";
+import { check, finite } from "../validate";
 
 /** A range as core receives it: rows of numbers, text, booleans or null (blank). */
 export type LimeRange = readonly (readonly (number | string | boolean | null)[])[];

@@ -3,8 +3,8 @@
  * property-test inputs are invented.
  */
 import fc from "fast-check";
-import { nfixNdfa, nfixNDifference } from "../../src/core/nitrogen-isotope";
-import { errorCode as code, errorMessage as message } from "../helpers/errors";
+import { nfixNdfa, nfixNDifference } from "../../../src/core/nitrogen/isotope";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 
 describe("nfixNdfa: %Ndfa = 100 (δref − δleg)/(δref − B)", () => {

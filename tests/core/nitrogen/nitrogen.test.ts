@@ -11,11 +11,11 @@ import {
   nfixRootFactor,
   nfixKgPerTonne,
   NFIX_ROOT_FACTOR_WORDS,
-} from "../../src/core/nitrogen";
-import { errorCode as code, errorMessage as message } from "../helpers/errors";
-import rootFactors from "../../src/data/nitrogen/root-factors.json";
-import perTonne from "../../src/data/nitrogen/per-tonne.json";
-import checks from "../../src/data/nitrogen/checks.json";
+} from "../../../src/core/nitrogen/nitrogen";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
+import rootFactors from "../../../src/data/nitrogen/root-factors.json";
+import perTonne from "../../../src/data/nitrogen/per-tonne.json";
+import checks from "../../../src/data/nitrogen/checks.json";
 
 
 describe("nfixFixedN: shoot DM × N % × %Ndfa × factor", () => {

@@ -1,11 +1,11 @@
 /**
  * SOIL.BAND and SOIL.BANDPOS in core: the catalogue's edge rule and default labels, range shapes,
  * refusals, and properties. Limits in the edge-case tests are invented (a scale of 10, 20, 30, 40);
- * published tables are checked in bandsSufficiency.test.ts.
+ * published tables are checked in sufficiency.test.ts.
  */
 import fc from "fast-check";
-import { bandIndex, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../src/core/bands";
-import { errorCode as code } from "../helpers/errors";
+import { bandIndex, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../../src/core/bands/bands";
+import { errorCode as code } from "../../helpers/errors";
 
 
 const L = [10, 20, 30, 40]; // invented

@@ -2,9 +2,9 @@
  * Legume N2 fixation measured in the field: the 15N natural abundance method (%Ndfa) and the
  * N-difference method. Guards are data in `src/data/nitrogen/checks.json`.
  */
-import checks from "../data/nitrogen/checks.json";
-import { SoilError } from "./errors";
-import { check, finite, Bound } from "./validate";
+import checks from "../../data/nitrogen/checks.json";
+import { SoilError } from "../errors";
+import { check, finite, Bound } from "../validate";
 
 const NDFA = checks.ndfa;
 const DELTA = NDFA.delta_limit_permil.value;

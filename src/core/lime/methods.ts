@@ -6,11 +6,11 @@
  *
  * Constants and sources: src/data/lime/methods.json (each with its seen / from-memory status).
  */
-import methods from "../data/lime/methods.json";
-import { SoilError } from "./errors";
-import { limeCaco3MgPerKg, limeDepth, limeLayerKgPerHa, limeRateIn } from "./lime-rate";
-import { convertUnit } from "./units";
-import { BOUNDS, check, finite } from "./validate";
+import methods from "../../data/lime/methods.json";
+import { SoilError } from "../errors";
+import { limeCaco3MgPerKg, limeDepth, limeLayerKgPerHa, limeRateIn } from "./rate";
+import { convertUnit } from "../units";
+import { BOUNDS, check, finite } from "../validate";
 
 /** Soil layer and result unit shared by the methods. */
 export interface LimeLayerOptions {

@@ -7,11 +7,11 @@
  * an error case. LIME-xx refers to the project's list of published check values.
  */
 import fc from "fast-check";
-import methods from "../../src/data/lime/methods.json";
-import { limeAlSat, limeAlSatCmol, limeBaseSat, limeExchAl, limePhBc } from "../../src/core/lime-methods";
-import { limeCaco3MgPerKg, limeLayerKgPerHa } from "../../src/core/lime-rate";
-import { limeProductRate } from "../../src/core/lime-product";
-import { errorCode as codeOf } from "../helpers/errors";
+import methods from "../../../src/data/lime/methods.json";
+import { limeAlSat, limeAlSatCmol, limeBaseSat, limeExchAl, limePhBc } from "../../../src/core/lime/methods";
+import { limeCaco3MgPerKg, limeLayerKgPerHa } from "../../../src/core/lime/rate";
+import { limeProductRate } from "../../../src/core/lime/product";
+import { errorCode as codeOf } from "../../helpers/errors";
 
 
 /** depth × bulk density giving a 2 000 000 lb/acre furrow slice (UNIT-12 convention): 22.417 cm·g/cm3. */

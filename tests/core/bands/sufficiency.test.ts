@@ -3,8 +3,8 @@
  * CEC-dependent levels, refusals, and the integrity of every table file. Each check names its
  * Source (the same source the table row carries).
  */
-import { sufficiencyBand, sufficiencyTableId, sufficiencyTables, SUFFICIENCY_ROWS } from "../../src/core/bandsSufficiency";
-import { errorCode as code } from "../helpers/errors";
+import { sufficiencyBand, sufficiencyTableId, sufficiencyTables, SUFFICIENCY_ROWS } from "../../../src/core/bands/sufficiency";
+import { errorCode as code } from "../../helpers/errors";
 
 
 describe("Bray-1 P", () => {

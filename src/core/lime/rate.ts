@@ -6,10 +6,10 @@
  * Source: 1 cmol(+) of acidity is neutralized by M(CaCO3)/2 × 0.01 g = 0.50043 g CaCO3
  * (stoichiometry, chemistry.ts); layer mass from depth × bulk density (units.ts).
  */
-import { caco3GramsPerCmolCharge } from "./chemistry";
-import { SoilError } from "./errors";
-import { convertRate, convertUnit } from "./units";
-import { BOUNDS, check, finite } from "./validate";
+import { caco3GramsPerCmolCharge } from "../chemistry";
+import { SoilError } from "../errors";
+import { convertRate, convertUnit } from "../units";
+import { BOUNDS, check, finite } from "../validate";
 
 /** Unit of every lime result unless the caller asks for another: tonne per hectare. */
 export const LIME_DEFAULT_UNIT = "t/ha";

@@ -5,8 +5,8 @@
  * OSU Agronomic Crops Team, 'Phosphorus and Potassium' (Tri-State 2020, seen).
  */
 import fc from "fast-check";
-import { buildupRate, BUILDUP_DEFAULT_YEARS } from "../../src/core/bandsBuildup";
-import { errorCode as code } from "../helpers/errors";
+import { buildupRate, BUILDUP_DEFAULT_YEARS } from "../../../src/core/bands/buildup";
+import { errorCode as code } from "../../helpers/errors";
 
 
 describe("buildupRate", () => {

@@ -7,11 +7,11 @@
  * check values.
  */
 import fc from "fast-check";
-import { cecChargeOf, cecSum, cecSaturation, cecCaMgRatio, cecEsp, BaseCation, SATURATION_PARTS } from "../../src/core/cations";
-import { cecSar, sarMgPerMmolc, SAR_UNITS } from "../../src/core/cationsSar";
-import { mgKgFromCmol, mgPerCmol } from "../../src/core/chemistry";
-import { SoilErrorCode } from "../../src/core/errors";
-import { errorCode, errorMessage } from "../helpers/errors";
+import { cecChargeOf, cecSum, cecSaturation, cecCaMgRatio, cecEsp, BaseCation, SATURATION_PARTS } from "../../../src/core/cations/cations";
+import { cecSar, sarMgPerMmolc, SAR_UNITS } from "../../../src/core/cations/sar";
+import { mgKgFromCmol, mgPerCmol } from "../../../src/core/chemistry";
+import { SoilErrorCode } from "../../../src/core/errors";
+import { errorCode, errorMessage } from "../../helpers/errors";
 
 const codeOf = (f: () => unknown): SoilErrorCode | "none" => errorCode(f) ?? "none";
 const messageOf = errorMessage;

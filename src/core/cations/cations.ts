@@ -1,6 +1,6 @@
 /**
  * Cation exchange: CEC by summation, cation and base saturation, the Ca:Mg ratio and the
- * exchangeable sodium percentage (SAR of water and extracts is in cationsSar.ts).
+ * exchangeable sodium percentage (SAR of water and extracts is in sar.ts).
  *
  * Every cation is turned into charge (cmol(+)/kg) with the equivalent weights of chemistry.ts
  * (IUPAC/CIAAW atomic weights ÷ ion charge); no rounded divisor (200, 120, 390, 230) is typed in.
@@ -10,11 +10,11 @@
  * Laboratory, "CEC calculations" (seen); ESP = 100 × Na / CEC, U.S. Salinity Laboratory Staff
  * (1954) USDA Handbook 60 (definition; from memory, also seen as a lab's definition).
  */
-import { SoilError } from "./errors";
-import { mgPerCmol } from "./chemistry";
-import { nameTable } from "./names";
-import { convertUnit, unitOfFamily, unitsOf, UnitDef } from "./units";
-import { BOUNDS, check, finite } from "./validate";
+import { SoilError } from "../errors";
+import { mgPerCmol } from "../chemistry";
+import { nameTable } from "../names";
+import { convertUnit, unitOfFamily, unitsOf, UnitDef } from "../units";
+import { BOUNDS, check, finite } from "../validate";
 
 /** The exchangeable bases summed into CEC and base saturation. */
 export type BaseCation = "Ca" | "Mg" | "K" | "Na";
