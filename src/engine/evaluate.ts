@@ -1,10 +1,16 @@
 /**
- * Evaluates one formula headless, with the same bindings Excel runs: used by `soilcell eval` and
- * by the formula tests.
+ * Evaluates one formula headless, with the same engine and bindings `recalc` uses: for
+ * `soilcell eval` and the formula tests. The formula is evaluated as a dynamic-array formula in
+ * an empty workbook, so a reference to a cell has nothing to read: it is refused with a message
+ * (tests may ask for references to read as blank cells instead).
  */
-import { DetailedCellError } from "hyperformula";
-import { newEngine } from "./hf";
-import { toEngineFormula } from "./formula-text";
+import { Book } from "./book";
+import { Ctx, Host, Uncomputable, ev, toArray } from "./formula/evaluate";
+import "./formula/functions";
+import { FormulaSyntaxError } from "./formula/lexer";
+import { Node, parseFormula } from "./formula/parser";
+import { Scalar, XlArray, XlError, XlRef, err, isError } from "./formula/values";
+import { SOIL_NAMES, soilCall } from "./soil";
 
 export type EvalValue = number | string | boolean | null;
 
@@ -16,43 +22,78 @@ export interface EvalResult {
   readonly message?: string;
 }
 
-function plain(v: unknown): EvalValue {
-  if (v instanceof DetailedCellError) return `${v.value}${v.message ? ` ${v.message}` : ""}`;
-  if (v === null || v === undefined) return null;
-  if (typeof v === "number" || typeof v === "string" || typeof v === "boolean") return v;
-  return String(v);
+const EMPTY_BOOK: Book = {
+  sheets: [],
+  names: [],
+  date1904: false,
+  sheetIndex: () => undefined,
+  definedName: () => undefined,
+  cell: () => undefined,
+};
+
+const HOST: Host = {
+  book: EMPTY_BOOK,
+  date1904: false,
+  maxCells: 4_000_000,
+  value: () => null,
+  bounds: () => ({ rows: -1, cols: -1 }),
+  spill: () => err("#REF!", "eval has no workbook"),
+  soil: (name) => soilCall(name),
+  now: () => (Date.now() - new Date().getTimezoneOffset() * 60000 - Date.UTC(1899, 11, 30)) / 86400000,
+};
+
+function plain(v: Scalar): EvalValue {
+  if (isError(v)) return `${v.code}${v.message ? ` ${v.message}` : ""}`;
+  return v;
+}
+
+/** The first reference or name in a tree, for the "no workbook" message. */
+function firstReference(n: Node): string | undefined {
+  const stack: Node[] = [n];
+  while (stack.length) {
+    const x = stack.pop() as Node;
+    if (x.k === "ref" || x.k === "name" || x.k === "spill") return x.k === "name" ? `the name ${x.name}` : "a cell reference";
+    if (x.k === "fn") stack.push(...x.args);
+    else if (x.k === "bin" || x.k === "range" || x.k === "isect") stack.push(x.a, x.b);
+    else if (x.k === "neg" || x.k === "plus" || x.k === "at" || x.k === "pct") stack.push(x.x);
+    else if (x.k === "union") stack.push(...x.items);
+  }
+  return undefined;
 }
 
 /**
- * Evaluates `formula` (typed form "=SOIL.CEC(…)" or Excel's stored form) on an empty sheet.
+ * Evaluates `formula` (typed form "=SOIL.CEC(…)" or Excel's stored form) on its own.
  * @example evaluateFormula('=SOIL.CONVERT(10,"mg/kg","kg/ha",15,1.3)') //=> { value: 19.5 }
  */
-export function evaluateFormula(formula: string): EvalResult {
-  const text = formula.trim().startsWith("=") ? formula.trim() : `=${formula.trim()}`;
-  const hf = newEngine({ Eval: [[toEngineFormula(text)]] });
+export function evaluateFormula(formula: string, options: { blankReferences?: boolean } = {}): EvalResult {
+  const text = formula.trim().replace(/^=/, "");
+  let node: Node;
   try {
-    const sheet = hf.getSheetId("Eval") as number;
-    const top = hf.getCellValue({ sheet, row: 0, col: 0 });
-    if (top instanceof DetailedCellError) {
-      return { error: top.value, message: top.message };
-    }
-    const isArray = hf.isCellPartOfArray({ sheet, row: 0, col: 0 });
-    if (!isArray) return { value: plain(top) };
-    // The spill's own extent (the sheet may be larger: a referenced empty cell counts in its size).
-    const inArray = (row: number, col: number) => hf.isCellPartOfArray({ sheet, row, col });
-    let height = 1;
-    while (inArray(height, 0)) height += 1;
-    let width = 1;
-    while (inArray(0, width)) width += 1;
-    const rows: EvalValue[][] = [];
-    for (let r = 0; r < height; r++) {
-      const row: EvalValue[] = [];
-      for (let c = 0; c < width; c++) row.push(plain(hf.getCellValue({ sheet, row: r, col: c })));
-      rows.push(row);
-    }
-    return rows.length === 1 && rows[0]!.length === 1 ? { value: rows[0]![0]! } : { value: rows };
-  } finally {
-    hf.destroy();
+    node = parseFormula(text, 0, 0, SOIL_NAMES);
+  } catch (e) {
+    if (!(e instanceof FormulaSyntaxError)) throw e;
+    const hint = text.includes(";") && !text.includes(",") ? ' (use "," between arguments, as Excel stores formulas, not ";")' : "";
+    return { error: "#VALUE!", message: `the formula cannot be read: ${e.message}${hint}` };
   }
+  const ref = options.blankReferences ? undefined : firstReference(node);
+  if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; put the formula in a workbook and use soilcell recalc` };
+  const ctx: Ctx = { host: HOST, sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
+  let v = ev(node, ctx, true);
+  if (v instanceof XlRef) v = toArray(v, ctx);
+  if (v instanceof XlArray) {
+    if (v.rows === 1 && v.cols === 1) v = v.at(0, 0);
+    else {
+      const rows: EvalValue[][] = [];
+      for (let r = 0; r < v.rows; r++) {
+        const row: EvalValue[] = [];
+        for (let c = 0; c < v.cols; c++) row.push(plain(v.at(r, c) ?? 0));
+        rows.push(row);
+      }
+      const top = v.at(0, 0);
+      return isError(top) ? { value: rows, error: top.code, message: top.message } : { value: rows };
+    }
+  }
+  const s = (v ?? 0) as Scalar;
+  if (s instanceof XlError) return { error: s.code, message: s.message || (s instanceof Uncomputable ? "" : "") };
+  return { value: s };
 }
-

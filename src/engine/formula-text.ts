@@ -1,98 +1,101 @@
 /**
- * Formula text as Excel stores it in .xlsx versus as a user types it (and the engine parses it).
+ * Formula text as Excel stores it in .xlsx versus as a user types it.
  *
  * Excel saves an add-in function call `=SOIL.CEC(A2,…)` as `_xldudf_SOIL_CEC(A2,…)` (the dot of
- * the id becomes `_`), and newer built-in functions with `_xlfn.` / `_xlws.` prefixes. The engine's
- * parser accepts neither, so formulas are rewritten on the way in and back on the way out.
+ * the id becomes `_`), newer built-in functions with `_xlfn.` / `_xlws.` prefixes, and the spill
+ * operator `B1#` as `_xlfn.ANCHORARRAY(B1)`. Rewrites work on the formula's tokens, so only
+ * function names are renamed: text in strings and sheet names that merely looks like a function
+ * (`'Soil.Band (2025)'!A1`, "SOIL.CEC(") is never touched.
  */
+import { T, Token, tokenize } from "./formula/lexer";
+import { canonicalFunctionName } from "./formula/parser";
 import { NAMESPACE, REGISTRY } from "./registry";
+import { SOIL_NAMES } from "./soil";
 
-/** Stored-name → id, built from the registry so only our functions are rewritten. */
-const STORED = new Map(REGISTRY.map((f) => [`_XLDUDF_${NAMESPACE}_${f.id.replace(/\./g, "_")}`, f.id]));
+const BY_ID = new Map(REGISTRY.map((f) => [f.formulaName.toUpperCase(), f.id]));
 
-const STORED_CALL = /_xldudf_[A-Za-z0-9_]+(?=\s*\()/g;
-const TYPED_CALL = new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.([A-Za-z][A-Za-z0-9_.]*)(?=\\s*\\()`, "gi");
+function storedName(id: string): string {
+  return `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}`;
+}
 
-/** Applies `fn` to the parts of a formula outside string literals. */
-function outsideStrings(formula: string, fn: (part: string) => string): string {
-  return formula
-    .split(/("(?:[^"]|"")*")/)
-    .map((part, i) => (i % 2 === 1 ? part : fn(part)))
-    .join("");
+/** Replaces token spans in `text` (tokens from `tokenize(text)`). */
+function splice(text: string, edits: { start: number; end: number; with: string }[]): string {
+  if (!edits.length) return text;
+  edits.sort((a, b) => a.start - b.start);
+  let out = "";
+  let at = 0;
+  for (const e of edits) {
+    out += text.slice(at, e.start) + e.with;
+    at = e.end;
+  }
+  return out + text.slice(at);
+}
+
+function tokensOf(body: string): Token[] | undefined {
+  try {
+    return tokenize(body);
+  } catch {
+    return undefined;
+  }
 }
 
 /** Excel's stored form → the form a user types (our names, no _xlfn. prefixes). Keeps a leading "=". */
 export function toTypedFormula(formula: string): string {
-  return outsideStrings(formula, (part) =>
-    part
-      .replace(STORED_CALL, (m) => {
-        const id = STORED.get(m.toUpperCase());
-        return id ? `${NAMESPACE}.${id}` : m;
-      })
-      .replace(/_xlfn\._xlws\.|_xlfn\.|_xlws\./gi, ""),
-  );
-}
-
-/**
- * Excel's literals the engine's parser does not read, rewritten to ones it does: an upper-case
- * exponent (Excel saves 1E-05), TRUE/FALSE without brackets, and "" or \ inside a string. Text in
- * quotes ("strings", 'sheet names') is left alone apart from those two characters.
- */
-function engineLiterals(formula: string): string {
-  return formula
-    .split(/("(?:[^"]|"")*"|'(?:[^']|'')*')/)
-    .map((part, i) => {
-      if (i % 2 === 1) {
-        // The engine's strings take no "" and treat \ as an escape: both become CHAR().
-        const text = part.startsWith('"') ? part.slice(1, -1).replace(/""/g, '"') : "";
-        if (!/["\\]/.test(text)) return part;
-        return `(${text.split(/(["\\])/).map((p) => (p === '"' ? "CHAR(34)" : p === "\\" ? "CHAR(92)" : `"${p}"`)).join("&")})`;
+  const eq = formula.startsWith("=") ? "=" : "";
+  const body = formula.slice(eq.length);
+  const tokens = tokensOf(body);
+  if (!tokens) return formula;
+  const edits: { start: number; end: number; with: string }[] = [];
+  for (let i = 0; i < tokens.length; i++) {
+    const t = tokens[i] as Token;
+    if (t.t !== T.Func) continue;
+    const written = String(t.value);
+    if (!/^_xl/i.test(written)) continue;
+    const name = canonicalFunctionName(written, SOIL_NAMES);
+    if (name === "ANCHORARRAY") {
+      // _xlfn.ANCHORARRAY(B1) → B1#
+      const a = tokens[i + 2];
+      const close = tokens[i + 3];
+      if (tokens[i + 1]?.t === T.LParen && a && (a.t === T.Ref || a.t === T.Name) && close?.t === T.RParen) {
+        edits.push({ start: t.start, end: close.end, with: `${body.slice(a.start, a.end)}#` });
+        i += 3;
+        continue;
       }
-      return part
-        .replace(/(?<![A-Za-z0-9_.$!\]])(\d+\.?\d*|\.\d+)E([+-]?\d+)(?![A-Za-z0-9_.(])/g, "$1e$2")
-        .replace(/(?<![A-Za-z0-9_.$!\]])(TRUE|FALSE)(?![A-Za-z0-9_.(!:])/gi, "$1()");
-    })
-    .join("");
-}
-
-/** Excel's stored form (or typed form) → the form the engine parses. Keeps a leading "=" if present. */
-export function toEngineFormula(formula: string): string {
-  return engineLiterals(toTypedFormula(formula));
+    }
+    edits.push({ start: t.start, end: t.end, with: name });
+  }
+  return eq + splice(body, edits);
 }
 
 /**
  * Typed form → Excel's stored form for our functions (other text unchanged). No leading "=".
  * Stored names in another letter case (LibreOffice saves `_xldudf_soil_cmol`) are written in
- * Excel's own case.
+ * Excel's own case; a typed spill operator B1# becomes _xlfn.ANCHORARRAY(B1).
  */
 export function toStoredFormula(formula: string): string {
   const body = formula.replace(/^=/, "");
-  return outsideStrings(body, (part) =>
-    part
-      .replace(TYPED_CALL, (m, id: string) => {
-        const known = REGISTRY.find((f) => f.id === id.toUpperCase());
-        return known ? `_xldudf_${NAMESPACE}_${known.id.replace(/\./g, "_")}` : m;
-      })
-      .replace(STORED_CALL, (m) => {
-        const id = STORED.get(m.toUpperCase());
-        return id ? `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}` : m;
-      }),
-  );
+  const tokens = tokensOf(body);
+  if (!tokens) return body;
+  const edits: { start: number; end: number; with: string }[] = [];
+  for (let i = 0; i < tokens.length; i++) {
+    const t = tokens[i] as Token;
+    if (t.t === T.Func) {
+      const name = canonicalFunctionName(String(t.value), SOIL_NAMES);
+      const id = BY_ID.get(name);
+      if (id) edits.push({ start: t.start, end: t.end, with: storedName(id) });
+    } else if (t.t === T.Hash) {
+      const prev = tokens[i - 1];
+      if (prev && (prev.t === T.Ref || prev.t === T.Name)) {
+        edits.push({ start: prev.start, end: t.end, with: `_xlfn.ANCHORARRAY(${body.slice(prev.start, prev.end)})` });
+      }
+    }
+  }
+  return splice(body, edits);
 }
 
-const SOIL_CALL = new RegExp(`(?<![A-Za-z0-9_.])${NAMESPACE}\\.[A-Za-z]`, "i");
-
-/** True when a formula calls one of our functions, in either form. */
+/** True when a formula calls one of our functions, in either form (a function call, not text). */
 export function callsSoil(formula: string): boolean {
-  return engineFormulaCallsSoil(toEngineFormula(formula));
-}
-
-/** callsSoil for a formula already in the engine's form (what toEngineFormula returned). */
-export function engineFormulaCallsSoil(engine: string): boolean {
-  let found = false;
-  outsideStrings(engine, (part) => {
-    if (SOIL_CALL.test(part)) found = true;
-    return part;
-  });
-  return found;
+  const tokens = tokensOf(formula.replace(/^=/, ""));
+  if (!tokens) return false;
+  return tokens.some((t) => t.t === T.Func && BY_ID.has(canonicalFunctionName(String(t.value), SOIL_NAMES)));
 }

@@ -1,23 +1,37 @@
 /**
- * Headless recalculation of a whole workbook: read, compute every formula with the SOIL bindings
- * registered, write a NEW file in which every formula is kept and its cached value updated, and
- * report what failed and where. It never writes over its input, and the output appears only
- * complete (written to a temporary file, then renamed into place).
+ * Headless recalculation of a whole workbook.
+ *
+ * THE RULE: recalculate only the SOIL cells and the cells that depend on them; every other cell
+ * keeps the value Excel (or whoever wrote the file) cached, byte for byte. Native cells upstream
+ * of SOIL cells are read from their cached values; native cells downstream of SOIL cells are
+ * recomputed with Excel 365's semantics (dynamic arrays, element-wise arithmetic over ranges,
+ * text in a cell stays text, legacy formulas intersected as Excel does); a native cell with no
+ * cached value is computed. A cell the engine cannot compute whose inputs it has recomputed is an
+ * error with a message (exit 1), never its stale value. A file that cannot be read faithfully is
+ * refused (WorkbookFileError, exit 2), never half-computed.
+ *
+ * It never writes over its input: the output is written to a temporary file created exclusively
+ * with a random name beside it, then renamed into place.
  */
+import crypto from "crypto";
 import fs from "fs";
 import path from "path";
-import { DetailedCellError, HyperFormula } from "hyperformula";
-import { CellAddress, a1, parseRange, rangeA1 } from "./cellref";
-import { callsSoil, engineFormulaCallsSoil, toStoredFormula, toTypedFormula } from "./formula-text";
-import { newEngine } from "./hf";
-import { CachedValue, CellWrite, patchSheetXml } from "./sheet-patch";
-import { readWorkbook } from "./workbook-read";
-import { WorkbookFileError, dynamicArrayIndex, openPackage, readingCopy } from "./xlsx-package";
+import { Book, Cell, readBook } from "./book";
+import { a1, rangeA1 } from "./cellref";
+import { Ctx, Host, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
+import "./formula/functions";
+import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
+import { toStoredFormula, toTypedFormula } from "./formula-text";
+import { Plan, Planned, planRecalc } from "./plan";
+import { CellWrite, DynamicFormula, patchSheetXml } from "./sheet-patch";
+import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
+import { Tok, XmlScanner } from "./xml";
+import { WorkbookFileError, XlsxPackage, asFileError, dynamicArrayIndex, openPackage, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
 
 export interface CellProblem {
   readonly sheet: string;
   readonly cell: string;
-  /** The formula as a user would type it. */
+  /** The formula as a user would type it (cut to a readable length). */
   readonly formula: string;
   readonly error: string;
   readonly message: string;
@@ -27,13 +41,18 @@ export interface RecalcSummary {
   readonly input: string;
   readonly output: string;
   readonly sheets: number;
+  /** Formula cells in the workbook. */
   readonly formulaCells: number;
+  /** Formula cells computed (SOIL cells, the cells depending on them, and formulas without a cached value). */
+  readonly computedCells: number;
+  /** Formula cells whose cached value was kept as the file had it. */
+  readonly keptCells: number;
   readonly soilFormulaCells: number;
   /** Cells filled by spilled SOIL results, beyond their formula cells. */
   readonly spilledCells: number;
-  /** Formula cells and spilled elements whose value is an error. */
+  /** Computed cells and spilled elements whose value is an error. */
   readonly errors: readonly CellProblem[];
-  /** Formulas the engine does not support: their cached values were left as they were. */
+  /** Formulas without a cached value that the engine cannot compute and nothing recomputed feeds: left without a value. */
   readonly kept: readonly CellProblem[];
   readonly seconds: number;
 }
@@ -41,6 +60,8 @@ export interface RecalcSummary {
 export interface RecalcOptions {
   /** Progress lines for long runs (the CLI passes stderr). */
   readonly progress?: (line: string) => void;
+  /** Largest array (in cells) one formula may build; a bound on what a hostile file can ask for. */
+  readonly maxCells?: number;
 }
 
 export class RecalcRefused extends Error {
@@ -56,63 +77,273 @@ export function defaultOutputPath(input: string): string {
   return path.join(path.dirname(input), `${path.basename(input, ext)}.recalc${ext || ".xlsx"}`);
 }
 
-function sameFile(a: string, b: string): boolean {
-  const ra = path.resolve(a);
-  const rb = path.resolve(b);
-  if (ra === rb) return true;
+const MAX_MESSAGE = 300;
+const MAX_FORMULA = 200;
+
+function cut(s: string, n: number): string {
+  return s.length > n ? `${s.slice(0, n)}… (${s.length} characters)` : s;
+}
+
+/** Refuses inputs and outputs that are not plain files, and an output that is the input. */
+function checkPaths(input: string, output: string): void {
+  let inStat: fs.Stats;
   try {
-    return fs.realpathSync(ra) === fs.realpathSync(rb);
+    inStat = fs.statSync(input);
+  } catch (e) {
+    throw new WorkbookFileError(`cannot read ${input}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  }
+  if (!inStat.isFile()) throw new WorkbookFileError(`${input} is not a regular file (a folder, device or pipe); give a workbook file`);
+  let outStat: fs.Stats | undefined;
+  try {
+    outStat = fs.lstatSync(output);
   } catch {
-    return false;
+    outStat = undefined;
+  }
+  if (outStat) {
+    if (outStat.isSymbolicLink()) throw new RecalcRefused(`refusing to write to ${output}: it is a symbolic link; choose another output with -o`);
+    if (!outStat.isFile()) throw new RecalcRefused(`refusing to write to ${output}: it exists and is not a regular file; choose another output with -o`);
+    if (outStat.dev === inStat.dev && outStat.ino === inStat.ino) throw new RecalcRefused(`refusing to write over the input ${input}; choose another output with -o`);
+  }
+  if (path.resolve(input) === path.resolve(output)) throw new RecalcRefused(`refusing to write over the input ${input}; choose another output with -o`);
+}
+
+/** What one computed cell came to. */
+interface Result {
+  /** The final area it fills (the anchor alone for a single value or a spill error). */
+  readonly area: Rect;
+  /** Values over the area, row-major (a single value has one). */
+  readonly grid: Scalar[];
+  /** No value to write (a circular reference, or an uncomputable cell kept as cached). */
+  readonly noValue?: boolean;
+  /** Keep the file's cached value (a formula with dynamic references that read nothing recomputed). */
+  readonly keep?: boolean;
+}
+
+class Circular extends XlError {
+  constructor() {
+    super("#VALUE!", "circular reference: the cell depends on itself; no value written, Excel reports it when the file is opened");
   }
 }
 
-/** The error values Excel itself writes; the engine's own (#CYCLE!, #ERROR!, #LIC!) are not valid in a file. */
+const single = (p: Planned): Rect => ({ r1: p.cell.row, c1: p.cell.col, r2: p.cell.row, c2: p.cell.col });
+
+class RecalcHost implements Host {
+  readonly date1904: boolean;
+  readonly maxCells: number;
+  private readonly results = new Map<number, Result>();
+  private readonly inProgress = new Set<number>();
+  private readonly bound: { rows: number; cols: number }[];
+  /** Set when an evaluation reads a recomputed cell (per evaluation frame). */
+  private touched: boolean[] = [];
+  private readonly soilCache = new Map<string, ReturnType<typeof soilCall>>();
+  private readonly clock = Date.now();
+
+  constructor(
+    readonly book: Book,
+    private readonly plan: Plan,
+    maxCells: number,
+  ) {
+    this.date1904 = book.date1904;
+    this.maxCells = maxCells;
+    this.bound = book.sheets.map((s) => {
+      let cols = -1;
+      for (const r of s.rows) if (r && r.length - 1 > cols) cols = r.length - 1;
+      return { rows: s.rows.length - 1, cols };
+    });
+    for (const p of plan.order) {
+      const b = this.bound[p.sheet] as { rows: number; cols: number };
+      b.rows = Math.max(b.rows, p.area.r2);
+      b.cols = Math.max(b.cols, p.area.c2);
+    }
+  }
+
+  bounds(sheet: number) {
+    return this.bound[sheet] ?? { rows: -1, cols: -1 };
+  }
+
+  value(sheet: number, row: number, col: number): Scalar {
+    const owner = this.plan.owner(sheet, row, col);
+    if (owner) {
+      const r = this.result(owner);
+      if (r.keep) return this.book.cell(sheet, row, col)?.value ?? null;
+      if (this.touched.length) this.touched[this.touched.length - 1] = true;
+      const a = r.area;
+      if (row < a.r1 || row > a.r2 || col < a.c1 || col > a.c2) return null;
+      if (r.noValue) return owner.cell.row === row && owner.cell.col === col ? (r.grid[0] as Scalar) : null;
+      return r.grid[(row - a.r1) * (a.c2 - a.c1 + 1) + (col - a.c1)] as Scalar;
+    }
+    const cell = this.book.sheets[sheet]?.rows[row]?.[col];
+    return cell ? cell.value : null;
+  }
+
+  spill(sheet: number, row: number, col: number): XlRef | XlError {
+    const p = this.plan.at(sheet, row, col);
+    if (p) {
+      if (p.mode !== "spill") return err("#REF!", `${a1({ row, col })} holds no spilling formula`);
+      const r = this.result(p);
+      if (r.keep) return cachedSpill(this.book.cell(sheet, row, col), sheet);
+      const v = r.grid[0];
+      if (isError(v) && v.code === "#SPILL!") return v;
+      return new XlRef(sheet, r.area.r1, r.area.c1, r.area.r2, r.area.c2);
+    }
+    return cachedSpill(this.book.cell(sheet, row, col), sheet);
+  }
+
+  soil(name: string) {
+    if (!name.startsWith("SOIL.")) return undefined;
+    let c = this.soilCache.get(name);
+    if (c === undefined && !this.soilCache.has(name)) {
+      c = soilCall(name);
+      this.soilCache.set(name, c);
+    }
+    return c;
+  }
+
+  now(): number {
+    const ms = this.clock - new Date(this.clock).getTimezoneOffset() * 60000;
+    const epoch = this.date1904 ? Date.UTC(1904, 0, 1) : Date.UTC(1899, 11, 30);
+    return (ms - epoch) / 86400000;
+  }
+
+  /** The result of a computed cell, computing it (and what it reads) when not yet done. */
+  result(p: Planned): Result {
+    const done = this.results.get(p.id);
+    if (done) return done;
+    if (this.inProgress.has(p.id) || this.plan.circular.has(p.id)) {
+      const r: Result = { area: single(p), grid: [new Circular()], noValue: true };
+      if (!this.inProgress.has(p.id)) this.results.set(p.id, r);
+      return r;
+    }
+    this.inProgress.add(p.id);
+    this.touched.push(false);
+    let r: Result;
+    try {
+      r = this.compute(p);
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+      r = { area: single(p), grid: [new Uncomputable("the formula chain is too deep to compute headless")] };
+    }
+    const touched = this.touched.pop() as boolean;
+    if (this.touched.length && touched) this.touched[this.touched.length - 1] = true;
+    this.inProgress.delete(p.id);
+    // A formula with dynamic references that read nothing recomputed keeps its cached value.
+    if (p.reason === "dynamic" && !touched && p.cell.cached) r = { ...r, keep: true };
+    // A formula without a cached value that cannot be computed, fed by nothing recomputed, stays without one.
+    if (p.reason === "uncached" && r.grid[0] instanceof Uncomputable && !touched) r = { ...r, noValue: true };
+    this.results.set(p.id, r);
+    return r;
+  }
+
+  private compute(p: Planned): Result {
+    const f = p.cell.formula!;
+    const at = single(p);
+    if (!f.node) {
+      const why = f.form === "table" ? "a what-if data table is not computed headless" : `the formula cannot be read headless (${f.syntaxError ?? "unknown"})`;
+      return { area: at, grid: [new Uncomputable(why)] };
+    }
+    const ctx: Ctx = { host: this, sheet: p.sheet, row: p.cell.row, col: p.cell.col, arrays: p.mode !== "single", depth: 0 };
+    const v = ev(f.node, ctx, true);
+    if (p.mode === "single") return { area: at, grid: [finalScalar(v, ctx)] };
+    const arr = v instanceof XlRef ? toArray(v, ctx) : v;
+    if (p.mode === "fixed") return { area: p.area, grid: fillFixed(arr, p.area, ctx) };
+    // A dynamic array: spills to its size, if the cells it needs are free.
+    if (isError(arr) || !(arr instanceof XlArray)) return { area: at, grid: [finalScalar(arr as Value, ctx)] };
+    const rows = arr.rows;
+    const cols = arr.cols;
+    if (rows === 1 && cols === 1) return { area: at, grid: [zeroBlank(arr.at(0, 0))] };
+    const area = { r1: p.cell.row, c1: p.cell.col, r2: p.cell.row + rows - 1, c2: p.cell.col + cols - 1 };
+    if (area.r2 !== p.area.r2 || area.c2 !== p.area.c2) {
+      return {
+        area: at,
+        grid: [new Uncomputable(`the result's size (${rows}×${cols}) depends on the data and differs from the size read from the formula; not computed headless`)],
+      };
+    }
+    const blocked = this.spillBlocked(p, area);
+    if (blocked) return { area: at, grid: [err("#SPILL!", blocked)] };
+    const grid = arr.data.map(zeroBlank);
+    return { area, grid };
+  }
+
+  /** Why a spill cannot go where it needs to, or undefined when the cells are free. */
+  private spillBlocked(p: Planned, area: Rect): string | undefined {
+    const sheet = this.book.sheets[p.sheet]!;
+    const old = p.cell.formula?.ref;
+    for (const m of sheet.merges) {
+      if (m.r1 <= area.r2 && area.r1 <= m.r2 && m.c1 <= area.c2 && area.c1 <= m.c2) {
+        return `the spill range ${rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, area.c2 - area.c1 + 1)} holds merged cells`;
+      }
+    }
+    for (let r = area.r1; r <= area.r2; r++) {
+      const row = sheet.rows[r];
+      for (let c = area.c1; c <= area.c2; c++) {
+        if (r === p.cell.row && c === p.cell.col) continue;
+        const owner = this.plan.owner(p.sheet, r, c);
+        if (owner && owner !== p && (owner.mode !== "single" || (owner.cell.row === r && owner.cell.col === c))) {
+          const oa = owner.area;
+          if (r >= oa.r1 && r <= oa.r2 && c >= oa.c1 && c <= oa.c2) return `the spill range would cover ${a1({ row: r, col: c })}, which another formula fills`;
+        }
+        const cell = row?.[c];
+        if (!cell) continue;
+        if (cell.formula) return `the spill range would cover ${a1({ row: r, col: c })}, which holds a formula`;
+        if (cell.value === null) continue;
+        const inOld = old && r >= old.r1 && r <= old.r2 && c >= old.c1 && c <= old.c2;
+        const freed = owner && owner !== p && !(r >= owner.area.r1 && r <= owner.area.r2 && c >= owner.area.c1 && c <= owner.area.c2);
+        if (!inOld && !freed) return `the spill range would cover ${a1({ row: r, col: c })}, which is not empty`;
+      }
+    }
+    return undefined;
+  }
+}
+
+function cachedSpill(cell: Cell | undefined, sheet: number): XlRef | XlError {
+  const f = cell?.formula;
+  if (!cell || !f || (f.form !== "dynamic" && f.form !== "array")) return err("#REF!", "the spill operator # needs a cell that holds a spilling formula");
+  const ref = f.ref ?? { r1: cell.row, c1: cell.col, r2: cell.row, c2: cell.col };
+  return new XlRef(sheet, ref.r1, ref.c1, ref.r2, ref.c2);
+}
+
+/** A formula's displayed value: an empty cell it refers to shows 0. */
+function zeroBlank(v: Scalar): Scalar {
+  return v === null ? 0 : v;
+}
+
+function finalScalar(v: Value, ctx: Ctx): Scalar {
+  if (v instanceof XlRef) return zeroBlank(ctx.arrays ? firstScalar(v, ctx) : intersect(v, ctx));
+  return zeroBlank(firstScalar(v, ctx));
+}
+
+/** A legacy array formula's fixed range: a single value fills it, a row or column repeats, beyond the result is #N/A. */
+function fillFixed(v: Value | XlError, area: Rect, ctx: Ctx): Scalar[] {
+  const rows = area.r2 - area.r1 + 1;
+  const cols = area.c2 - area.c1 + 1;
+  const arr = v instanceof XlArray ? v : null;
+  const out: Scalar[] = new Array(rows * cols);
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < cols; c++) {
+      let x: Scalar;
+      if (!arr) x = zeroBlank(firstScalar(v as Value, ctx));
+      else {
+        const rr = arr.rows === 1 ? 0 : r;
+        const cc = arr.cols === 1 ? 0 : c;
+        x = rr < arr.rows && cc < arr.cols ? zeroBlank(arr.at(rr, cc)) : err("#N/A", "outside the array formula's result");
+      }
+      out[r * cols + c] = x;
+    }
+  }
+  return out;
+}
+
 const EXCEL_ERRORS = new Set(["#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#SPILL!", "#CALC!", "#GETTING_DATA"]);
-
-/** What the engine's own error values mean, for the summary when the engine gives no message. */
-const ENGINE_ERROR_MEANING: Record<string, string> = {
-  "#CYCLE!": "circular reference: the value depends on itself; no value written, Excel will compute it",
-  "#ERROR!": "the formula cannot be read headless",
-};
-
-function cachedOf(v: unknown): CachedValue {
-  // An engine-only error is written as no cached value at all (Excel recomputes it on open).
-  if (v instanceof DetailedCellError) return EXCEL_ERRORS.has(v.value) ? { error: v.value } : null;
-  if (v === null || v === undefined) return null;
-  if (typeof v === "number") return Number.isFinite(v) ? v : { error: "#NUM!" };
-  if (typeof v === "string" || typeof v === "boolean") return v;
-  return null;
-}
-
-interface Spill {
-  readonly rows: number;
-  readonly cols: number;
-}
-
-/** The size of the array a formula cell spilled, from the engine's own vertex (1×1 if none). */
-function spillOf(hf: HyperFormula, sheet: number, at: CellAddress): Spill {
-  const graph = (hf as unknown as { dependencyGraph: { getCell(a: unknown): unknown } }).dependencyGraph;
-  const vertex = graph.getCell({ sheet, row: at.row, col: at.col }) as { width?: number; height?: number } | undefined;
-  if (vertex && typeof vertex.width === "number" && typeof vertex.height === "number" && vertex.width > 0 && vertex.height > 0) {
-    return { rows: vertex.height, cols: vertex.width };
-  }
-  return { rows: 1, cols: 1 };
-}
-
-function typed(stored: string): string {
-  return `=${toTypedFormula(stored)}`;
-}
 
 /**
  * Recalculates `input` into `output` (default: beside the input with ".recalc" added).
- * @throws RecalcRefused when output is the input; WorkbookFileError for a file that is not a
- *   readable workbook. Cell errors are reported in the summary, never thrown.
+ * @throws RecalcRefused when output is the input or not a plain file; WorkbookFileError for a file
+ *   that is not a readable workbook. Cell errors are reported in the summary, never thrown.
  */
 export async function recalcWorkbook(input: string, output = defaultOutputPath(input), options: RecalcOptions = {}): Promise<RecalcSummary> {
   const started = process.hrtime.bigint();
   const say = options.progress ?? (() => undefined);
-  if (sameFile(input, output)) throw new RecalcRefused(`refusing to write over the input ${input}; choose another output with -o`);
+  checkPaths(input, output);
   let bytes: Buffer;
   try {
     bytes = fs.readFileSync(input);
@@ -121,129 +352,175 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   }
   const pkg = await openPackage(bytes);
   say(`reading ${path.basename(input)} (${pkg.sheets.length} sheets)`);
-  const book = await readWorkbook(await readingCopy(pkg), pkg.sheets.map((s) => s.name));
-  say(`computing ${book.formulas.length} formula cells`);
-  const hf = asFileError("the workbook cannot be loaded into the formula engine", () => newEngine(book.sheets));
-  for (const n of book.namedExpressions) {
-    try {
-      hf.addNamedExpression(n.name, n.expression);
-    } catch {
-      // A defined name the engine cannot hold (print areas, external links) is simply not used.
-    }
-  }
+  const book = readBook(pkg, SOIL_NAMES);
+  const plan = asFileError("the workbook's formulas cannot be planned", () => planRecalc(book, SOIL_SIGNATURES));
+  say(`computing ${plan.order.length} of ${plan.formulaCells} formula cells`);
+  const host = new RecalcHost(book, plan, options.maxCells ?? 4_000_000);
+  for (const p of plan.order) host.result(p);
 
-  const errors: CellProblem[] = [];
-  const kept: CellProblem[] = [];
-  const writesBySheet = new Map<string, CellWrite[]>();
-  let soilFormulaCells = 0;
-  let spilledCells = 0;
-  let cm: number | undefined | null = null; // null: not yet asked
-
-  for (const f of book.formulas) {
-    const sheetId = hf.getSheetId(f.sheet) as number;
-    const value = hf.getCellValue({ sheet: sheetId, row: f.address.row, col: f.address.col });
-    const writes = writesBySheet.get(f.sheet) ?? [];
-    writesBySheet.set(f.sheet, writes);
-    // The typed form is wanted only in problem reports; the engine form came with the cell.
-    const formula = () => typed(f.stored);
-    const isSoil = f.engine !== undefined ? engineFormulaCallsSoil(f.engine) : callsSoil(f.stored);
-    if (!isSoil && value instanceof DetailedCellError && (value.value === "#NAME?" || value.value === "#ERROR!")) {
-      const message = value.value === "#NAME?" ? "function not supported headless" : "formula syntax not supported headless";
-      kept.push({ sheet: f.sheet, cell: a1(f.address), formula: formula(), error: value.value, message: value.message || message });
-      continue;
-    }
-    const spill = value instanceof DetailedCellError ? { rows: 1, cols: 1 } : spillOf(hf, sheetId, f.address);
-    const report = (at: CellAddress, v: unknown) => {
-      if (v instanceof DetailedCellError) errors.push({ sheet: f.sheet, cell: a1(at), formula: formula(), error: v.value, message: v.message || ENGINE_ERROR_MEANING[v.value] || "" });
-    };
-    report(f.address, value);
-    if (isSoil) {
-      soilFormulaCells += 1;
-      if (cm === null) cm = await dynamicArrayIndex(pkg);
-      const ref = rangeA1(f.address, spill.rows, spill.cols);
-      writes.push({ address: f.address, value: cachedOf(value), arrayFormula: { text: toStoredFormula(f.stored), ref, cm } }); // the file's own text, only our names in stored form
-    } else {
-      writes.push({ address: f.address, value: cachedOf(value) });
-    }
-    // Spilled elements: for SOIL formulas the engine's spill; for native array formulas, only
-    // within the range the file already gave them (their <f> is kept as it is).
-    const covered = isSoil || !f.arrayRef ? spill : parseRange(f.arrayRef);
-    for (let dr = 0; dr < covered.rows; dr++) {
-      for (let dc = 0; dc < covered.cols; dc++) {
-        if (dr === 0 && dc === 0) continue;
-        const at = { row: f.address.row + dr, col: f.address.col + dc };
-        const inSpill = dr < spill.rows && dc < spill.cols;
-        const v = inSpill ? hf.getCellValue({ sheet: sheetId, ...at }) : null;
-        if (inSpill) report(at, v);
-        writes.push({ address: at, value: cachedOf(v), valueOnly: true });
-        if (isSoil && inSpill) spilledCells += 1;
-      }
-    }
-    // Cells a SOIL formula's old range covered but its new spill does not are cleared.
-    if (isSoil && f.arrayRef) {
-      const old = parseRange(f.arrayRef);
-      for (let dr = 0; dr < old.rows; dr++) {
-        for (let dc = 0; dc < old.cols; dc++) {
-          if (dr < spill.rows && dc < spill.cols) continue;
-          writes.push({ address: { row: f.address.row + dr, col: f.address.col + dc }, value: null, valueOnly: true });
-        }
-      }
-    }
-  }
-  hf.destroy();
-
+  const { writes, errors, kept, soilCells, spilled, computed } = collectWrites(book, plan, host, pkg);
   say(`writing ${path.basename(output)}`);
-  for (const sheet of pkg.sheets) {
-    const writes = writesBySheet.get(sheet.name);
-    if (!writes || writes.length === 0) continue;
-    const xml = (await pkg.read(sheet.path)) as string;
-    pkg.write(sheet.path, asFileError(`sheet "${sheet.name}" cannot be updated`, () => patchSheetXml(xml, dedupe(writes))));
+  for (const sheet of book.sheets) {
+    const w = writes.get(sheet.index);
+    if (!w || w.length === 0) continue;
+    pkg.write(sheet.path, asFileError(`sheet "${sheet.name}" cannot be updated`, () => patchSheetXml(sheet, dedupe(w))));
   }
-  const out = await pkg.toBuffer();
-  writeAtomically(output, out);
+  writeAtomically(output, pkg.toBuffer());
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
     input,
     output,
     sheets: pkg.sheets.length,
-    formulaCells: book.formulas.length,
-    soilFormulaCells,
-    spilledCells,
+    formulaCells: plan.formulaCells,
+    computedCells: computed,
+    keptCells: plan.formulaCells - computed,
+    soilFormulaCells: soilCells,
+    spilledCells: spilled,
     errors,
     kept,
     seconds,
   };
 }
 
-/** Runs a step on the file's contents; anything it throws becomes a plain WorkbookFileError. */
-function asFileError<T>(what: string, step: () => T): T {
-  try {
-    return step();
-  } catch (e) {
-    if (e instanceof WorkbookFileError) throw e;
-    throw new WorkbookFileError(`${what} (${(e as Error).message})`);
+function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage) {
+  const writes = new Map<number, CellWrite[]>();
+  const errors: CellProblem[] = [];
+  const kept: CellProblem[] = [];
+  let soilCells = 0;
+  let spilled = 0;
+  let computed = 0;
+  let cm: number | undefined | null = null;
+  let formsChanged = false;
+  const ordered = [...plan.order].sort((a, b) => a.sheet - b.sheet || a.cell.row - b.cell.row || a.cell.col - b.cell.col);
+  for (const p of ordered) {
+    const sheet = book.sheets[p.sheet]!;
+    const list = writes.get(p.sheet) ?? [];
+    writes.set(p.sheet, list);
+    const r = host.result(p);
+    const f = p.cell.formula!;
+    const typed = () => cut(`=${toTypedFormula(f.text)}`, MAX_FORMULA);
+    const problem = (row: number, col: number, v: XlError) =>
+      errors.push({ sheet: sheet.name, cell: a1({ row, col }), formula: typed(), error: v instanceof Circular ? "#CYCLE!" : v.code, message: cut(v.message, MAX_MESSAGE) });
+    if (r.keep) continue;
+    const top = r.grid[0] as Scalar;
+    if (r.noValue && !(top instanceof Circular)) {
+      kept.push({ sheet: sheet.name, cell: a1(p.cell), formula: typed(), error: (top as XlError).code, message: cut((top as XlError).message, MAX_MESSAGE) });
+      continue;
+    }
+    computed++;
+    if (p.soil) soilCells++;
+    const area = r.area;
+    const width = area.c2 - area.c1 + 1;
+    // The anchor
+    const value = r.noValue ? undefined : writable(top);
+    if (isError(top)) problem(p.cell.row, p.cell.col, top);
+    let dynamic: DynamicFormula | undefined;
+    const converts = p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array");
+    if (converts) {
+      if (cm === null) cm = dynamicArrayIndex(pkg);
+      dynamic = {
+        text: p.soil ? toStoredFormula(f.text) : undefined,
+        ref: rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, width),
+        ...(cm !== undefined ? { cm } : {}),
+      };
+      if (f.form !== "dynamic" || !f.ref || f.ref.r2 !== area.r2 || f.ref.c2 !== area.c2 || p.soil) formsChanged = true;
+    }
+    list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, ...(dynamic ? { dynamic } : {}) });
+    // Spilled or fixed-range elements
+    if (!r.noValue) {
+      for (let i = 1; i < r.grid.length; i++) {
+        const row = area.r1 + Math.floor(i / width);
+        const col = area.c1 + (i % width);
+        const v = r.grid[i] as Scalar;
+        if (isError(v)) problem(row, col, v);
+        list.push({ kind: "value", row, col, value: writable(v) ?? null });
+        if (p.soil) spilled++;
+      }
+    }
+    // Cells the formula covered in the file but no longer fills are cleared.
+    const old = f.ref;
+    if (old && (f.form === "dynamic" || f.form === "array")) {
+      for (let row = old.r1; row <= old.r2; row++) {
+        for (let col = old.c1; col <= old.c2; col++) {
+          if (row >= area.r1 && row <= area.r2 && col >= area.c1 && col <= area.c2) continue;
+          if (plan.owner(p.sheet, row, col) !== p) continue;
+          if (sheet.rows[row]?.[col]) list.push({ kind: "clear", row, col });
+        }
+      }
+    }
   }
+  if (formsChanged) dropCalcChain(pkg);
+  return { writes, errors, kept, soilCells, spilled, computed };
 }
 
-/** When two writes name one cell (a formula inside another's old range), the formula wins. */
+/** The value written in the file: Excel's own error codes only (a message lives in the summary). */
+function writable(v: Scalar): Scalar | undefined {
+  if (isError(v)) return EXCEL_ERRORS.has(v.code) ? new XlError(v.code) : new XlError("#VALUE!");
+  return v;
+}
+
+/**
+ * Excel's calculation chain lists formula cells in the order it last computed them; once a
+ * formula's form changes it is stale, and Excel rebuilds it when the part is absent.
+ */
+function dropCalcChain(pkg: XlsxPackage): void {
+  const relsPath = relsPathOf(pkg.workbookPath);
+  const rels = readRelationships(pkg.text(relsPath));
+  const chain = rels.find((r) => r.type.endsWith("/calcChain"));
+  if (!chain) return;
+  const target = resolveTarget(pkg.workbookPath, chain.target);
+  pkg.remove(target);
+  pkg.write(relsPath, removeElement(pkg.text(relsPath) as string, "Relationship", (attrs) => attrs.get("Id") === chain.id));
+  const types = pkg.text("[Content_Types].xml");
+  if (types) pkg.write("[Content_Types].xml", removeElement(types, "Override", (attrs) => attrs.get("PartName") === `/${target}`));
+}
+
+function removeElement(xml: string, local: string, match: (attrs: Map<string, string>) => boolean): string {
+  const s = new XmlScanner(xml);
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t === Tok.Open && s.local === local && match(s.attrs())) {
+      const start = s.start;
+      const end = s.skipElement();
+      return xml.slice(0, start) + xml.slice(end);
+    }
+  }
+  return xml;
+}
+
+/** When two writes name one cell, the formula wins. */
 function dedupe(writes: CellWrite[]): CellWrite[] {
   const byCell = new Map<string, CellWrite>();
   for (const w of writes) {
-    const key = `${w.address.row}:${w.address.col}`;
-    const prior = byCell.get(key);
-    if (!prior || (prior.valueOnly && !w.valueOnly)) byCell.set(key, w);
+    const k = `${w.row}:${w.col}`;
+    const prior = byCell.get(k);
+    if (!prior || (prior.kind !== "formula" && w.kind === "formula") || (prior.kind === "clear" && w.kind === "value")) byCell.set(k, w);
   }
   return [...byCell.values()];
 }
 
-/** Writes to a temporary file beside the target, then renames it into place. */
+/**
+ * Writes to a temporary file created exclusively (random name, in the target's folder, never
+ * following a planted link), then renames it into place.
+ */
 export function writeAtomically(target: string, bytes: Buffer): void {
   const dir = path.dirname(path.resolve(target));
-  const tmp = path.join(dir, `.${path.basename(target)}.${process.pid}.partial`);
+  const tmp = path.join(dir, `.${path.basename(target)}.${crypto.randomBytes(8).toString("hex")}.partial`);
+  let fd: number | undefined;
   try {
-    fs.writeFileSync(tmp, bytes);
+    fd = fs.openSync(tmp, fs.constants.O_WRONLY | fs.constants.O_CREAT | fs.constants.O_EXCL | (fs.constants.O_NOFOLLOW ?? 0), 0o644);
+    fs.writeSync(fd, bytes);
+    fs.fsyncSync(fd);
+    fs.closeSync(fd);
+    fd = undefined;
     fs.renameSync(tmp, target);
   } catch (e) {
+    if (fd !== undefined) {
+      try {
+        fs.closeSync(fd);
+      } catch {
+        // already closed
+      }
+    }
     try {
       fs.unlinkSync(tmp);
     } catch {

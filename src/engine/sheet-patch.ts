@@ -1,174 +1,217 @@
 /**
- * Writes computed values into a worksheet's XML without touching anything else: only the cells
- * named in `writes` are re-serialised; every other byte of the part is kept as it was.
+ * Writes computed values into a worksheet's XML without touching anything else: the reader
+ * recorded the offsets of every row and cell, so only the cells named in `writes` are
+ * re-serialised (from their own markup, re-read with the tokenizer), new cells and rows are
+ * inserted where they belong, and every other byte of the part is kept as it was.
  */
-import { CellAddress, a1, parseA1 } from "./cellref";
-import { encodeXml } from "./xlsx-package";
+import type { Sheet } from "./book";
+import { a1 } from "./cellref";
+import { Scalar, XlError } from "./formula/values";
+import { Tok, XmlScanner, encodeXmlText } from "./xml";
 
-export type CachedValue = number | string | boolean | { error: string } | null;
-
-export interface CellWrite {
-  readonly address: CellAddress;
-  readonly value: CachedValue;
-  /**
-   * For a formula cell written in Excel's add-in form: the stored formula text (no "="), the spill
-   * range it covers, and the dynamic-array metadata index. Absent: keep the cell's own <f>.
-   */
-  readonly arrayFormula?: { readonly text: string; readonly ref: string; readonly cm?: number };
-  /** A value-only cell (a spilled element, or a cell a spill no longer covers). */
-  readonly valueOnly?: boolean;
+/** A formula rewritten as a dynamic array: its text in stored form (undefined keeps the file's text), range and metadata index. */
+export interface DynamicFormula {
+  readonly text?: string;
+  readonly ref: string;
+  readonly cm?: number;
 }
 
-const CELL = /<c\b[^>]*?(?:\/>|>[\s\S]*?<\/c>)/g;
-const ROW = /<row\b[^>]*?(?:\/>|>[\s\S]*?<\/row>)/g;
+export type CellWrite =
+  | {
+      readonly kind: "formula";
+      readonly row: number;
+      readonly col: number;
+      /** The cached value; undefined writes none (Excel computes the cell on open). */
+      readonly value: Scalar | undefined;
+      /** Rewrite the <f> as a dynamic-array formula (text in stored form; undefined keeps the file's text). */
+      readonly dynamic?: DynamicFormula;
+    }
+  | { readonly kind: "value"; readonly row: number; readonly col: number; readonly value: Scalar }
+  | { readonly kind: "clear"; readonly row: number; readonly col: number };
 
-function cellStyle(xml: string | undefined): string {
-  if (!xml) return "";
-  const m = /^<c\b[^>]*?\ss=["'](\d+)["']/.exec(xml);
-  return m ? ` s="${m[1]}"` : "";
-}
-
-function existingFormula(xml: string | undefined): string | undefined {
-  if (!xml) return undefined;
-  const m = /<f\b[^>]*?(?:\/>|>[\s\S]*?<\/f>)/.exec(xml);
-  return m ? m[0] : undefined;
-}
-
-function existingCm(xml: string | undefined): string {
-  if (!xml) return "";
-  const m = /^<c\b[^>]*?\scm=["'](\d+)["']/.exec(xml);
-  return m ? ` cm="${m[1]}"` : "";
+interface Edit {
+  start: number;
+  end: number;
+  text: string;
 }
 
 function formatNumber(n: number): string {
   // Shortest round-trip representation; Excel reads exponent form.
-  return String(n);
+  return Object.is(n, -0) ? "0" : String(n);
 }
 
-/** Serialises one cell. */
-export function cellXml(write: CellWrite, old: string | undefined): string {
-  const r = a1(write.address);
-  const s = cellStyle(old);
-  const v = write.value;
-  if (write.valueOnly) {
-    if (v === null || v === "") return `<c r="${r}"${s}/>`;
-    if (typeof v === "number") return `<c r="${r}"${s}><v>${formatNumber(v)}</v></c>`;
-    if (typeof v === "boolean") return `<c r="${r}"${s} t="b"><v>${v ? 1 : 0}</v></c>`;
-    if (typeof v === "string") return `<c r="${r}"${s} t="inlineStr"><is><t xml:space="preserve">${encodeXml(v)}</t></is></c>`;
-    return `<c r="${r}"${s} t="e"><v>${encodeXml(v.error)}</v></c>`;
+/** The parts of a cell's markup a rewrite keeps. */
+interface CellParts {
+  attrs: [string, string][];
+  formula?: { start: number; end: number; attrs: Map<string, string>; inner: string };
+  keep: string[];
+}
+
+function cellParts(xml: string): CellParts {
+  const s = new XmlScanner(xml);
+  let t = s.next();
+  while (t !== Tok.Open && t !== Tok.End) t = s.next();
+  const attrs = [...s.attrs()];
+  const out: CellParts = { attrs, keep: [] };
+  if (s.selfClosing) return out;
+  for (t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t === Tok.Close) break;
+    if (t !== Tok.Open) continue;
+    const start = s.start;
+    const openEnd = s.end;
+    const local = s.local;
+    const fAttrs = local === "f" ? s.attrs() : undefined;
+    const end = s.skipElement();
+    if (local === "f") {
+      // The inner text exactly as the file has it (entity-encoded).
+      const close = xml.lastIndexOf("</", end - 1);
+      out.formula = { start, end, attrs: fAttrs as Map<string, string>, inner: xml.slice(start, end).endsWith("/>") && openEnd === end ? "" : xml.slice(openEnd, close) };
+      continue;
+    }
+    if (local === "v" || local === "is") continue;
+    out.keep.push(xml.slice(start, end));
+  }
+  return out;
+}
+
+function attrText(attrs: Iterable<[string, string]>): string {
+  let s = "";
+  for (const [k, v] of attrs) s += ` ${k}="${encodeXmlText(v)}"`;
+  return s;
+}
+
+function typeAndValue(v: Scalar, p: string, formula: boolean): { t?: string; body: string } {
+  if (v === null) return { body: "" };
+  if (typeof v === "number") return { body: `<${p}v>${formatNumber(v)}</${p}v>` };
+  if (typeof v === "boolean") return { t: "b", body: `<${p}v>${v ? 1 : 0}</${p}v>` };
+  if (v instanceof XlError) return { t: "e", body: `<${p}v>${encodeXmlText(v.code)}</${p}v>` };
+  // Text a formula returned (in its own cell or spilled) is a formula string, as Excel stores it.
+  void formula;
+  return { t: "str", body: `<${p}v>${encodeXmlText(v)}</${p}v>` };
+}
+
+/** Serialises one cell: its own attributes kept (type, cm and vm recomputed), its formula kept or rewritten. */
+export function cellXml(w: CellWrite, old: string | undefined, prefix: string): string {
+  const p = prefix ? `${prefix}:` : "";
+  const parts = old ? cellParts(old) : { attrs: [["r", a1({ row: w.row, col: w.col })]] as [string, string][], keep: [] as string[] };
+  const attrs = new Map(parts.attrs.filter(([k]) => k !== "t" && k !== "cm" && k !== "vm"));
+  if (!attrs.has("r")) attrs.set("r", a1({ row: w.row, col: w.col }));
+  if (w.kind === "clear") {
+    return `<${p}c${attrText(attrs)}/>`;
+  }
+  if (w.kind === "value") {
+    const tv = typeAndValue(w.value, p, false);
+    if (tv.t) attrs.set("t", tv.t);
+    return tv.body ? `<${p}c${attrText(attrs)}>${tv.body}</${p}c>` : `<${p}c${attrText(attrs)}/>`;
   }
   let f: string;
-  let cm = existingCm(old);
-  if (write.arrayFormula) {
-    f = `<f t="array" ref="${write.arrayFormula.ref}">${encodeXml(write.arrayFormula.text)}</f>`;
-    if (write.arrayFormula.cm !== undefined) cm = ` cm="${write.arrayFormula.cm}"`;
+  const oldF = (parts as CellParts).formula;
+  if (w.dynamic) {
+    const fa = new Map<string, string>([
+      ["t", "array"],
+      ["ref", w.dynamic.ref],
+    ]);
+    const inner = w.dynamic.text !== undefined ? encodeXmlText(w.dynamic.text) : (oldF?.inner ?? "");
+    f = `<${p}f${attrText(fa)}>${inner}</${p}f>`;
+    if (w.dynamic.cm !== undefined) attrs.set("cm", String(w.dynamic.cm));
   } else {
-    const kept = existingFormula(old);
-    if (!kept) throw new Error(`cell ${r} has no formula to keep`);
-    f = kept;
+    if (!oldF || !old) throw new Error(`cell ${a1({ row: w.row, col: w.col })} has no formula to keep`);
+    f = old.slice(oldF.start, oldF.end);
+    const cm = parts.attrs.find(([k]) => k === "cm");
+    if (cm) attrs.set("cm", cm[1]);
   }
-  if (v === null) return `<c r="${r}"${s}${cm}>${f}</c>`;
-  if (typeof v === "number") return `<c r="${r}"${s}${cm}>${f}<v>${formatNumber(v)}</v></c>`;
-  if (typeof v === "boolean") return `<c r="${r}"${s}${cm} t="b">${f}<v>${v ? 1 : 0}</v></c>`;
-  if (typeof v === "string") return `<c r="${r}"${s}${cm} t="str">${f}<v>${encodeXml(v)}</v></c>`;
-  return `<c r="${r}"${s}${cm} t="e">${f}<v>${encodeXml(v.error)}</v></c>`;
+  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
+  if ("t" in tv && tv.t) attrs.set("t", tv.t);
+  return `<${p}c${attrText(attrs)}>${f}${tv.body}${parts.keep.join("")}</${p}c>`;
 }
 
-// The r attribute is optional in the file format: a row or cell without one follows the previous.
-function cellRef(xml: string, previousCol: number): CellAddress {
-  const m = /^<c\b[^>]*?\sr=["']([A-Z]+\d+)["']/.exec(xml);
-  return m ? parseA1(m[1] as string) : { row: -1, col: previousCol + 1 };
-}
-
-function rowNumber(xml: string, previousRow: number): number {
-  const m = /^<row\b[^>]*?\sr=["'](\d+)["']/.exec(xml);
-  return m ? Number(m[1]) - 1 : previousRow + 1;
+/** A row's start tag without its spans hint (cells outside it are being added), and the row's element name. */
+function rowOpen(xml: string, start: number, openEnd: number): { open: string; name: string } {
+  const s = new XmlScanner(xml.slice(start, openEnd));
+  s.next();
+  const attrs = [...s.attrs()].filter(([k]) => k !== "spans");
+  return { open: `<${s.name}${attrText(attrs)}>`, name: s.name };
 }
 
 /** Applies `writes` to a worksheet part's XML. */
-export function patchSheetXml(xml: string, writes: readonly CellWrite[]): string {
-  if (writes.length === 0) return xml;
-  const open = /<sheetData\b[^>]*?(\/>|>)/.exec(xml);
-  if (!open) throw new Error("worksheet has no sheetData");
-  const start = open.index;
-  const selfClosing = open[1] === "/>";
-  const bodyStart = start + open[0].length;
-  const end = selfClosing ? bodyStart : xml.indexOf("</sheetData>", bodyStart);
-  const body = selfClosing ? "" : xml.slice(bodyStart, end);
-  const tail = selfClosing ? xml.slice(bodyStart) : xml.slice(end + "</sheetData>".length);
-
+export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): string {
+  if (writes.length === 0) return sheet.xml;
+  const xml = sheet.xml;
+  const sd = sheet.sheetData;
+  if (!sd) throw new Error("worksheet has no sheetData");
+  const p = sd.prefix ? `${sd.prefix}:` : "";
   const byRow = new Map<number, CellWrite[]>();
   for (const w of writes) {
-    const list = byRow.get(w.address.row) ?? [];
-    list.push(w);
-    byRow.set(w.address.row, list);
+    const list = byRow.get(w.row);
+    if (list) list.push(w);
+    else byRow.set(w.row, [w]);
   }
-
-  const out: string[] = [];
-  let last = 0;
-  const pending = [...byRow.keys()].sort((a, b) => a - b);
-  let p = 0;
-  let r = -1;
-  for (const m of body.matchAll(ROW)) {
-    const rowXml = m[0];
-    r = rowNumber(rowXml, r);
-    while (p < pending.length && (pending[p] as number) < r) {
-      out.push(body.slice(last, m.index));
-      last = m.index as number;
-      out.push(newRow(pending[p] as number, byRow.get(pending[p] as number) as CellWrite[]));
-      p += 1;
+  const rows = [...byRow.keys()].sort((a, b) => a - b);
+  const spans = sheet.rowSpans;
+  const edits: Edit[] = [];
+  const newRows: { before: number; text: string }[] = [];
+  let si = 0;
+  for (const row of rows) {
+    const ws = (byRow.get(row) as CellWrite[]).sort((a, b) => a.col - b.col);
+    while (si < spans.length && (spans[si] as (typeof spans)[number]).row < row) si++;
+    const span = spans[si];
+    if (!span || span.row !== row) {
+      const cells = ws.filter((w) => w.kind !== "clear").map((w) => cellXml(w, undefined, sd.prefix));
+      if (cells.length) newRows.push({ before: span ? span.start : sd.closeStart, text: `<${p}row r="${row + 1}">${cells.join("")}</${p}row>` });
+      continue;
     }
-    if (p < pending.length && pending[p] === r) {
-      out.push(body.slice(last, m.index));
-      out.push(patchRow(rowXml, byRow.get(r) as CellWrite[]));
-      last = (m.index as number) + rowXml.length;
-      p += 1;
+    const existing = sheet.rows[row] ?? [];
+    let added = false;
+    const inserts: { at: number; text: string }[] = [];
+    for (const w of ws) {
+      const cell = existing[w.col];
+      if (cell) {
+        edits.push({ start: cell.start, end: cell.end, text: cellXml(w, xml.slice(cell.start, cell.end), sd.prefix) });
+        continue;
+      }
+      if (w.kind === "clear") continue;
+      // A new cell goes before the first existing cell to its right, or at the end of the row.
+      let at = span.closeStart;
+      for (let c = w.col + 1; c < existing.length; c++) {
+        const next = existing[c];
+        if (next) {
+          at = next.start;
+          break;
+        }
+      }
+      inserts.push({ at, text: cellXml(w, undefined, sd.prefix) });
+      added = true;
     }
-  }
-  out.push(body.slice(last));
-  while (p < pending.length) {
-    out.push(newRow(pending[p] as number, byRow.get(pending[p] as number) as CellWrite[]));
-    p += 1;
-  }
-  return `${xml.slice(0, start)}<sheetData>${out.join("")}</sheetData>${tail}`;
-}
-
-function newRow(row: number, writes: CellWrite[]): string {
-  const cells = [...writes].sort((a, b) => a.address.col - b.address.col).map((w) => cellXml(w, undefined));
-  return `<row r="${row + 1}">${cells.join("")}</row>`;
-}
-
-function patchRow(rowXml: string, writes: CellWrite[]): string {
-  const openEnd = rowXml.indexOf(">");
-  const selfClosing = rowXml[openEnd - 1] === "/";
-  // A row's optional spans attribute is only a hint; drop it since cells may be added.
-  const openTag = (selfClosing ? rowXml.slice(0, openEnd - 1) : rowXml.slice(0, openEnd)).replace(/\sspans=(?:"[^"]*"|'[^']*')/, "");
-  const inner = selfClosing ? "" : rowXml.slice(openEnd + 1, rowXml.length - "</row>".length);
-  const byCol = new Map(writes.map((w) => [w.address.col, w]));
-  const pending = [...byCol.keys()].sort((a, b) => a - b);
-  const out: string[] = [];
-  let last = 0;
-  let p = 0;
-  let c = -1;
-  for (const m of inner.matchAll(CELL)) {
-    c = cellRef(m[0], c).col;
-    while (p < pending.length && (pending[p] as number) < c) {
-      out.push(inner.slice(last, m.index));
-      last = m.index as number;
-      out.push(cellXml(byCol.get(pending[p] as number) as CellWrite, undefined));
-      p += 1;
-    }
-    if (p < pending.length && pending[p] === c) {
-      out.push(inner.slice(last, m.index));
-      out.push(cellXml(byCol.get(c) as CellWrite, m[0]));
-      last = (m.index as number) + m[0].length;
-      p += 1;
+    if (added) {
+      const tag = rowOpen(xml, span.start, span.openEnd);
+      if (span.selfClosing) {
+        edits.push({ start: span.start, end: span.end, text: `${tag.open}${inserts.map((i) => i.text).join("")}</${tag.name}>` });
+        continue;
+      }
+      edits.push({ start: span.start, end: span.openEnd, text: tag.open });
+      const grouped = new Map<number, string>();
+      for (const i of inserts) grouped.set(i.at, (grouped.get(i.at) ?? "") + i.text);
+      for (const [at, text] of grouped) edits.push({ start: at, end: at, text });
     }
   }
-  out.push(inner.slice(last));
-  while (p < pending.length) {
-    out.push(cellXml(byCol.get(pending[p] as number) as CellWrite, undefined));
-    p += 1;
+  if (newRows.length) {
+    if (sd.selfClosing) {
+      const inner = newRows.map((r) => r.text).join("");
+      edits.push({ start: sd.start, end: sd.openEnd, text: `<${p}sheetData>${inner}</${p}sheetData>` });
+    } else {
+      const grouped = new Map<number, string>();
+      for (const r of newRows) grouped.set(r.before, (grouped.get(r.before) ?? "") + r.text);
+      for (const [at, text] of grouped) edits.push({ start: at, end: at, text });
+    }
   }
-  return `${openTag}>${out.join("")}</row>`;
+  // Insertions at an offset go before a replacement starting there.
+  edits.sort((a, b) => a.start - b.start || a.end - a.start - (b.end - b.start));
+  let out = "";
+  let at = 0;
+  for (const e of edits) {
+    if (e.start < at) throw new Error("overlapping edits to the sheet");
+    out += xml.slice(at, e.start) + e.text;
+    at = e.end;
+  }
+  return out + xml.slice(at);
 }

@@ -1,12 +1,12 @@
 /**
- * The .xlsx package as a zip of XML parts: opened with size guards, sheets located through the
- * workbook's relationships, parts replaced one by one so everything we do not touch is kept
- * byte for byte (re-saving through a workbook library drops add-in and dynamic-array parts).
+ * The .xlsx package: a zip of XML parts, opened with size guards and CRC checks, its worksheets
+ * located through the workbook's relationships, and written back with only the parts the engine
+ * changed replaced; every other part keeps its compressed bytes (re-saving through a workbook
+ * library drops add-in and dynamic-array parts).
  */
 import v8 from "v8";
-import zlib from "zlib";
-import JSZip from "jszip";
-import { columnIndex, columnLetters } from "./cellref";
+import { XmlError, XmlScanner, Tok, encodeXmlText, decodeXmlText } from "./xml";
+import { ZipEntry, ZipError, ZipOut, inflateEntry, readZipDirectory, writeZip } from "./zip";
 
 export class WorkbookFileError extends Error {
   constructor(message: string) {
@@ -19,266 +19,271 @@ export class WorkbookFileError extends Error {
 export const PACKAGE_LIMITS = {
   /** Total uncompressed size of all parts. */
   maxTotalBytes: 2 * 1024 ** 3,
-  /** Uncompressed size of one part. */
-  maxPartBytes: 1024 ** 3,
+  /** Uncompressed size of one part (V8 strings stop near 512 MB). */
+  maxPartBytes: 512 * 1024 ** 2 - 64,
   /** Largest uncompressed:compressed ratio accepted for a large part (zip bombs reach 1000:1 and more). */
   maxRatio: 200,
   /** Ratio checks apply to parts larger than this. */
   ratioFloorBytes: 16 * 1024 ** 2,
   maxParts: 10000,
   /**
-   * Memory the cell reader and the engine need per byte of sheet and shared-strings XML, at worst.
-   * Measured on generated sheets (tests/reliability): a million declared empty rows (17.7 MB of XML)
-   * needed a 512 MB heap (384 MB failed), a million numeric cells (32 MB) 384 MB, 29 MB of shared
-   * strings under 192 MB. 32 covers the worst of these with a margin.
+   * Memory the engine needs per byte of sheet and shared-strings XML, at worst: the part's text
+   * (2 bytes a character), the cell records and the formula trees. Measured on generated sheets
+   * (bench/): see the README's benchmark section.
    */
-  heapPerCellXmlByte: 32,
+  heapPerCellXmlByte: 12,
   /** Share of this process's heap limit a workbook may be expected to use. */
   heapShare: 0.75,
 };
+
+export type SheetKind = "worksheet" | "chartsheet" | "other";
 
 export interface SheetPart {
   readonly name: string;
   /** Path inside the zip, e.g. "xl/worksheets/sheet1.xml". */
   readonly path: string;
+  readonly kind: SheetKind;
+  /** Position in the workbook's sheet list (what localSheetId counts). */
+  readonly index: number;
+}
+
+export interface DefinedNameDecl {
+  readonly name: string;
+  /** The sheet position it is scoped to, or undefined for the whole workbook. */
+  readonly localSheetId?: number;
+  readonly text: string;
 }
 
 export interface XlsxPackage {
-  readonly zip: JSZip;
   readonly sheets: readonly SheetPart[];
-  read(path: string): Promise<string | undefined>;
+  readonly workbookPath: string;
+  readonly definedNames: readonly DefinedNameDecl[];
+  readonly date1904: boolean;
+  /** A part's text (UTF-8), or undefined when the package has no such part. */
+  text(path: string): string | undefined;
+  has(path: string): boolean;
+  /** Replaces (or adds) a part. */
   write(path: string, text: string): void;
-  toBuffer(): Promise<Buffer>;
+  /** Leaves a part out of the written package. */
+  remove(path: string): void;
+  toBuffer(): Buffer;
+  /** Total uncompressed bytes of the sheet and shared-string parts. */
+  readonly cellXmlBytes: number;
 }
 
-interface ZipEntryInternals {
-  _data?: { uncompressedSize?: number; compressedSize?: number };
-}
+const REL_NS = new Set([
+  "http://schemas.openxmlformats.org/officeDocument/2006/relationships",
+  "http://purl.oclc.org/ooxml/officeDocument/relationships",
+]);
 
-function checkSizes(zip: JSZip): void {
-  let total = 0;
-  let parts = 0;
-  for (const [name, entry] of Object.entries(zip.files)) {
-    if (entry.dir) continue;
-    parts += 1;
-    const data = (entry as unknown as ZipEntryInternals)._data;
-    const size = data?.uncompressedSize ?? 0;
-    const packed = data?.compressedSize ?? 0;
-    total += size;
-    if (size > PACKAGE_LIMITS.maxPartBytes) {
-      throw new WorkbookFileError(`part ${name} would expand to ${size} bytes, beyond the ${PACKAGE_LIMITS.maxPartBytes}-byte limit`);
-    }
-    if (size > PACKAGE_LIMITS.ratioFloorBytes && packed > 0 && size / packed > PACKAGE_LIMITS.maxRatio) {
-      throw new WorkbookFileError(`part ${name} expands ${Math.round(size / packed)}:1, which looks like a zip bomb; refused`);
-    }
-  }
-  if (parts > PACKAGE_LIMITS.maxParts) throw new WorkbookFileError(`the file has ${parts} parts, more than ${PACKAGE_LIMITS.maxParts}`);
-  if (total > PACKAGE_LIMITS.maxTotalBytes) {
-    throw new WorkbookFileError(`the file would expand to ${total} bytes, beyond the ${PACKAGE_LIMITS.maxTotalBytes}-byte limit`);
-  }
-}
-
-const mb = (n: number) => Math.ceil(n / 1024 ** 2);
-
-/**
- * Refuses, before reading a cell, a workbook whose cells would need more memory than this process
- * may use (the alternative is the runtime aborting with a heap-exhausted trace).
- */
-function checkReadable(zip: JSZip, sheets: readonly SheetPart[]): void {
-  const paths = new Set(sheets.map((s) => s.path));
-  let bytes = 0;
-  for (const [name, entry] of Object.entries(zip.files)) {
-    if (entry.dir || !(paths.has(name) || READER_PARTS.test(name))) continue;
-    bytes += (entry as unknown as ZipEntryInternals)._data?.uncompressedSize ?? 0;
-  }
-  const need = bytes * PACKAGE_LIMITS.heapPerCellXmlByte;
-  const may = v8.getHeapStatistics().heap_size_limit * PACKAGE_LIMITS.heapShare;
-  if (need > may) {
-    throw new WorkbookFileError(
-      `the sheets hold ${mb(bytes)} MB of cell data, which may need ${mb(need)} MB of memory; this process may use ${mb(may)} MB. ` +
-        `Split the workbook, or allow more memory with NODE_OPTIONS=--max-old-space-size=${Math.ceil(mb(need) / PACKAGE_LIMITS.heapShare)}`,
-    );
-  }
-}
-
-interface CompressedInternals {
-  _data?: { uncompressedSize?: number; compressedContent?: Uint8Array; compression?: { magic?: string } };
-}
-
-/**
- * Inflates every part once with a cap at the size its header declares, so a part whose data
- * expands beyond what the zip's directory says (a bomb with lying headers) is refused after at
- * most that many bytes, before any reader expands it in full.
- */
-function verifyDeclaredSizes(zip: JSZip): void {
-  for (const [name, entry] of Object.entries(zip.files)) {
-    if (entry.dir) continue;
-    const data = (entry as unknown as CompressedInternals)._data;
-    const content = data?.compressedContent;
-    const declared = data?.uncompressedSize;
-    if (!content || declared === undefined) continue; // not loaded from bytes
-    const method = data?.compression?.magic;
-    let actual: number;
-    if (method === "\x00\x00") actual = content.length;
-    else if (method === "\x08\x00") {
-      try {
-        actual = zlib.inflateRawSync(content, { maxOutputLength: Math.max(1, declared + 1) }).length;
-      } catch (e) {
-        const tooLarge = (e as NodeJS.ErrnoException).code === "ERR_BUFFER_TOO_LARGE";
-        throw new WorkbookFileError(
-          tooLarge
-            ? `part ${name} expands beyond the ${declared} bytes its header declares, which looks like a zip bomb; refused`
-            : `part ${name} cannot be decompressed: the file is damaged (${(e as Error).message})`,
-        );
-      }
-    } else continue; // a method JSZip itself will refuse
-    if (actual !== declared) {
-      throw new WorkbookFileError(`part ${name} holds ${actual} bytes but its header declares ${declared}: the file is damaged`);
-    }
-  }
-}
-
-function attr(tag: string, name: string): string | undefined {
-  const m = new RegExp(`\\s${name.replace(":", "\\:")}="([^"]*)"`).exec(tag);
-  return m ? decodeXml(m[1] as string) : undefined;
-}
-
-export function decodeXml(s: string): string {
-  return s
-    .replace(/&lt;/g, "<")
-    .replace(/&gt;/g, ">")
-    .replace(/&quot;/g, '"')
-    .replace(/&apos;/g, "'")
-    .replace(/&#(\d+);/g, (_, d: string) => String.fromCodePoint(Number(d)))
-    .replace(/&#x([0-9a-fA-F]+);/g, (_, h: string) => String.fromCodePoint(parseInt(h, 16)))
-    .replace(/&amp;/g, "&");
-}
-
-export function encodeXml(s: string): string {
-  // Characters XML 1.0 cannot carry at all are dropped rather than written as invalid XML.
-  return s
-    .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F]/g, "")
-    .replace(/&/g, "&amp;")
-    .replace(/</g, "&lt;")
-    .replace(/>/g, "&gt;")
-    .replace(/"/g, "&quot;");
-}
-
-function resolveTarget(target: string): string {
+/** Resolves a relationship target against the folder of the part that holds the relationship. */
+export function resolveTarget(base: string, target: string): string {
   if (target.startsWith("/")) return target.slice(1);
-  const parts = `xl/${target}`.split("/");
+  const dir = base.includes("/") ? base.slice(0, base.lastIndexOf("/")) : "";
+  const parts = (dir ? `${dir}/${target}` : target).split("/");
   const out: string[] = [];
   for (const p of parts) {
     if (p === "..") out.pop();
-    else if (p !== ".") out.push(p);
+    else if (p !== "." && p !== "") out.push(p);
   }
   return out.join("/");
 }
+
+/** The relationships part for a part: xl/workbook.xml → xl/_rels/workbook.xml.rels. */
+export function relsPathOf(part: string): string {
+  const i = part.lastIndexOf("/");
+  return i < 0 ? `_rels/${part}.rels` : `${part.slice(0, i)}/_rels/${part.slice(i + 1)}.rels`;
+}
+
+interface Relationship {
+  readonly id: string;
+  readonly type: string;
+  readonly target: string;
+  readonly external: boolean;
+}
+
+export function readRelationships(xml: string | undefined): Relationship[] {
+  if (!xml) return [];
+  const out: Relationship[] = [];
+  const s = new XmlScanner(xml);
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t !== Tok.Open || s.local !== "Relationship") continue;
+    const id = s.attr("Id");
+    const target = s.attr("Target");
+    if (id && target !== undefined) out.push({ id, type: s.attr("Type") ?? "", target, external: s.attr("TargetMode") === "External" });
+  }
+  return out;
+}
+
+const mb = (n: number) => Math.ceil(n / 1024 ** 2);
 
 /** Opens an .xlsx from its bytes. Throws WorkbookFileError with a plain message for anything that is not one. */
 export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
   if (bytes.length < 4 || bytes.readUInt32LE(0) !== 0x04034b50) {
     throw new WorkbookFileError("not an .xlsx workbook (the file is not a zip package)");
   }
-  let zip: JSZip;
+  let entries: ZipEntry[];
   try {
-    zip = await JSZip.loadAsync(bytes, { checkCRC32: false });
+    entries = readZipDirectory(bytes, { maxEntries: PACKAGE_LIMITS.maxParts });
   } catch (e) {
-    throw new WorkbookFileError(`the workbook file is damaged or truncated (${(e as Error).message})`);
+    throw new WorkbookFileError(e instanceof ZipError ? e.message : `the workbook file is damaged or truncated (${(e as Error).message})`);
   }
-  checkSizes(zip);
-  verifyDeclaredSizes(zip);
-  const read = async (path: string) => {
-    const f = zip.file(path);
-    if (!f) return undefined;
+  let total = 0;
+  for (const e of entries) {
+    total += e.size;
+    if (e.size > PACKAGE_LIMITS.maxPartBytes) {
+      throw new WorkbookFileError(`part ${e.name} would expand to ${e.size} bytes, beyond the ${PACKAGE_LIMITS.maxPartBytes}-byte limit`);
+    }
+    if (e.size > PACKAGE_LIMITS.ratioFloorBytes && e.compressedSize > 0 && e.size / e.compressedSize > PACKAGE_LIMITS.maxRatio) {
+      throw new WorkbookFileError(`part ${e.name} expands ${Math.round(e.size / e.compressedSize)}:1, which looks like a zip bomb; refused`);
+    }
+  }
+  if (total > PACKAGE_LIMITS.maxTotalBytes) {
+    throw new WorkbookFileError(`the file would expand to ${total} bytes, beyond the ${PACKAGE_LIMITS.maxTotalBytes}-byte limit`);
+  }
+  const byName = new Map(entries.map((e) => [e.name, e]));
+  // Every entry is inflated once and checked against its CRC before anything reads it.
+  const texts = new Map<string, string>();
+  const XML_PART = /\.(xml|rels)$/i;
+  for (const e of entries) {
+    let data: Buffer;
     try {
-      return await f.async("string");
-    } catch (e) {
-      throw new WorkbookFileError(`part ${path} cannot be read: the file is damaged (${(e as Error).message})`);
+      data = inflateEntry(e);
+    } catch (err) {
+      throw new WorkbookFileError((err as Error).message);
     }
-  };
-  const workbook = await read("xl/workbook.xml");
-  const rels = await read("xl/_rels/workbook.xml.rels");
-  if (!workbook || !rels) throw new WorkbookFileError("not an Excel workbook (xl/workbook.xml is missing)");
-  const targets = new Map<string, string>();
-  for (const m of rels.matchAll(/<Relationship\b[^>]*>/g)) {
-    const id = attr(m[0], "Id");
-    const target = attr(m[0], "Target");
-    if (id && target) targets.set(id, resolveTarget(target));
+    if (XML_PART.test(e.name) || e.name === "[Content_Types].xml") texts.set(e.name, decodeUtf8(data, e.name));
   }
-  const sheets: SheetPart[] = [];
-  for (const m of workbook.matchAll(/<sheet\b[^>]*>/g)) {
-    const name = attr(m[0], "name");
-    const rid = attr(m[0], "r:id");
-    const path = rid ? targets.get(rid) : undefined;
-    if (name && path && !zip.file(path)) throw new WorkbookFileError(`sheet "${name}" is declared but its part ${path} is missing: the file is damaged`);
-    if (name && path) sheets.push({ name, path });
-  }
-  checkReadable(zip, sheets);
-  return {
-    zip,
-    sheets,
-    read,
-    write(path, text) {
-      zip.file(path, text, { createFolders: false });
-    },
-    toBuffer: () => zip.generateAsync({ type: "nodebuffer", compression: "DEFLATE", compressionOptions: { level: 6 } }),
-  };
-}
+  const replaced = new Map<string, string>();
+  const removed = new Set<string>();
+  const text = (p: string) => (removed.has(p) ? undefined : (replaced.get(p) ?? texts.get(p)));
 
-// ---------------------------------------------------------------------------------------------
-// What the cell reader gets: only the parts that hold cells, and each sheet cut down to its
-// sheetData. The workbook library behind the reader expands merged ranges, data validations and
-// the like cell by cell (one merge over a whole sheet is 17 billion cells from a 100-byte
-// element) and gives the cells of a merged range the anchor's value, which Excel does not. The
-// written file is patched from the original package, so nothing cut here is lost.
-
-const READER_PARTS = /^(\[Content_Types\]\.xml|_rels\/\.rels|xl\/workbook\.xml|xl\/_rels\/workbook\.xml\.rels|xl\/sharedStrings\.xml|xl\/styles\.xml)$/;
-
-/** A sheet part reduced to its root element and sheetData. */
-export function cellsOnly(xml: string): string {
-  const root = /<([A-Za-z_][\w.-]*:)?worksheet\b[^>]*>/.exec(xml);
-  if (!root) return xml; // not a worksheet: the reader reports what it finds
-  const prefix = root[1] ?? "";
-  const open = xml.indexOf(`<${prefix}sheetData`, root.index);
-  let data = "";
-  if (open >= 0) {
-    const gt = xml.indexOf(">", open);
-    const close = xml[gt - 1] === "/" ? gt + 1 : xml.indexOf(`</${prefix}sheetData>`, gt);
-    if (gt < 0 || close < 0) return xml; // damaged: the reader reports it
-    data = xml[gt - 1] === "/" ? xml.slice(open, close) : xml.slice(open, close + `</${prefix}sheetData>`.length);
-  }
-  return `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n${root[0]}${numberRowsAndCells(data)}</${prefix}worksheet>`;
-}
-
-/** Gives every row and cell its r attribute (optional in the format; the reader needs it). */
-function numberRowsAndCells(sheetData: string): string {
-  if (!/<(?:row|c)(?=[\s>/])(?![^>]*\sr=)/.test(sheetData)) return sheetData;
-  let row = 0;
-  let col = -1;
-  return sheetData.replace(/<(row|c)(?=[\s>/])([^>]*)>/g, (tag, name: string, attrs: string) => {
-    const r = /\sr=["']([A-Z]*)(\d+)["']/.exec(attrs);
-    if (name === "row") {
-      row = r ? Number(r[2]) : row + 1;
-      col = -1;
-      return r ? tag : `<row r="${row}"${attrs}>`;
-    }
-    col = r ? columnIndex(r[1] as string) : col + 1;
-    return r ? tag : `<c r="${columnLetters(col)}${row}"${attrs}>`;
+  const root = readRelationships(text("_rels/.rels"));
+  const office = root.find((r) => r.type.endsWith("/officeDocument") && !r.external);
+  const workbookPath = office ? resolveTarget("", office.target) : "xl/workbook.xml";
+  const workbookXml = text(workbookPath);
+  if (!workbookXml) throw new WorkbookFileError(`not an Excel workbook (${workbookPath} is missing)`);
+  const rels = readRelationships(text(relsPathOf(workbookPath)));
+  const targets = new Map(rels.map((r) => [r.id, r]));
+  const wb = asFileError("the workbook part cannot be read", () => readWorkbookXml(workbookXml));
+  const sheets: SheetPart[] = wb.sheets.map((s, index) => {
+    const rel = s.rid ? targets.get(s.rid) : undefined;
+    if (!rel || rel.external) throw new WorkbookFileError(`sheet "${s.name}" has no part in the package: the file is damaged`);
+    const path = resolveTarget(workbookPath, rel.target);
+    if (!byName.has(path)) throw new WorkbookFileError(`sheet "${s.name}" is declared but its part ${path} is missing: the file is damaged`);
+    const kind: SheetKind = rel.type.endsWith("/worksheet") ? "worksheet" : rel.type.endsWith("/chartsheet") ? "chartsheet" : "other";
+    return { name: s.name, path, kind, index };
   });
+  const names = new Set<string>();
+  for (const s of sheets) {
+    const key = s.name.toUpperCase();
+    if (names.has(key)) throw new WorkbookFileError(`two sheets are named "${s.name}": the file is damaged`);
+    names.add(key);
+  }
+
+  // What the cell reader will hold in memory, checked before reading a cell.
+  const sharedStrings = rels.find((r) => r.type.endsWith("/sharedStrings"));
+  let cellXmlBytes = 0;
+  for (const s of sheets) if (s.kind === "worksheet") cellXmlBytes += byName.get(s.path)!.size;
+  if (sharedStrings) cellXmlBytes += byName.get(resolveTarget(workbookPath, sharedStrings.target))?.size ?? 0;
+  const need = cellXmlBytes * PACKAGE_LIMITS.heapPerCellXmlByte;
+  const may = v8.getHeapStatistics().heap_size_limit * PACKAGE_LIMITS.heapShare;
+  if (need > may) {
+    throw new WorkbookFileError(
+      `the sheets hold ${mb(cellXmlBytes)} MB of cell data, which may need ${mb(need)} MB of memory; this process may use ${mb(may)} MB. ` +
+        `Split the workbook, or allow more memory with NODE_OPTIONS=--max-old-space-size=${Math.ceil(mb(need) / PACKAGE_LIMITS.heapShare)}`,
+    );
+  }
+
+  return {
+    sheets,
+    workbookPath,
+    definedNames: wb.definedNames,
+    date1904: wb.date1904,
+    cellXmlBytes,
+    text,
+    has: (p) => !removed.has(p) && (replaced.has(p) || byName.has(p)),
+    write(p, t) {
+      removed.delete(p);
+      replaced.set(p, t);
+    },
+    remove(p) {
+      replaced.delete(p);
+      removed.add(p);
+    },
+    toBuffer() {
+      const out: ZipOut[] = entries
+        .filter((e) => !removed.has(e.name))
+        .map((e) => (replaced.has(e.name) ? { name: e.name, data: Buffer.from(replaced.get(e.name) as string, "utf8") } : { name: e.name, copy: e }));
+      for (const [p, t] of replaced) if (!byName.has(p)) out.push({ name: p, data: Buffer.from(t, "utf8") });
+      return writeZip(out);
+    },
+  };
 }
 
-/** The package as the cell reader should see it (stored, not compressed: it is read at once). */
-export async function readingCopy(pkg: XlsxPackage): Promise<Buffer> {
-  const copy = new JSZip();
-  const sheetPaths = new Set(pkg.sheets.map((s) => s.path));
-  for (const [name, entry] of Object.entries(pkg.zip.files)) {
-    if (entry.dir) continue;
-    if (sheetPaths.has(name)) copy.file(name, cellsOnly((await pkg.read(name)) as string));
-    else if (READER_PARTS.test(name)) copy.file(name, await entry.async("nodebuffer"));
+function decodeUtf8(data: Buffer, name: string): string {
+  // A byte-order mark is allowed; UTF-16 parts are not something Excel writes.
+  if (data.length >= 2 && ((data[0] === 0xff && data[1] === 0xfe) || (data[0] === 0xfe && data[1] === 0xff))) {
+    throw new WorkbookFileError(`part ${name} is UTF-16; re-save the workbook from Excel`);
   }
-  return copy.generateAsync({ type: "nodebuffer", compression: "STORE" });
+  let s = data.toString("utf8");
+  if (s.charCodeAt(0) === 0xfeff) s = s.slice(1);
+  return s;
 }
+
+interface WorkbookXml {
+  sheets: { name: string; rid?: string }[];
+  definedNames: DefinedNameDecl[];
+  date1904: boolean;
+}
+
+function readWorkbookXml(xml: string): WorkbookXml {
+  const s = new XmlScanner(xml);
+  const sheets: { name: string; rid?: string }[] = [];
+  const definedNames: DefinedNameDecl[] = [];
+  let date1904 = false;
+  let relPrefix: string | undefined;
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t !== Tok.Open) continue;
+    if (s.local === "workbook") {
+      for (const [k, v] of s.attrs()) if (REL_NS.has(v) && k.startsWith("xmlns:")) relPrefix = k.slice(6);
+    } else if (s.local === "workbookPr") {
+      const d = s.attr("date1904");
+      date1904 = d === "1" || d === "true";
+    } else if (s.local === "sheet") {
+      const attrs = s.attrs();
+      const name = attrs.get("name");
+      let rid: string | undefined;
+      for (const [k, v] of attrs) {
+        const colon = k.indexOf(":");
+        if (colon > 0 && k.slice(colon + 1) === "id" && (relPrefix === undefined || k.slice(0, colon) === relPrefix)) rid = v;
+      }
+      if (name === undefined) throw new WorkbookFileError("a sheet has no name: the file is damaged");
+      sheets.push({ name, rid });
+    } else if (s.local === "definedName") {
+      const name = s.attr("name") ?? "";
+      const local = s.attr("localSheetId");
+      const text = s.elementText();
+      definedNames.push(local === undefined ? { name, text } : { name, text, localSheetId: Number(local) });
+    }
+  }
+  return { sheets, definedNames, date1904 };
+}
+
+/** Runs a step on the file's contents; anything it throws becomes a plain WorkbookFileError. */
+export function asFileError<T>(what: string, step: () => T): T {
+  try {
+    return step();
+  } catch (e) {
+    if (e instanceof WorkbookFileError) throw e;
+    if (e instanceof XmlError) throw new WorkbookFileError(`${what}: ${e.message}`);
+    throw new WorkbookFileError(`${what} (${(e as Error).message})`);
+  }
+}
+
+/** XML text encoding and decoding, for the writers and the tests. */
+export const encodeXml = encodeXmlText;
+export const decodeXml = decodeXmlText;
 
 // ---------------------------------------------------------------------------------------------
 // Dynamic-array metadata: Excel marks a spilling formula cell with cm="N", pointing at a
@@ -286,8 +291,7 @@ export async function readingCopy(pkg: XlsxPackage): Promise<Buffer> {
 // The part below is the minimal form Excel writes (from memory of files Excel saves; not verified
 // against Excel here, see platform-facts.md).
 
-const METADATA_PATH = "xl/metadata.xml";
-const METADATA_XML =
+export const METADATA_XML =
   '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n' +
   '<metadata xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main" xmlns:xda="http://schemas.microsoft.com/office/spreadsheetml/2017/dynamicarray">' +
   '<metadataTypes count="1"><metadataType name="XLDAPR" minSupportedVersion="120000" copy="1" pasteAll="1" pasteValues="1" merge="1" splitFirst="1" rowColShift="1" clearFormats="1" clearComments="1" assign="1" coerce="1" cellMeta="1"/></metadataTypes>' +
@@ -295,43 +299,70 @@ const METADATA_XML =
   '<cellMetadata count="1"><bk><rc t="1" v="0"/></bk></cellMetadata></metadata>';
 
 /**
+ * The cm values (1-based cellMetadata block indices) that mark dynamic-array formulas in a
+ * metadata part: blocks whose record type is XLDAPR.
+ */
+export function dynamicArrayCms(xml: string | undefined): Set<number> {
+  const out = new Set<number>();
+  if (!xml) return out;
+  const s = new XmlScanner(xml);
+  const types: string[] = [];
+  let inCellMeta = false;
+  let block = 0;
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t === Tok.Open) {
+      if (s.local === "metadataType") types.push(s.attr("name") ?? "");
+      else if (s.local === "cellMetadata") inCellMeta = !s.selfClosing;
+      else if (inCellMeta && s.local === "bk") block++;
+      else if (inCellMeta && s.local === "rc") {
+        const type = types[Number(s.attr("t")) - 1];
+        if (type === "XLDAPR") out.add(block);
+      }
+    } else if (t === Tok.Close && s.local === "cellMetadata") inCellMeta = false;
+  }
+  return out;
+}
+
+/**
  * The cm index that marks a dynamic-array formula, adding xl/metadata.xml (with its content type
  * and relationship) when the workbook has none. Returns undefined when the workbook has metadata
  * of its own without a dynamic-array entry (then formulas are written as plain array formulas).
  */
-export async function dynamicArrayIndex(pkg: XlsxPackage): Promise<number | undefined> {
-  const existing = await pkg.read(METADATA_PATH);
-  if (existing !== undefined) {
-    const types = [...existing.matchAll(/<metadataType\b[^>]*>/g)].map((m) => attr(m[0], "name"));
-    const typeIndex = types.indexOf("XLDAPR") + 1;
-    if (typeIndex === 0) return undefined;
-    const cellMeta = /<cellMetadata\b[^>]*>([\s\S]*?)<\/cellMetadata>/.exec(existing);
-    if (!cellMeta) return undefined;
-    const blocks = [...(cellMeta[1] as string).matchAll(/<bk>([\s\S]*?)<\/bk>/g)];
-    const i = blocks.findIndex((b) => new RegExp(`<rc\\b[^>]*\\st="${typeIndex}"`).test(b[1] as string));
-    return i >= 0 ? i + 1 : undefined;
+export function dynamicArrayIndex(pkg: XlsxPackage): number | undefined {
+  const rels = readRelationships(pkg.text(relsPathOf(pkg.workbookPath)));
+  const meta = rels.find((r) => r.type.endsWith("/sheetMetadata"));
+  if (meta) {
+    const cms = dynamicArrayCms(pkg.text(resolveTarget(pkg.workbookPath, meta.target)));
+    return cms.size ? Math.min(...cms) : undefined;
   }
-  pkg.write(METADATA_PATH, METADATA_XML);
-  const types = await pkg.read("[Content_Types].xml");
-  if (types && !types.includes('PartName="/xl/metadata.xml"')) {
+  const dir = pkg.workbookPath.includes("/") ? pkg.workbookPath.slice(0, pkg.workbookPath.lastIndexOf("/") + 1) : "";
+  const metaPath = `${dir}metadata.xml`;
+  if (pkg.has(metaPath)) return undefined; // a part of that name the workbook does not point at: leave it alone
+  pkg.write(metaPath, METADATA_XML);
+  const types = pkg.text("[Content_Types].xml");
+  if (types && !types.includes(`PartName="/${metaPath}"`)) {
     pkg.write(
       "[Content_Types].xml",
-      types.replace(
-        "</Types>",
-        '<Override PartName="/xl/metadata.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheetMetadata+xml"/></Types>',
-      ),
+      insertBeforeClose(types, "Types", `<Override PartName="/${metaPath}" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheetMetadata+xml"/>`),
     );
   }
-  const rels = (await pkg.read("xl/_rels/workbook.xml.rels")) as string;
-  const ids = new Set([...rels.matchAll(/\sId="([^"]*)"/g)].map((m) => m[1]));
+  const relsPath = relsPathOf(pkg.workbookPath);
+  const relsXml = pkg.text(relsPath) as string;
+  const ids = new Set(rels.map((r) => r.id));
   let n = ids.size + 1;
   while (ids.has(`rId${n}`)) n += 1;
   pkg.write(
-    "xl/_rels/workbook.xml.rels",
-    rels.replace(
-      "</Relationships>",
-      `<Relationship Id="rId${n}" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sheetMetadata" Target="metadata.xml"/></Relationships>`,
-    ),
+    relsPath,
+    insertBeforeClose(relsXml, "Relationships", `<Relationship Id="rId${n}" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sheetMetadata" Target="metadata.xml"/>`),
   );
   return 1;
+}
+
+/** Inserts markup just before the root element's end tag (found by the tokenizer, whatever its prefix). */
+function insertBeforeClose(xml: string, local: string, markup: string): string {
+  const s = new XmlScanner(xml);
+  let at = -1;
+  for (let t = s.next(); t !== Tok.End; t = s.next()) if (t === Tok.Close && s.local === local) at = s.start;
+  if (at < 0) throw new WorkbookFileError(`the ${local} part has no end tag: the file is damaged`);
+  return xml.slice(0, at) + markup + xml.slice(at);
 }

@@ -122,16 +122,17 @@ function formulaOf(fn: RegisteredFunction, lits: Lit[]): string {
   return `=${fn.formulaName}(${list.map(formulaText).join(",")})`;
 }
 
-/** A host error value (plain before the engine registers its factory, the engine's after). */
+/** A host error value (plain before the engine registers its factory: kind; the engine's own: code). */
 interface HostError {
   kind: string;
   message: string;
 }
-const isHostError = (c: unknown): c is HostError => typeof c === "object" && c !== null && "kind" in c && "message" in c;
+const isHostError = (c: unknown): c is HostError => typeof c === "object" && c !== null && ("kind" in c || "code" in c) && "message" in c;
+const kindOf = (c: HostError) => ("code" in c ? (c as unknown as { code: string }).code : c.kind);
 
 /** A binding result cell in the engine's terms: errors as "#KIND message". */
 function asEngine(cell: unknown): unknown {
-  if (isHostError(cell)) return `${cell.kind} ${cell.message}`;
+  if (isHostError(cell)) return `${kindOf(cell)} ${cell.message}`;
   return cell;
 }
 
@@ -143,12 +144,13 @@ function same(a: unknown, b: unknown): boolean {
 
 function mismatch(excel: unknown[][], engine: EvalResult): string | undefined {
   const top = excel[0]![0];
-  if (isHostError(top)) {
-    if (engine.error !== top.kind || engine.message !== top.message) return `top-left: Excel ${asEngine(top)}, engine ${engine.error} ${engine.message}`;
+  const rows = excel.length === 1 && excel[0]!.length === 1 ? undefined : excel;
+  if (!rows && isHostError(top)) {
+    if (engine.error !== kindOf(top) || engine.message !== top.message) return `Excel ${asEngine(top)}, engine ${engine.error} ${engine.message}`;
     return undefined;
   }
-  if (engine.error) return `Excel ${show(excel.map((r) => r.map(asEngine)))}, engine error ${engine.error} ${engine.message}`;
-  const rows = excel.length === 1 && excel[0]!.length === 1 ? undefined : excel;
+  // A spill is compared element by element, errors included (an error in the first element must not hide the rest).
+  if (!rows && engine.error) return `Excel ${show(excel.map((r) => r.map(asEngine)))}, engine error ${engine.error} ${engine.message}`;
   if (!rows) return same(top, engine.value) ? undefined : `Excel ${show(top)}, engine ${show(engine.value)}`;
   const got = engine.value;
   if (!Array.isArray(got) || got.length !== rows.length || got.some((r, i) => !Array.isArray(r) || r.length !== rows[i]!.length)) {
@@ -171,7 +173,7 @@ describe.each(FUNCTIONS.map((f) => [f.formulaName, f] as const))("%s", (_, fn) =
       fc.property(callArb(fn, words), (lits) => {
         const formula = formulaOf(fn, lits);
         const excel = fn.binding(...lits.map(excelArg));
-        const engine = evaluateFormula(formula);
+        const engine = evaluateFormula(formula, { blankReferences: true });
         const problem = mismatch(excel, engine);
         if (problem) throw new Error(`${formula}\n${problem}`);
       }),

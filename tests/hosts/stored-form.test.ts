@@ -183,10 +183,10 @@ describe("Excel's stored form, read and written back", () => {
     expect(decode(c.get("G2")!)).toBe('<c r="G2" cm="1"><f t="array" ref="G2:G3">_xldudf_SOIL_CMOL({2003.9;1001.95},"Ca")</f><v>10</v></c>');
   });
 
-  it("spilled elements are plain values, blank in blank out, the shrunk spill's old cell cleared", () => {
+  it("spilled elements are plain values (a blank result is the empty text the function returns), the shrunk spill's old cell cleared", () => {
     const c = cells(sheet);
     expect(c.get("B3")).toBe('<c r="B3"><v>5</v></c>');
-    expect(c.get("B4")).toBe('<c r="B4"/>');
+    expect(c.get("B4")).toBe('<c r="B4" t="str"><v></v></c>');
     expect(c.get("B5")).toBe('<c r="B5" t="e"><v>#VALUE!</v></c>');
     expect(c.get("G3")).toBe('<c r="G3"><v>5</v></c>');
     expect(c.get("G4")).toBe('<c r="G4"/>');

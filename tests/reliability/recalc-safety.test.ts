@@ -82,23 +82,67 @@ describe("recalc writes a temporary file and renames it", () => {
     input = await small(path.join(dir, "in.xlsx"));
   });
 
-  it("an output path that is a directory: a plain error, the directory as it was, no partial file", async () => {
+  it("an output path that is a directory: refused, the directory as it was, no partial file", async () => {
     const target = path.join(dir, "taken.xlsx");
     fs.mkdirSync(target);
     fs.writeFileSync(path.join(target, "keep.txt"), "kept");
-    await expect(recalcWorkbook(input, target)).rejects.toBeInstanceOf(WorkbookFileError);
+    await expect(recalcWorkbook(input, target)).rejects.toBeInstanceOf(RecalcRefused);
     expect(fs.readdirSync(target)).toEqual(["keep.txt"]);
     expect(partials(dir)).toEqual([]);
   });
 
-  it("a temporary file that cannot be written: a plain error, an older output left whole", async () => {
+  it("a temporary file that cannot be written (disk full): a plain error, an older output left whole, no partial file", async () => {
     const target = path.join(dir, "older.xlsx");
     fs.writeFileSync(target, "older output");
-    const tmp = path.join(dir, `.older.xlsx.${process.pid}.partial`);
-    fs.mkdirSync(tmp); // the temporary name is taken by a directory: writing it fails
-    await expect(recalcWorkbook(input, target)).rejects.toThrow(/cannot write .*older\.xlsx: EISDIR/);
+    const spy = jest.spyOn(fs, "writeSync").mockImplementation(() => {
+      throw Object.assign(new Error("no space left on device"), { code: "ENOSPC" });
+    });
+    try {
+      await expect(recalcWorkbook(input, target)).rejects.toThrow(/cannot write .*older\.xlsx: ENOSPC/);
+    } finally {
+      spy.mockRestore();
+    }
     expect(fs.readFileSync(target, "utf8")).toBe("older output");
-    fs.rmdirSync(tmp);
+    expect(partials(dir)).toEqual([]);
+  });
+
+  it("a link planted at a predictable temporary name is never followed (the name is random and created exclusively)", async () => {
+    const victim = path.join(dir, "victim.txt");
+    fs.writeFileSync(victim, "unrelated file");
+    const target = path.join(dir, "planted.xlsx");
+    const guesses = [`.planted.xlsx.${process.pid}.partial`, ".planted.xlsx.partial", "planted.xlsx.tmp"].map((g) => path.join(dir, g));
+    for (const guess of guesses) fs.symlinkSync(victim, guess);
+    try {
+      await recalcWorkbook(input, target);
+      expect(fs.readFileSync(victim, "utf8")).toBe("unrelated file");
+      expect(fs.lstatSync(target).isFile()).toBe(true);
+    } finally {
+      for (const guess of guesses) fs.unlinkSync(guess);
+    }
+  });
+
+  it.each([
+    ["a symbolic link", (p: string) => fs.symlinkSync(path.join(path.dirname(p), "elsewhere.txt"), p)],
+    ["a FIFO", (p: string) => spawnSync("mkfifo", [p])],
+  ])("an output that is %s: refused and left as it was", async (_what, make) => {
+    const target = path.join(dir, `special-${Math.random().toString(36).slice(2)}.xlsx`);
+    make(target);
+    const before = fs.lstatSync(target);
+    await expect(recalcWorkbook(input, target)).rejects.toBeInstanceOf(RecalcRefused);
+    const after = fs.lstatSync(target);
+    expect(after.ino).toBe(before.ino);
+    expect(after.mode).toBe(before.mode);
+  });
+
+  it.each([
+    ["a FIFO", (p: string) => spawnSync("mkfifo", [p]) && p],
+    ["a device", () => "/dev/zero"],
+    ["a directory", (p: string) => (fs.mkdirSync(p), p)],
+  ])("an input that is %s: refused at once, nothing written", async (_what, make) => {
+    const source = make(path.join(dir, `in-${Math.random().toString(36).slice(2)}.xlsx`)) as string;
+    const target = path.join(dir, `from-special-${Math.random().toString(36).slice(2)}.xlsx`);
+    await expect(recalcWorkbook(source, target)).rejects.toBeInstanceOf(WorkbookFileError);
+    expect(fs.existsSync(target)).toBe(false);
   });
 
   it("a directory that cannot be written: a plain error, no partial file, an older output left whole", async () => {

@@ -1,0 +1,137 @@
+/**
+ * Excel's conversions between value types, as the operators and functions apply them. Where
+ * Excel's own conversion depends on the machine's locale (text such as "01/02/2025", "$5" or
+ * "1,234" read as a number), the engine refuses with a message instead of guessing.
+ */
+import { Scalar, XlError, err, isError } from "./values";
+
+const NUMBER_TEXT = /^\s*([+-]?)(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(%?)\s*$/;
+
+/** Text read as a number where Excel reads it the same in every locale; undefined otherwise. */
+export function numberFromText(s: string): number | undefined {
+  const m = NUMBER_TEXT.exec(s);
+  if (!m) return undefined;
+  let n = Number(`${m[1]}${m[2]}${m[3] !== undefined ? `e${m[3]}` : ""}`);
+  if (m[4]) n /= 100;
+  return Number.isFinite(n) ? n : undefined;
+}
+
+function textNotNumber(s: string): XlError {
+  const shown = s.length > 40 ? `${s.slice(0, 40)}…` : s;
+  const locale = /\d[/:,$€£]|[$€£]\d|\d\s+\d/.test(s);
+  return err(
+    "#VALUE!",
+    locale
+      ? `text "${shown}" is not read as a number headless: Excel's reading of it depends on the computer's locale; enter a number`
+      : `text "${shown}" is not a number`,
+  );
+}
+
+/** A scalar as a number: blank is 0, TRUE 1, numeric text its number; other text #VALUE!. */
+export function toNumber(v: Scalar): number | XlError {
+  if (typeof v === "number") return v;
+  if (v === null) return 0;
+  if (typeof v === "boolean") return v ? 1 : 0;
+  if (typeof v === "string") {
+    const n = numberFromText(v);
+    return n === undefined ? textNotNumber(v) : n;
+  }
+  return v;
+}
+
+/** A number as Excel's General format writes it in text (15 significant digits). */
+export function numberToText(n: number): string {
+  if (n === 0) return "0";
+  if (!Number.isFinite(n)) return "#NUM!";
+  const x = Number(n.toPrecision(15));
+  const e = Math.floor(Math.log10(Math.abs(x)));
+  if (e >= 15 || e < -9) {
+    const [mant, exp] = x.toExponential(14).split("e") as [string, string];
+    const m = mant.replace(/\.?0+$/, "");
+    const ex = Number(exp);
+    return `${m}E${ex < 0 ? "-" : "+"}${String(Math.abs(ex)).padStart(2, "0")}`;
+  }
+  if (Number.isInteger(x)) return String(x);
+  const fixed = x.toFixed(Math.max(0, 14 - e));
+  return fixed.replace(/\.?0+$/, "");
+}
+
+/** A scalar as text: numbers in General format, TRUE/FALSE, blank as "". */
+export function toText(v: Scalar): string | XlError {
+  if (typeof v === "string") return v;
+  if (v === null) return "";
+  if (typeof v === "number") return numberToText(v);
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  return v;
+}
+
+/** A scalar as a boolean: numbers are TRUE unless 0; text "TRUE"/"FALSE"; blank FALSE. */
+export function toBool(v: Scalar): boolean | XlError {
+  if (typeof v === "boolean") return v;
+  if (v === null) return false;
+  if (typeof v === "number") return v !== 0;
+  if (typeof v === "string") {
+    const u = v.trim().toUpperCase();
+    if (u === "TRUE") return true;
+    if (u === "FALSE") return false;
+    return err("#VALUE!", `text "${v.length > 40 ? `${v.slice(0, 40)}…` : v}" is not TRUE or FALSE`);
+  }
+  return v;
+}
+
+const E48 = 2 ** -48;
+
+/** Two numbers equal to within the last few bits, as spreadsheets compare them. */
+export function approxEqual(a: number, b: number): boolean {
+  if (a === b) return true;
+  if (a === 0 || b === 0) return false;
+  return Math.abs(a - b) < Math.min(Math.abs(a), Math.abs(b)) * E48;
+}
+
+/** a + b, with a result that only reflects rounding noise of nearly cancelling operands set to 0. */
+export function approxAdd(a: number, b: number): number {
+  if (((a < 0 && b > 0) || (a > 0 && b < 0)) && approxEqual(a, -b)) return 0;
+  return a + b;
+}
+
+export function approxSub(a: number, b: number): number {
+  if (((a < 0 && b < 0) || (a > 0 && b > 0)) && approxEqual(a, b)) return 0;
+  return a - b;
+}
+
+function typeRank(v: Scalar): number {
+  if (typeof v === "number") return 0;
+  if (typeof v === "string") return 1;
+  return 2; // boolean
+}
+
+/**
+ * Excel's comparison of two scalars: -1, 0 or 1. Blank takes the other side's type (0, "" or
+ * FALSE); numbers sort before text before booleans; text compares without regard to case.
+ */
+export function compare(a: Scalar, b: Scalar): number | XlError {
+  if (isError(a)) return a;
+  if (isError(b)) return b;
+  if (a === null && b === null) return 0;
+  if (a === null) a = typeof b === "number" ? 0 : typeof b === "string" ? "" : false;
+  if (b === null) b = typeof a === "number" ? 0 : typeof a === "string" ? "" : false;
+  const ra = typeRank(a);
+  const rb = typeRank(b);
+  if (ra !== rb) return ra < rb ? -1 : 1;
+  if (typeof a === "number") {
+    const nb = b as number;
+    if (approxEqual(a, nb)) return 0;
+    return a < nb ? -1 : 1;
+  }
+  if (typeof a === "string") {
+    const x = a.toUpperCase();
+    const y = (b as string).toUpperCase();
+    return x === y ? 0 : x < y ? -1 : 1;
+  }
+  return a === b ? 0 : a ? 1 : -1;
+}
+
+/** A finite number, or #NUM! for results Excel cannot hold (overflow, NaN). */
+export function finite(n: number, what = "the result"): number | XlError {
+  return Number.isFinite(n) ? (n === 0 ? 0 : n) : err("#NUM!", `${what} is not a finite number`);
+}

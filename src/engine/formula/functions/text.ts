@@ -1,0 +1,225 @@
+/**
+ * Text and date functions. Conversions whose result depends on the computer's locale (TEXT's
+ * format codes, VALUE of "1,234" or "01/02/2025", DATEVALUE) are refused with a message rather
+ * than guessed.
+ */
+import { Ctx, Uncomputable } from "../evaluate";
+import { numberFromText, toText } from "../coerce";
+import { Scalar, Value, XlArray, XlError, err, isError } from "../values";
+import { Table, classes, eachValue, int, num, scalarFn, text } from "./kit";
+
+function textFn(min: number, max: number, f: (s: string, a: (Scalar | undefined)[]) => Scalar) {
+  return scalarFn(min, max, (a) => {
+    const s = text(a[0]);
+    if (isError(s)) return s;
+    return f(s, a);
+  });
+}
+
+function concatAll(args: readonly (Value | undefined)[], ctx: Ctx, sep?: string, skipEmpty = false): Scalar {
+  const parts: string[] = [];
+  const e = eachValue(args, ctx, (v) => {
+    if (isError(v)) return v;
+    const s = toText(v) as string;
+    if (skipEmpty && s === "") return;
+    parts.push(s);
+  });
+  if (e) return e;
+  const out = parts.join(sep ?? "");
+  return out.length > 32767 ? err("#VALUE!", "text longer than 32,767 characters") : out;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Dates: serial numbers in the 1900 system (with Excel's 29 February 1900) or the 1904 system.
+
+const DAY_MS = 86400000;
+
+/** Serial number of a date (month and day may overflow, as DATE allows). */
+export function dateSerial(y: number, m: number, d: number, date1904: boolean): number | XlError {
+  let year = Math.trunc(y);
+  if (year < 0 || year > 9999) return err("#NUM!", `year ${y} is outside 0 to 9999`);
+  if (year < 1900) year += 1900;
+  const ms = Date.UTC(year, Math.trunc(m) - 1, 1) + (Math.trunc(d) - 1) * DAY_MS;
+  if (date1904) {
+    const s = (ms - Date.UTC(1904, 0, 1)) / DAY_MS;
+    return s < 0 ? err("#NUM!", "the date is before 1904, the start of this workbook's date system") : s;
+  }
+  let s = (ms - Date.UTC(1899, 11, 31)) / DAY_MS;
+  // Excel's 1900 system counts 29 February 1900, a day that did not exist.
+  if (s >= 60) s += 1;
+  return s < 0 ? err("#NUM!", "the date is before 1900, the start of this workbook's date system") : s;
+}
+
+/** The calendar date of a serial number; Excel's serial 60 in the 1900 system is 29 February 1900. */
+export function serialDate(serial: number, date1904: boolean): { y: number; m: number; d: number } | XlError {
+  if (serial < 0) return err("#NUM!", "a negative date");
+  const whole = Math.floor(serial);
+  if (!date1904) {
+    if (whole === 60) return { y: 1900, m: 2, d: 29 };
+    if (whole === 0) return { y: 1900, m: 1, d: 0 };
+    const ms = Date.UTC(1899, 11, 31) + (whole < 60 ? whole : whole - 1) * DAY_MS;
+    const dt = new Date(ms);
+    return { y: dt.getUTCFullYear(), m: dt.getUTCMonth() + 1, d: dt.getUTCDate() };
+  }
+  const dt = new Date(Date.UTC(1904, 0, 1) + whole * DAY_MS);
+  return { y: dt.getUTCFullYear(), m: dt.getUTCMonth() + 1, d: dt.getUTCDate() };
+}
+
+function datePart(part: "y" | "m" | "d") {
+  return {
+    min: 1,
+    max: 1,
+    call: ([v]: readonly (Value | undefined)[], ctx: Ctx): Scalar => {
+      const x = v as Scalar;
+      if (typeof x === "string") {
+        const n = numberFromText(x);
+        if (n === undefined) return new Uncomputable(`reading the date in text "${x}" depends on the computer's locale; not computed headless`);
+        return datePartOf(n, part, ctx);
+      }
+      const n = num(x);
+      if (isError(n)) return n;
+      return datePartOf(n, part, ctx);
+    },
+  };
+}
+
+function datePartOf(n: number, part: "y" | "m" | "d", ctx: Ctx): Scalar {
+  const d = serialDate(n, ctx.host.date1904);
+  if (isError(d)) return d;
+  return d[part];
+}
+
+export function addText(t: Table): void {
+  t.set("LEN", textFn(1, 1, (s) => s.length));
+  t.set("UPPER", textFn(1, 1, (s) => s.toUpperCase()));
+  t.set("LOWER", textFn(1, 1, (s) => s.toLowerCase()));
+  t.set("TRIM", textFn(1, 1, (s) => s.replace(/ +/g, " ").replace(/^ | $/g, "")));
+  t.set("CLEAN", textFn(1, 1, (s) => s.replace(/[\u0000-\u001f]/g, "")));
+  t.set("LEFT", textFn(1, 2, (s, a) => {
+    const n = int(a[1], 1);
+    if (isError(n)) return n;
+    return n < 0 ? err("#VALUE!", "LEFT of a negative count") : s.slice(0, n);
+  }));
+  t.set("RIGHT", textFn(1, 2, (s, a) => {
+    const n = int(a[1], 1);
+    if (isError(n)) return n;
+    return n < 0 ? err("#VALUE!", "RIGHT of a negative count") : n === 0 ? "" : s.slice(-n);
+  }));
+  t.set("MID", textFn(3, 3, (s, a) => {
+    const start = int(a[1]);
+    if (isError(start)) return start;
+    const n = int(a[2]);
+    if (isError(n)) return n;
+    if (start < 1 || n < 0) return err("#VALUE!", "MID's start must be at least 1 and its length at least 0");
+    return s.slice(start - 1, start - 1 + n);
+  }));
+  t.set("REPT", textFn(2, 2, (s, a) => {
+    const n = int(a[1]);
+    if (isError(n)) return n;
+    if (n < 0) return err("#VALUE!", "REPT of a negative count");
+    return s.length * n > 32767 ? err("#VALUE!", "text longer than 32,767 characters") : s.repeat(n);
+  }));
+  t.set("EXACT", scalarFn(2, 2, ([a, b]) => {
+    const x = text(a);
+    if (isError(x)) return x;
+    const y = text(b);
+    if (isError(y)) return y;
+    return x === y;
+  }));
+  t.set("SUBSTITUTE", scalarFn(3, 4, ([a, b, c, d]) => {
+    const s = text(a);
+    if (isError(s)) return s;
+    const from = text(b);
+    if (isError(from)) return from;
+    const to = text(c);
+    if (isError(to)) return to;
+    if (from === "") return s;
+    if (d === undefined) return s.split(from).join(to);
+    const k = int(d);
+    if (isError(k)) return k;
+    if (k < 1) return err("#VALUE!", "SUBSTITUTE's instance must be at least 1");
+    let at = -1;
+    for (let i = 0; i < k; i++) {
+      at = s.indexOf(from, at + 1);
+      if (at < 0) return s;
+    }
+    return s.slice(0, at) + to + s.slice(at + from.length);
+  }));
+  const find = (caseless: boolean) =>
+    scalarFn(2, 3, ([a, b, c]) => {
+      const needle = text(a);
+      if (isError(needle)) return needle;
+      const hay = text(b);
+      if (isError(hay)) return hay;
+      const start = int(c, 1);
+      if (isError(start)) return start;
+      if (start < 1 || start > hay.length + 1) return err("#VALUE!", "the start position is outside the text");
+      const at = caseless ? hay.toUpperCase().indexOf(needle.toUpperCase(), start - 1) : hay.indexOf(needle, start - 1);
+      return at < 0 ? err("#VALUE!", "the text is not found") : at + 1;
+    });
+  t.set("FIND", find(false));
+  t.set("CONCATENATE", {
+    min: 1,
+    max: 255,
+    call: (args) => {
+      let s = "";
+      for (const a of args) {
+        const x = text(a as Scalar | undefined);
+        if (isError(x)) return x;
+        s += x;
+      }
+      return s.length > 32767 ? err("#VALUE!", "text longer than 32,767 characters") : s;
+    },
+  });
+  t.set("CONCAT", { min: 1, max: 254, param: classes("R"), noLift: true, call: (a, ctx) => concatAll(a, ctx) });
+  t.set("TEXTJOIN", {
+    min: 3,
+    max: 252,
+    param: classes("V", "V", "R"),
+    noLift: true,
+    call: ([sep, skip, ...rest], ctx) => {
+      if (sep instanceof XlArray) return new Uncomputable("TEXTJOIN with an array of delimiters is not computed headless");
+      const d = text(sep as Scalar | undefined);
+      if (isError(d)) return d;
+      const ignore = skip === undefined ? true : Boolean(skip);
+      return concatAll(rest, ctx, d, ignore);
+    },
+  });
+  t.set("VALUE", textFn(1, 1, (s) => {
+    const n = numberFromText(s);
+    return n === undefined ? new Uncomputable(`VALUE("${s.slice(0, 40)}") depends on the computer's locale; not computed headless`) : n;
+  }));
+  t.set("CHAR", scalarFn(1, 1, ([a]) => {
+    const n = int(a);
+    if (isError(n)) return n;
+    if (n < 1 || n > 255) return err("#VALUE!", "CHAR takes 1 to 255");
+    if (n > 127) return new Uncomputable("CHAR above 127 depends on the computer's code page; not computed headless");
+    return String.fromCharCode(n);
+  }));
+  t.set("CODE", textFn(1, 1, (s) => {
+    if (s === "") return err("#VALUE!", "CODE of empty text");
+    const c = s.charCodeAt(0);
+    return c > 127 ? new Uncomputable("CODE above 127 depends on the computer's code page; not computed headless") : c;
+  }));
+  t.set("TEXT", scalarFn(2, 2, () => new Uncomputable("TEXT's format codes depend on the computer's locale; not computed headless")));
+
+  // Dates
+  t.set("DATE", {
+    min: 3,
+    max: 3,
+    call: ([y, m, d], ctx) => {
+      const a = num(y as Scalar);
+      if (isError(a)) return a;
+      const b = num(m as Scalar);
+      if (isError(b)) return b;
+      const c = num(d as Scalar);
+      if (isError(c)) return c;
+      return dateSerial(a, b, c, ctx.host.date1904);
+    },
+  });
+  t.set("YEAR", datePart("y"));
+  t.set("MONTH", datePart("m"));
+  t.set("DAY", datePart("d"));
+  t.set("TODAY", { min: 0, max: 0, dynamic: true, call: (_a, ctx) => Math.floor(ctx.host.now()) });
+  t.set("NOW", { min: 0, max: 0, dynamic: true, call: (_a, ctx) => ctx.host.now() });
+}
