@@ -9,7 +9,7 @@ import { declare, num, optNum, optText } from "./_binding";
  * @param {any[][]} shoot_dm Legume shoot dry matter at peak biomass, t/ha (0–60).
  * @param {any[][]} shoot_n_pct Shoot N, % of dry matter (0–16; crude protein ÷ 6.25 gives N %).
  * @param {any[][]} ndfa_pct Percent of legume N from the atmosphere, 0–100 (e.g. from SOIL.NDFA).
- * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1, shoots only) or "walley2007" (1.32, pulses).
+ * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1), "walley2007" (1.32, pulses), or a crop: "faba bean" (1.43), "chickpea" (1.92), "mungbean" (1.39), "pigeonpea" (1.75).
  * @returns {any[][]} kg N/ha fixed by the whole plant (shoots only with "shoot").
  */
 export function nfixed(shoot_dm: any[][], shoot_n_pct: any[][], ndfa_pct: any[][], root_factor?: any[][]): any[][] {
@@ -25,8 +25,8 @@ const NFIXED = declare(
  * N2 fixed by the per-tonne rule, kg N/ha: shoot dry matter × kg N fixed per t × optional below-ground factor.
  * @customfunction NFIXDM
  * @param {any[][]} shoot_dm Legume shoot (herbage) dry matter, t/ha (0–60).
- * @param {any[][]} [kg_n_per_t] Needed, no default: kg shoot N fixed per t shoot DM (0–160), or "pasture" (20, Peoples et al. 2012).
- * @param {any[][]} [root_factor] Whole-plant N ÷ shoot N (1–10) or "walley2007"; default "shoot" (1): shoot N fixed only.
+ * @param {any[][]} [kg_n_per_t] Needed, no default: kg N fixed per t shoot DM (0–160), "pasture" (20, Peoples et al. 2012) or "crop" (25, GRDC back pocket guide).
+ * @param {any[][]} [root_factor] Whole-plant N ÷ shoot N (1–10), "walley2007" or a crop word as in SOIL.NFIXED; default "shoot" (1).
  * @returns {any[][]} kg N/ha fixed.
  */
 export function nfixdm(shoot_dm: any[][], kg_n_per_t?: any[][], root_factor?: any[][]): any[][] {
