@@ -11,7 +11,7 @@
 import { SoilError } from "../errors";
 import { nameTable } from "../names";
 import { BOUNDS, check, Bound } from "../validate";
-import { flagged, fmt, Legume, legumeOf, Level, MO_LEVEL, PhLevel, sideWords } from "./legumes";
+import { flagged, fmt, Legume, legumeOf, Level, measured, MO_LEVEL, PhLevel, sideWords } from "./legumes";
 
 /** Bounds of the soil-test inputs; the upper bounds of nitrate and B are guards against unit slips. */
 export const FIXSOIL_BOUNDS = {
@@ -49,25 +49,6 @@ export interface SoilCheck {
   readonly status: "constraint" | "clear" | "not made";
   /** One clause naming the reading, the level, the source, and on a constraint what it means. */
   readonly text: string;
-}
-
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
-/** An optional measurement: blank or omitted is "not measured", a number or numeric text is read. */
-function measured(value: string | number | undefined, bound: Bound): number | undefined {
-  if (value === undefined) return undefined;
-  if (typeof value === "number") return check(value, bound);
-  const t = value.trim();
-  if (t === "") return undefined;
-  if (!NUMERIC_TEXT.test(t)) {
-    const hint = /^[<>]/.test(t)
-      ? " (a below- or above-detection value is your call: enter a number or leave the cell blank)"
-      : /\d,\d/.test(t)
-        ? " (use a full stop as the decimal separator)"
-        : "";
-    throw new SoilError("NOT_A_NUMBER", `${bound.name}: "${value}" is not a number${hint}`);
-  }
-  return check(Number(t), bound);
 }
 
 const cite = (l: Level, extra = "") => `[${l.short}${extra}]`;

@@ -7,7 +7,7 @@
  */
 import { SoilError } from "../errors";
 import { check, finite, Bound } from "../validate";
-import { CountLevel, flagged, fmt, legumeOf, NODULATION_SCALE } from "./legumes";
+import { CountLevel, flagged, fmt, legumeOf, measured, NODULATION_SCALE } from "./legumes";
 
 /**
  * Bounds of the dig counts. The upper bounds are guards against a wrong column, not science: a dig
@@ -74,17 +74,19 @@ export function nfixNodulatedPct(plantsDug: number, plantsAdequate: number): num
  * 21 of 30 is exactly 70 %.
  * @param plantsDug plants dug and scored, whole number 1–1000
  * @param plantsAdequate plants scored adequately nodulated, whole number 0–plantsDug
- * @param nodules optional: nodules counted on all plants dug, whole number 0–100000; 0 gives None.
- *   Without it a dig with no adequate plant is Poor, and the text says to count nodules to tell
- *   Poor from None
+ * @param nodules optional: nodules counted on all plants dug, whole number 0–100000 (or numeric
+ *   text); 0 gives None. Blank or omitted means not counted: a dig with no adequate plant is then
+ *   Poor, and the text says to count nodules to tell Poor from None
  * @returns "Adequate: …", "Borderline: …", "Poor: …" or "None: …", naming the source
  * @throws OUT_OF_RANGE as nfixNodulatedPct, and for a negative or fractional nodule count;
- *   NOT_APPLICABLE when plants are rated adequate but no nodules were counted
+ *   NOT_A_NUMBER for nodule text that is not a number; NOT_APPLICABLE when plants are rated
+ *   adequate but 0 nodules were counted
  * @example nfixNodulationRating(30, 18) //=> "Borderline: 60 % of plants adequately nodulated…"
  */
-export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, nodules?: number): string {
+export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, nodulesCounted?: number | string): string {
   const adequate = adequateOf(plantsDug, plantsAdequate);
   const source = `[${NODULATION_SCALE.short}]`;
+  const nodules = measured(nodulesCounted, NODULATION_BOUNDS.nodules);
   if (nodules !== undefined) {
     count(nodules, NODULATION_BOUNDS.nodules);
     if (nodules === 0 && adequate > 0) {
