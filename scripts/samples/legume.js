@@ -26,10 +26,10 @@ const NDFA_GROUP = {
  * nodulated (low, high) and nodules per plant (low, high) of this season's root digs.
  */
 const LEGUMES = {
-  "faba bean": { use: "grain", dm: [6, 9], n: [2.8, 3.4], grain: [2.5, 4], grainN: 4.2, hi: 0.4, group: "high", root: "walley2007", b: -0.5, word: "faba bean", dig: { adequate: [0.55, 0.95], nodules: [35, 70] } },
+  "faba bean": { use: "grain", dm: [6, 9], n: [2.8, 3.4], grain: [2.5, 4], grainN: 4.2, hi: 0.4, group: "high", root: "faba bean", b: -0.5, word: "faba bean", dig: { adequate: [0.55, 0.95], nodules: [35, 70] } },
   "field pea": { use: "grain", dm: [5, 7], n: [2.6, 3.2], grain: [2, 3], grainN: 3.7, hi: 0.45, group: "mid", root: "walley2007", b: -0.6, word: "field pea", dig: { adequate: [0.4, 0.9], nodules: [25, 65] } },
   lupin: { use: "grain", dm: [6, 8], n: [2.4, 3.0], grain: [1.8, 2.8], grainN: 5.5, hi: 0.3, group: "high", root: "walley2007", b: -0.8, word: "lupin", dig: { adequate: [0.6, 0.95], nodules: [15, 40] } },
-  chickpea: { use: "grain", dm: [3.5, 5], n: [2.2, 2.8], grain: [1.5, 2.2], grainN: 3.4, hi: 0.4, group: "mid", root: "walley2007", b: -1.0, word: "chickpea", dig: { adequate: [0.35, 0.85], nodules: [10, 30] } },
+  chickpea: { use: "grain", dm: [3.5, 5], n: [2.2, 2.8], grain: [1.5, 2.2], grainN: 3.4, hi: 0.4, group: "mid", root: "chickpea", b: -1.0, word: "chickpea", dig: { adequate: [0.35, 0.85], nodules: [10, 30] } },
   lentil: { use: "grain", dm: [3, 4.5], n: [2.6, 3.2], grain: [1.2, 1.8], grainN: 4.0, hi: 0.38, group: "mid", root: "walley2007", b: -0.7, word: "lentil", dig: { adequate: [0.3, 0.85], nodules: [20, 50] } },
   soybean: { use: "grain", dm: [6, 8], n: [2.7, 3.3], grain: [3, 4], grainN: 6.0, hi: 0.45, group: "soy", root: "shoot", b: -1.5, word: "soybean", dig: { adequate: [0, 0.5], nodules: [0, 25] } },
   "vetch (brown manure)": { use: "brown manure", dm: [4, 6], n: [3.2, 3.8], grain: [0, 0], grainN: 0, hi: null, group: "mid", root: "walley2007", b: -0.6, word: "vetch", dig: { adequate: [0.5, 0.9], nodules: [30, 70] } },
@@ -100,7 +100,8 @@ function legumeWorkbook(build) {
     ["%Ndfa, faba bean and lupin", NDFA_GROUP.high.pct, `Peoples, Giller, Jensen & Herridge (2021) Plant and Soil 469:1-14, global mean by group: ${NDFA_GROUP.high.text}`],
     ["%Ndfa, pea, chickpea, lentil, vetch", NDFA_GROUP.mid.pct, `Same source: ${NDFA_GROUP.mid.text}`],
     ["%Ndfa, soybean", NDFA_GROUP.soy.pct, `Same source: ${NDFA_GROUP.soy.text}`],
-    ["Below-ground factor, pulses", "walley2007", "SOIL.NFIXED root_factor word: whole-plant N / shoot N = 1/(1 - 0.24), root N 14 % and rhizodeposit N 10 % of plant N (Walley et al. 2007, pulses of the Northern Great Plains)."],
+    ["Below-ground factor, other pulses", "walley2007", "SOIL.NFIXED root_factor word: whole-plant N / shoot N = 1/(1 - 0.24), root N 14 % and rhizodeposit N 10 % of plant N (Walley et al. 2007, pulses of the Northern Great Plains)."],
+    ["Below-ground factor, faba bean and chickpea", "faba bean, chickpea", "SOIL.NFIXED root_factor crop words: 1/(1 - share) with below-ground N 30 % (faba bean) and 48 % (chickpea) of total plant N (Khan et al. 2002, Plant and Soil, glasshouse pots)."],
     ["Below-ground factor, soybean", "shoot", "No sourced factor is built in for soybean: shoots only, so the fixed N is an underestimate."],
     ["Pastures", "pasture", "SOIL.NFIXDM rule: 20 kg shoot N fixed per t of legume herbage dry matter (Peoples et al. 2012, Crop & Pasture Science 63:759-786), shoots only."],
     ["B values", "", "Invented for this demo (values between -0.5 and -1.5 per mil). Use the B value published for your species and plant part, or one you measured."],
