@@ -7,8 +7,9 @@
  * CCE, fineness and moisture (Source: Penn State AASL notes; BC Soil Factsheet 637.200-2), bands
  * by the Colwell P critical ranges (Source: GRDC Update 2020, southern NSW), legume N by the
  * shoot-based and per-tonne rules (Source: Peoples et al. 2012; Walley et al. 2007 as reported
- * in doi:10.1007/s13593-015-0297-y; Khan et al. 2002, Plant and Soil, for faba bean and chickpea), root digs by the University of Adelaide grower guide's scale
- * and the soil screen by its published levels (Sources in src/data/nitrogen/legume-checks.json).
+ * in doi:10.1007/s13593-015-0297-y; Khan et al. 2002, Plant and Soil, for faba bean and
+ * chickpea), root digs by the University of Adelaide grower guide's scale and the soil screen by
+ * its published levels (Sources in src/data/nitrogen/legume-checks.json).
  */
 import crypto from "crypto";
 import fs from "fs";
