@@ -165,8 +165,9 @@ export function nfixSoilChecks(
 }
 
 /**
- * The soil screen as one text per paddock: "2 constraints found: …", or "none found in the checks
- * made: …" listing every check made, then the checks not made and why. Never a bare OK.
+ * The soil screen as one text per paddock, each clause naming its source; never a bare OK.
+ * "2 constraints found: …", or "none found in the checks made: …" listing every check made, then
+ * the checks not made and why.
  * Arguments and errors as nfixSoilChecks.
  * @returns the screen's text, each clause naming its source in brackets
  * @example nfixSoilText("field pea", 5.1, "CaCl2", 40) //=> "2 constraints found: pH 5.1 (CaCl2) is below 5.5…"
@@ -184,8 +185,9 @@ export function nfixSoilText(legume: string, ph: number, phMethod: string, nitra
 }
 
 /**
- * The number of soil factors (pH, nitrate, Mo, B) with a constraint, 0–4, for banding a report
- * column; 0 means none found in the checks made (SOIL.FIXSOIL says which checks those were).
+ * The number of soil factors (pH, nitrate, Mo, B) with a constraint on fixation, 0–4.
+ * For banding a report column; 0 means none found in the checks made (SOIL.FIXSOIL says which
+ * checks those were).
  * Arguments and errors as nfixSoilChecks.
  * @example nfixSoilCount("field pea", 5.1, "CaCl2", 120) //=> 3
  */

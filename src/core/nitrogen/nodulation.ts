@@ -50,9 +50,9 @@ function adequateOf(plantsDug: number, plantsAdequate: number): number {
 const pctText = (part: number, whole: number) => `${fmt(Number(((100 * part) / whole).toFixed(2)))} %`;
 
 /**
- * Percent of the plants dug that were scored adequately nodulated: 100 × adequate ÷ dug (the
- * University of Adelaide grower guide's measure: score each plant adequate or poor, work out the %
- * of plants adequately nodulated; seen).
+ * Percent of the plants dug that were scored adequately nodulated: 100 × adequate ÷ dug.
+ * The University of Adelaide grower guide's measure: score each plant adequate or poor, work out
+ * the % of plants adequately nodulated (seen).
  * @param plantsDug plants dug and scored, a whole number from 1 to 1000
  * @param plantsAdequate plants scored adequately nodulated, a whole number from 0 to plantsDug
  * @returns % of plants adequately nodulated, 0–100
@@ -66,9 +66,9 @@ export function nfixNodulatedPct(plantsDug: number, plantsAdequate: number): num
 }
 
 /**
- * The dig's nodulation rating with its source: Adequate (70 % or more of plants adequate),
- * Borderline (50 to under 70 %), Poor (under 50 %), None (no nodules on any plant: no fixation).
- * Scale of the University of Adelaide "Grower guide to assessing legume nodulation – Riverina"
+ * A dig's nodulation rating (Adequate, Borderline, Poor or None) with the % and the scale's source.
+ * Adequate: 70 % or more of plants adequate; Borderline: 50 to under 70 %; Poor: under 50 %;
+ * None: no nodules on any plant, no fixation. Scale of the University of Adelaide "Grower guide to assessing legume nodulation – Riverina"
  * (faba bean, field pea/vetch, lupin, lucerne; seen). The label comes first, so COUNTIF(range,
  * "Poor*") counts a column. Compared in whole numbers (adequate × 100 against level × dug), so
  * 21 of 30 is exactly 70 %.
@@ -109,8 +109,8 @@ export function nodulationRank(rating: string): number {
 }
 
 /**
- * Percent of the nodules cut open that are red or pink inside, i.e. effective and fixing N; white
- * or green nodules are ineffective (GRDC Communities, "Growing legumes? How to check their
+ * Percent of the nodules cut open that are red or pink inside (effective, fixing N).
+ * White or green nodules are ineffective (GRDC Communities, "Growing legumes? How to check their
  * nodules"; seen). No published rating of this share was found, so none is given.
  * @param nodules nodules cut open and looked at, whole number 1–100000
  * @param nodulesPink of those, nodules red or pink inside, whole number 0–nodules
@@ -130,8 +130,8 @@ export function nfixPinkNodulePct(nodules: number, nodulesPink: number): number 
 }
 
 /**
- * Mean nodules per plant dug against the published count for the legume: 50 per plant is good for
- * field pea, vetch and faba bean (GRDC Communities, "Growing legumes? How to check their nodules";
+ * Mean nodules per plant dug against the published per-plant count for the legume, if one exists.
+ * 50 per plant is good for field pea, vetch and faba bean (GRDC Communities, "Growing legumes? How to check their nodules";
  * seen); an adequately nodulated pasture legume has at least 20 (MLA e-learning, DPIRD method;
  * seen). The source's level is per plant and this is a mean: plants below it can hide in a good
  * mean, so score plants one by one for SOIL.NODRATING.
