@@ -20,17 +20,21 @@ const NDFA_GROUP = {
   soy: { pct: 61, text: "soybean outside Brazil and Europe: 61 ± 14.0 %" },
 };
 
-/** Invented paddock-scale properties of each legume for the demo (not reference values). */
+/**
+ * Invented paddock-scale properties of each legume for the demo (not reference values). `word` is
+ * the legume as the legume-check functions name it; `dig` the invented share of plants adequately
+ * nodulated (low, high) and nodules per plant (low, high) of this season's root digs.
+ */
 const LEGUMES = {
-  "faba bean": { use: "grain", dm: [6, 9], n: [2.8, 3.4], grain: [2.5, 4], grainN: 4.2, hi: 0.4, group: "high", root: "walley2007", b: -0.5 },
-  "field pea": { use: "grain", dm: [5, 7], n: [2.6, 3.2], grain: [2, 3], grainN: 3.7, hi: 0.45, group: "mid", root: "walley2007", b: -0.6 },
-  lupin: { use: "grain", dm: [6, 8], n: [2.4, 3.0], grain: [1.8, 2.8], grainN: 5.5, hi: 0.3, group: "high", root: "walley2007", b: -0.8 },
-  chickpea: { use: "grain", dm: [3.5, 5], n: [2.2, 2.8], grain: [1.5, 2.2], grainN: 3.4, hi: 0.4, group: "mid", root: "walley2007", b: -1.0 },
-  lentil: { use: "grain", dm: [3, 4.5], n: [2.6, 3.2], grain: [1.2, 1.8], grainN: 4.0, hi: 0.38, group: "mid", root: "walley2007", b: -0.7 },
-  soybean: { use: "grain", dm: [6, 8], n: [2.7, 3.3], grain: [3, 4], grainN: 6.0, hi: 0.45, group: "soy", root: "shoot", b: -1.5 },
-  "vetch (brown manure)": { use: "brown manure", dm: [4, 6], n: [3.2, 3.8], grain: [0, 0], grainN: 0, hi: null, group: "mid", root: "walley2007", b: -0.6 },
-  "subterranean clover pasture": { use: "pasture", dm: [4, 7], n: [3.4, 4.0], grain: [0, 0], grainN: 0, hi: null, group: null, root: null, b: null },
-  "lucerne pasture": { use: "pasture", dm: [8, 12], n: [3.2, 3.8], grain: [0, 0], grainN: 0, hi: null, group: null, root: null, b: null },
+  "faba bean": { use: "grain", dm: [6, 9], n: [2.8, 3.4], grain: [2.5, 4], grainN: 4.2, hi: 0.4, group: "high", root: "faba bean", b: -0.5, word: "faba bean", dig: { adequate: [0.55, 0.95], nodules: [35, 70] } },
+  "field pea": { use: "grain", dm: [5, 7], n: [2.6, 3.2], grain: [2, 3], grainN: 3.7, hi: 0.45, group: "mid", root: "walley2007", b: -0.6, word: "field pea", dig: { adequate: [0.4, 0.9], nodules: [25, 65] } },
+  lupin: { use: "grain", dm: [6, 8], n: [2.4, 3.0], grain: [1.8, 2.8], grainN: 5.5, hi: 0.3, group: "high", root: "walley2007", b: -0.8, word: "lupin", dig: { adequate: [0.6, 0.95], nodules: [15, 40] } },
+  chickpea: { use: "grain", dm: [3.5, 5], n: [2.2, 2.8], grain: [1.5, 2.2], grainN: 3.4, hi: 0.4, group: "mid", root: "chickpea", b: -1.0, word: "chickpea", dig: { adequate: [0.35, 0.85], nodules: [10, 30] } },
+  lentil: { use: "grain", dm: [3, 4.5], n: [2.6, 3.2], grain: [1.2, 1.8], grainN: 4.0, hi: 0.38, group: "mid", root: "walley2007", b: -0.7, word: "lentil", dig: { adequate: [0.3, 0.85], nodules: [20, 50] } },
+  soybean: { use: "grain", dm: [6, 8], n: [2.7, 3.3], grain: [3, 4], grainN: 6.0, hi: 0.45, group: "soy", root: "shoot", b: -1.5, word: "soybean", dig: { adequate: [0, 0.5], nodules: [0, 25] } },
+  "vetch (brown manure)": { use: "brown manure", dm: [4, 6], n: [3.2, 3.8], grain: [0, 0], grainN: 0, hi: null, group: "mid", root: "walley2007", b: -0.6, word: "vetch", dig: { adequate: [0.5, 0.9], nodules: [30, 70] } },
+  "subterranean clover pasture": { use: "pasture", dm: [4, 7], n: [3.4, 4.0], grain: [0, 0], grainN: 0, hi: null, group: null, root: null, b: null, word: "subterranean clover", dig: { adequate: [0.2, 0.8], nodules: [10, 35] } },
+  "lucerne pasture": { use: "pasture", dm: [8, 12], n: [3.2, 3.8], grain: [0, 0], grainN: 0, hi: null, group: null, root: null, b: null, word: "lucerne", dig: { adequate: [0.3, 0.8], nodules: [10, 30] } },
 };
 
 const PLAN = [
@@ -42,7 +46,7 @@ const PLAN = [
 ];
 
 function legumeWorkbook(build) {
-  const { about, layout } = build;
+  const { about, layout, legumes } = build;
   const H = layout.HEADERS;
   const r = rng(20251104);
   const rows = [];
@@ -81,6 +85,7 @@ function legumeWorkbook(build) {
   wb.title = `${SCENARIO.district} legume N budget ${SCENARIO.season}`;
   const wsRead = wb.addWorksheet("Read me", { properties: { tabColor: { argb: COLOURS.blue } } });
   const ws = wb.addWorksheet(layout.SHEETS.legume, { properties: { tabColor: { argb: COLOURS.green } } });
+  const wsNod = wb.addWorksheet(layout.SHEETS.nodulation, { properties: { tabColor: { argb: COLOURS.green } } });
   const wsDiff = wb.addWorksheet("N-difference check", { properties: { tabColor: { argb: COLOURS.sky } } });
   const wsTot = wb.addWorksheet(layout.SHEETS.legumeTotals, { properties: { tabColor: { argb: COLOURS.green } } });
   const wsAss = wb.addWorksheet("Assumptions", { properties: { tabColor: { argb: COLOURS.sky } } });
@@ -95,11 +100,14 @@ function legumeWorkbook(build) {
     ["%Ndfa, faba bean and lupin", NDFA_GROUP.high.pct, `Peoples, Giller, Jensen & Herridge (2021) Plant and Soil 469:1-14, global mean by group: ${NDFA_GROUP.high.text}`],
     ["%Ndfa, pea, chickpea, lentil, vetch", NDFA_GROUP.mid.pct, `Same source: ${NDFA_GROUP.mid.text}`],
     ["%Ndfa, soybean", NDFA_GROUP.soy.pct, `Same source: ${NDFA_GROUP.soy.text}`],
-    ["Below-ground factor, pulses", "walley2007", "SOIL.NFIXED root_factor word: whole-plant N / shoot N = 1/(1 - 0.24), root N 14 % and rhizodeposit N 10 % of plant N (Walley et al. 2007, pulses of the Northern Great Plains)."],
+    ["Below-ground factor, other pulses", "walley2007", "SOIL.NFIXED root_factor word: whole-plant N / shoot N = 1/(1 - 0.24), root N 14 % and rhizodeposit N 10 % of plant N (Walley et al. 2007, pulses of the Northern Great Plains)."],
+    ["Below-ground factor, faba bean and chickpea", "faba bean, chickpea", "SOIL.NFIXED root_factor crop words: 1/(1 - share) with below-ground N 30 % (faba bean) and 48 % (chickpea) of total plant N (Khan et al. 2002, Plant and Soil, glasshouse pots)."],
     ["Below-ground factor, soybean", "shoot", "No sourced factor is built in for soybean: shoots only, so the fixed N is an underestimate."],
     ["Pastures", "pasture", "SOIL.NFIXDM rule: 20 kg shoot N fixed per t of legume herbage dry matter (Peoples et al. 2012, Crop & Pasture Science 63:759-786), shoots only."],
     ["B values", "", "Invented for this demo (values between -0.5 and -1.5 per mil). Use the B value published for your species and plant part, or one you measured."],
     ["Harvest index, shoot N %, grain N %", "", "Invented paddock data for the demo."],
+    ["Root digs (Nodulation and soil)", "", "Invented: 30 plants per paddock (10 at each of 3 spots, as the University of Adelaide grower guide samples), plants scored adequate, nodules counted and cut open."],
+    ["Soil test at sowing (Nodulation and soil)", "", "Invented: pH in CaCl2 (0-10 cm), nitrate-N at sowing for the crops (not measured under the pastures), hot-water B for lucerne only. Screened by SOIL.FIXSOIL against published levels (SOIL.ABOUT(\"FIXSOIL\"))."],
     ["N credit to the next crop", "", "Net N balance (fixed N minus grain N), 0 when negative. Not all of it reaches the next crop in one season: no recovery factor is applied."],
   ];
   ass.forEach(([a, b, c], i) => {
@@ -229,6 +237,9 @@ function legumeWorkbook(build) {
     "N difference = legume N - reference N + (soil N after legume - soil N after reference). The two estimates differ in what they count: compare them, do not average them.";
   wsDiff.getCell(`A${6 + diff.length}`).font = { italic: true, color: { argb: COLOURS.grey } };
 
+  // --- Nodulation and soil -----------------------------------------------------------------
+  nodulationSheet(wsNod, rows, { about, layout, legumes });
+
   // --- Farm totals ------------------------------------------------------------------------
   const th = [H.farm, H.legumePaddocks, "Legume area (ha)", H.nFixedTotal, H.nCreditTotal, "Paddocks with negative balance"];
   wsTot.getCell("A1").value = "Legume N per farm";
@@ -267,12 +278,123 @@ function legumeWorkbook(build) {
     ["An invented scenario for trying soilcell: the consultancy, farms, paddocks and every measurement are made up.", "n"],
     ["What is in this workbook", "h"],
     [`${layout.SHEETS.legume}: ${rows.length} legume crops and pastures with shoot dry matter, shoot N %, %Ndfa (SOIL.NDFA from δ15N where sampled, otherwise the group mean on Assumptions), fixed N (SOIL.NFIXED, or SOIL.NFIXDM for pastures), grain removal and the net N balance (SOIL.NBALANCE).`, "n"],
+    [`${layout.SHEETS.nodulation}: this season's root digs (30 plants per paddock about 10-12 weeks after sowing) rated by SOIL.NODPCT, SOIL.NODRATING, SOIL.NODPINK and SOIL.NODCOUNT, and the soil test at sowing screened for the conditions that stop fixation (SOIL.FIXSOIL, SOIL.FIXSOILCOUNT). The digs and soil tests are invented.`, "n"],
     ["N-difference check: four paddocks with a wheat reference strip, fixed N by SOIL.NDIFF beside the budget's shoot estimate. Farm totals: fixed N and N credit per farm. Assumptions: every value that was not measured, with its source or marked invented.", "n"],
     ["Caution", "h"],
-    [`${about.CAUTION} An N credit is an estimate of what the legume leaves, not a fertiliser recommendation: soil tests, the season and local advice decide the next crop's N.`, "c"],
+    [`${about.CAUTION} An N credit is an estimate of what the legume leaves, not a fertiliser recommendation: soil tests, the season and local advice decide the next crop's N. The nodulation ratings and soil screen are screening aids: an inoculant's label and local advice govern.`, "c"],
   ]);
 
   return { wb, facts: { paddocks: rows.length } };
+}
+
+/**
+ * The "Nodulation and soil" sheet: one row per budget paddock with an invented root dig (30
+ * plants, as the University of Adelaide grower guide samples) and an invented soil test at sowing,
+ * rated and screened by the legume-check functions. Its own seed, so the budget's data stay as
+ * they were.
+ */
+function nodulationSheet(ws, rows, { about, layout, legumes }) {
+  const H = layout.HEADERS;
+  const r = rng(20251105);
+  const digs = rows.map((s) => {
+    const L = LEGUMES[s.crop];
+    const dug = 30;
+    // One uninoculated soybean paddock with no nodules at all, so the sheet shows a None.
+    const none = s.farm === "Quondle Hill";
+    const adequate = none ? 0 : Math.round(dug * r.uniform(...L.dig.adequate));
+    const nodules = none ? 0 : Math.max(adequate, Math.round(dug * r.uniform(...L.dig.nodules)));
+    const crop = L.use === "grain" || L.use === "brown manure";
+    return {
+      id: s.id,
+      farm: s.farm,
+      crop: s.crop,
+      word: L.word,
+      dug,
+      adequate,
+      nodules,
+      pink: Math.round(nodules * r.uniform(0.5, 0.95)),
+      ph: round(r.uniform(4.6, 6.9), 1),
+      nitrate: crop ? Math.round(r.uniform(20, 150)) : null,
+      boron: L.word === "lucerne" ? round(r.uniform(0.2, 0.9), 2) : null,
+      hasCount: Boolean(legumes.legumeOf(L.word).count),
+    };
+  });
+  const first = FIRST_ROW;
+  const last = first + digs.length - 1;
+  const cols = [
+    { key: "id", header: H.sampleId, width: 10, value: (d) => d.id },
+    { key: "farm", header: H.farm, width: 13, value: (d) => d.farm },
+    { key: "crop", header: "Legume", width: 24, value: (d) => d.crop },
+    { key: "word", header: "Legume, as the checks name it", width: 18, value: (d) => d.word },
+    { key: "dug", header: "Plants dug", width: 7, value: (d) => d.dug },
+    { key: "adequate", header: "Plants adequately nodulated", width: 10, value: (d) => d.adequate },
+    { key: "nodules", header: "Nodules counted", width: 9, value: (d) => d.nodules },
+    { key: "pink", header: "Nodules pink inside", width: 9, value: (d) => d.pink },
+    { key: "pct", header: "% of plants adequately nodulated", width: 11, numFmt: "0", soil: true, spill: (S) => `SOIL.NODPCT(${S("dug")},${S("adequate")})` },
+    { key: "rating", header: H.nodRating, width: 40, soil: true, spill: (S) => `SOIL.NODRATING(${S("dug")},${S("adequate")},${S("nodules")})` },
+    { key: "pinkPct", header: "% of nodules pink (effective)", width: 11, numFmt: "0", soil: true, row: (A) => `IF(${A("nodules")}=0,"no nodules",SOIL.NODPINK(${A("nodules")},${A("pink")}))` },
+    {
+      key: "count", header: "Nodules per plant against the published count", width: 40, soil: true,
+      row: (A, d) => (d.hasCount ? `SOIL.NODCOUNT(${A("dug")},${A("nodules")},${A("word")})` : null),
+      value: (d) => (d.hasCount ? undefined : "no published count for this legume"),
+    },
+    { key: "ph", header: "Soil pH (CaCl2), 0-10 cm", width: 8, value: (d) => d.ph },
+    { key: "nitrate", header: "Nitrate-N at sowing (kg N/ha)", width: 10, value: (d) => d.nitrate },
+    { key: "boron", header: "Hot-water B (mg/kg)", width: 8, value: (d) => d.boron },
+    { key: "screen", header: H.soilScreen, width: 60, soil: true, spill: (S) => `SOIL.FIXSOIL(${S("word")},${S("ph")},"CaCl2",${S("nitrate")},${S("boron")})` },
+    { key: "constraints", header: H.soilConstraints, width: 10, numFmt: "0", soil: true, spill: (S) => `SOIL.FIXSOILCOUNT(${S("word")},${S("ph")},"CaCl2",${S("nitrate")},${S("boron")})` },
+  ];
+  const letters = {};
+  cols.forEach((c, i) => (letters[c.key] = col(i + 1)));
+  ws.mergeCells(1, 1, 1, cols.length);
+  ws.getCell("A1").value = `Root digs and soil conditions for fixation, ${SCENARIO.season}: ${SCENARIO.consultancy} (invented data)`;
+  ws.getCell("A1").font = { bold: true, size: 13, color: { argb: COLOURS.white } };
+  ws.getCell("A1").fill = fill(COLOURS.green);
+  cols.forEach((c, i) => {
+    const h = ws.getCell(2, i + 1);
+    h.value = c.header;
+    h.font = { bold: true, color: { argb: c.soil ? COLOURS.white : COLOURS.black } };
+    h.fill = fill(c.soil ? COLOURS.blue : COLOURS.tintGreen);
+    h.alignment = { wrapText: true, vertical: "middle", horizontal: "center" };
+    ws.getColumn(i + 1).width = c.width;
+  });
+  ws.getRow(2).height = 48;
+  ws.views = [{ state: "frozen", xSplit: 1, ySplit: 2 }];
+  digs.forEach((d, i) => {
+    const row = first + i;
+    const A = (key) => `${letters[key]}${row}`;
+    cols.forEach((c) => {
+      const cell = ws.getCell(A(c.key));
+      const f = c.row ? c.row(A, d) : null;
+      if (f) formula(cell, f);
+      else if (c.value) {
+        const v = c.value(d);
+        if (v !== null && v !== undefined) cell.value = v;
+      } else if (c.spill && i === 0) formula(cell, c.spill((key) => `${letters[key]}${first}:${letters[key]}${last}`));
+      if (c.numFmt) cell.numFmt = c.numFmt;
+      if (c.soil && c.spill) cell.fill = fill(COLOURS.tintBlue);
+      if (c.key === "screen" || c.key === "rating" || c.key === "count") cell.alignment = { wrapText: false };
+    });
+  });
+  ws.addConditionalFormatting({
+    ref: `${letters.constraints}${first}:${letters.constraints}${last}`,
+    rules: [{ type: "cellIs", operator: "greaterThan", priority: 1, formulae: ["0"], style: { fill: { type: "pattern", pattern: "solid", bgColor: { argb: COLOURS.tintVermillion } }, font: { bold: true } } }],
+  });
+  ws.addConditionalFormatting({
+    ref: `${letters.rating}${first}:${letters.rating}${last}`,
+    rules: [{ type: "expression", priority: 2, formulae: [`OR(LEFT(${letters.rating}${first},4)="Poor",LEFT(${letters.rating}${first},4)="None")`], style: { fill: { type: "pattern", pattern: "solid", bgColor: { argb: COLOURS.tintVermillion } }, font: { bold: true } } }],
+  });
+  const noteRow = last + 2;
+  [
+    "Light blue columns hold one spilling formula each (SOIL.NODPCT, SOIL.NODRATING, SOIL.FIXSOIL, SOIL.FIXSOILCOUNT); the pink share and the count check are per row (SOIL.NODCOUNT only where a source gives a per-plant count for the legume).",
+    "Rating scale: University of Adelaide grower guide to assessing legume nodulation (Adequate 70 % or more of plants adequate, Borderline 50-70 %, Poor under 50 %, None: no nodules). Soil levels and their sources: SOIL.ABOUT(\"FIXSOIL\").",
+    "pH is in CaCl2 and says so in the formula: a level published for one pH test is never applied to the other. Blank nitrate or B: not measured, listed as not checked.",
+    "Screening aids only: an inoculant's label and local advice govern. " + about.CAUTION,
+  ].forEach((t, i) => {
+    ws.getCell(`A${noteRow + i}`).value = t;
+    ws.getCell(`A${noteRow + i}`).font = i === 3 ? { bold: true, color: { argb: COLOURS.vermillion } } : { italic: true, color: { argb: COLOURS.grey } };
+  });
+  return digs;
 }
 
 module.exports = { legumeWorkbook };

@@ -26,6 +26,7 @@ const build = {
   chemistry: need("core/chemistry"),
   sufficiency: need("core/bands/sufficiency"),
   about: need("core/about"),
+  legumes: need("core/nitrogen/legumes"),
   layout: need("cli/demo").LAYOUT,
 };
 const { seasonWorkbook } = require("./season");

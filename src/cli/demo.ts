@@ -2,7 +2,8 @@
  * `npm run demo`: recalculates every sample workbook headless into demo-output/ with the same
  * code Excel runs, then reads the results back and prints what a consultant would want to know
  * first: how many samples were interpreted, how much lime each farm needs, which paddocks sit
- * below optimum, and which cells are in error and why. The inputs are never written.
+ * below optimum, which legume paddocks have a soil constraint on fixation or poor nodulation, and
+ * which cells are in error and why. The inputs are never written.
  */
 import crypto from "crypto";
 import fs from "fs";
@@ -13,7 +14,7 @@ import { CellProblem, RecalcSummary, recalcWorkbook } from "../engine/recalc";
 
 /** Sheet names and column headers the sample workbooks use; the generator takes them from here. */
 export const LAYOUT = {
-  SHEETS: { farms: "Farms", legume: "Legume N budget", legumeTotals: "Farm totals" },
+  SHEETS: { farms: "Farms", legume: "Legume N budget", legumeTotals: "Farm totals", nodulation: "Nodulation and soil" },
   /** The group label above a lab sheet's interpretation columns (row above the headers). */
   SOIL_GROUP: "Interpretation: SOIL formulas",
   HEADERS: {
@@ -39,6 +40,9 @@ export const LAYOUT = {
     nFixedTotal: "N fixed (kg N)",
     nCreditTotal: "N credit to next crop (kg N)",
     nBalance: "N balance (kg N/ha)",
+    nodRating: "Nodulation rating",
+    soilScreen: "Soil conditions for fixation",
+    soilConstraints: "Soil constraints found",
   },
 } as const;
 
@@ -91,6 +95,16 @@ export interface LegumeFarm {
   readonly nCreditKg: number;
 }
 
+/** The root digs and soil screen of the legume budget's "Nodulation and soil" sheet. */
+export interface LegumeChecks {
+  /** Paddocks with a rating or a screen result. */
+  readonly paddocks: number;
+  /** Paddocks whose soil screen found at least one constraint on fixation. */
+  readonly constrained: readonly string[];
+  /** Paddocks rated Poor or None for nodulation. */
+  readonly poorNodulation: readonly string[];
+}
+
 export interface ErrorReason {
   readonly error: string;
   readonly message: string;
@@ -108,6 +122,8 @@ export interface DemoSummary {
   readonly legume: readonly LegumeFarm[];
   /** Paddocks of the legume budget whose grain took more N than the crop fixed. */
   readonly legumeNegative: readonly string[];
+  /** Root digs and soil screen; null when no workbook has the sheet. */
+  readonly legumeChecks: LegumeChecks | null;
   readonly errors: readonly (CellProblem & { workbook: string })[];
   readonly reasons: readonly ErrorReason[];
   /** Every input file has the same bytes after the run as before. */
@@ -188,6 +204,7 @@ async function readOutputs(outputs: readonly { file: string; output: string }[])
   const below = new Map<string, { p: string[]; k: string[] | null }>();
   const legume: LegumeFarm[] = [];
   const legumeNegative: string[] = [];
+  let legumeChecks: LegumeChecks | null = null;
   for (const { file, output } of outputs) {
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.readFile(output);
@@ -247,6 +264,7 @@ async function readOutputs(outputs: readonly { file: string; output: string }[])
           });
         }
       }
+      if (ws.name === LAYOUT.SHEETS.nodulation) legumeChecks = readLegumeChecks(ws) ?? legumeChecks;
       if (ws.name === LAYOUT.SHEETS.legume) {
         const t = table(ws, H.sampleId);
         const bal = t && column(t, H.nBalance);
@@ -259,7 +277,27 @@ async function readOutputs(outputs: readonly { file: string; output: string }[])
     }
   }
   const belowOptimum = [...below.entries()].map(([farm, e]) => ({ farm, p: e.p, k: e.k }));
-  return { labs, lime, belowOptimum, legume, legumeNegative };
+  return { labs, lime, belowOptimum, legume, legumeNegative, legumeChecks };
+}
+
+/** Paddocks with a soil constraint (count > 0) and with a Poor or None nodulation rating. */
+function readLegumeChecks(ws: ExcelJS.Worksheet): LegumeChecks | undefined {
+  const t = table(ws, H.sampleId);
+  const rating = t && column(t, H.nodRating);
+  const count = t && column(t, H.soilConstraints);
+  if (!t || !rating || !count) return undefined;
+  const constrained: string[] = [];
+  const poorNodulation: string[] = [];
+  let paddocks = 0;
+  for (const row of t.rows) {
+    const id = asText(row[1]);
+    const r = asText(row[rating]);
+    const n = asNumber(row[count]);
+    if (r || n !== null) paddocks++;
+    if (n !== null && n > 0) constrained.push(id);
+    if (/^(Poor|None):/.test(r)) poorNodulation.push(id);
+  }
+  return { paddocks, constrained, poorNodulation };
 }
 
 function groupReasons(errors: readonly (CellProblem & { workbook: string })[]): ErrorReason[] {
@@ -305,6 +343,14 @@ function report(s: DemoSummary, say: (line: string) => void): void {
     say("Legume N budget:");
     for (const f of s.legume) say(`  ${f.farm.padEnd(14)} ${f.paddocks} paddocks, ${fmt(f.nFixedKg, 0)} kg N fixed, ${fmt(f.nCreditKg, 0)} kg N credit to the next crop`);
     if (s.legumeNegative.length) say(`  grain removed more N than was fixed in: ${s.legumeNegative.join(", ")}`);
+  }
+  if (s.legumeChecks) {
+    const c = s.legumeChecks;
+    const list = (ids: readonly string[]) => (ids.length ? ` (${ids.join(", ")})` : "");
+    say("");
+    say("Legume checks (root digs and soil screen; screening aids, the inoculant's label and local advice govern):");
+    say(`  paddocks with a soil constraint on fixation: ${c.constrained.length} of ${c.paddocks}${list(c.constrained)}`);
+    say(`  paddocks with poor or no nodulation: ${c.poorNodulation.length} of ${c.paddocks}${list(c.poorNodulation)}`);
   }
   say("");
   say(`Cells in error: ${s.errors.length}`);
@@ -353,6 +399,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
     belowOptimum: read.belowOptimum,
     legume: read.legume,
     legumeNegative: read.legumeNegative,
+    legumeChecks: read.legumeChecks,
     errors,
     reasons: groupReasons(errors),
     inputsUntouched: files.every((f) => digest(f) === before.get(f)),

@@ -1,7 +1,9 @@
 /** Excel bindings: legume nitrogen. Argument shaping only; the science is in src/core. */
 import { nfixFixedN, nfixPerTonne, nfixNBalance, nfixShootDm } from "../core/nitrogen/nitrogen";
 import { nfixNdfa, nfixNDifference } from "../core/nitrogen/isotope";
-import { declare, num, optNum, optText } from "./_binding";
+import { nfixNodulatedPct, nfixNodulationRating, nfixPinkNodulePct, nfixNoduleCount } from "../core/nitrogen/nodulation";
+import { nfixSoilText, nfixSoilCount } from "../core/nitrogen/fixation-soil";
+import { declare, num, optNum, optText, text } from "./_binding";
 
 /**
  * N2 fixed by a legume, kg N/ha: shoot dry matter × shoot N % × %Ndfa × below-ground factor.
@@ -9,7 +11,7 @@ import { declare, num, optNum, optText } from "./_binding";
  * @param {any[][]} shoot_dm Legume shoot dry matter at peak biomass, t/ha (0–60).
  * @param {any[][]} shoot_n_pct Shoot N, % of dry matter (0–16; crude protein ÷ 6.25 gives N %).
  * @param {any[][]} ndfa_pct Percent of legume N from the atmosphere, 0–100 (e.g. from SOIL.NDFA).
- * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1, shoots only) or "walley2007" (1.32, pulses).
+ * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1), "walley2007" (1.32, pulses), or a crop: "faba bean" (1.43), "chickpea" (1.92), "mungbean" (1.39), "pigeonpea" (1.75).
  * @returns {any[][]} kg N/ha fixed by the whole plant (shoots only with "shoot").
  */
 export function nfixed(shoot_dm: any[][], shoot_n_pct: any[][], ndfa_pct: any[][], root_factor?: any[][]): any[][] {
@@ -25,8 +27,8 @@ const NFIXED = declare(
  * N2 fixed by the per-tonne rule, kg N/ha: shoot dry matter × kg N fixed per t × optional below-ground factor.
  * @customfunction NFIXDM
  * @param {any[][]} shoot_dm Legume shoot (herbage) dry matter, t/ha (0–60).
- * @param {any[][]} [kg_n_per_t] Needed, no default: kg shoot N fixed per t shoot DM (0–160), or "pasture" (20, Peoples et al. 2012).
- * @param {any[][]} [root_factor] Whole-plant N ÷ shoot N (1–10) or "walley2007"; default "shoot" (1): shoot N fixed only.
+ * @param {any[][]} [kg_n_per_t] Needed, no default: kg N fixed per t shoot DM (0–160), "pasture" (20, Peoples et al. 2012) or "crop" (25, GRDC back pocket guide).
+ * @param {any[][]} [root_factor] Whole-plant N ÷ shoot N (1–10), "walley2007" or a crop word as in SOIL.NFIXED; default "shoot" (1).
  * @returns {any[][]} kg N/ha fixed.
  */
 export function nfixdm(shoot_dm: any[][], kg_n_per_t?: any[][], root_factor?: any[][]): any[][] {
@@ -102,3 +104,103 @@ export function shootdm(grain_yield: any[][], harvest_index: any[][]): any[][] {
   return SHOOTDM(arguments);
 }
 const SHOOTDM = declare(shootdm, [num("grain_yield"), num("harvest_index")], (grainYield, hi) => nfixShootDm(grainYield, hi));
+
+// ---- Legume checks: root digs and the soil conditions for fixation ---------------------------
+// One function per output, so each column of a dig sheet is one spilling formula of one type
+// (numbers stay numbers for SOIL.BAND and conditional formats; ratings are text, label first).
+
+/**
+ * Percent of the plants dug that were scored adequately nodulated (100 × adequate ÷ dug).
+ * @customfunction NODPCT
+ * @param {any[][]} plants_dug Plants dug and scored, a whole number (1–1000; the guide digs about 30, 10 at each of 3 spots).
+ * @param {any[][]} plants_adequate Plants scored adequately nodulated, a whole number from 0 to plants_dug (a count, not a percentage).
+ * @returns {any[][]} % of plants adequately nodulated, 0–100.
+ */
+export function nodpct(plants_dug: any[][], plants_adequate: any[][]): any[][] {
+  return NODPCT(arguments);
+}
+const NODPCT = declare(nodpct, [num("plants_dug"), num("plants_adequate")], (dug, adequate) => nfixNodulatedPct(dug, adequate));
+
+/**
+ * Nodulation rating of a dig: Adequate (≥ 70 % of plants adequate), Borderline, Poor (< 50 %) or None; names its source.
+ * @customfunction NODRATING
+ * @param {any[][]} plants_dug Plants dug and scored, a whole number (1–1000).
+ * @param {any[][]} plants_adequate Plants scored adequately nodulated, a whole number from 0 to plants_dug.
+ * @param {any[][]} [nodules] Nodules counted on all plants dug (0–100000); 0 rates None. Blank: not counted.
+ * @returns {any[][]} "Adequate: …", "Borderline: …", "Poor: …" or "None: …" with the % and the scale's source.
+ */
+export function nodrating(plants_dug: any[][], plants_adequate: any[][], nodules?: any[][]): any[][] {
+  return NODRATING(arguments);
+}
+const NODRATING = declare(
+  nodrating,
+  [num("plants_dug"), num("plants_adequate"), optText("nodules")],
+  (dug, adequate, nodules) => nfixNodulationRating(dug, adequate, nodules),
+);
+
+/**
+ * Percent of the nodules cut open that are red or pink inside (effective, fixing N); white or green ones are not.
+ * @customfunction NODPINK
+ * @param {any[][]} nodules Nodules cut open and looked at, a whole number (1–100000).
+ * @param {any[][]} nodules_pink Of those, nodules red or pink inside, a whole number from 0 to nodules.
+ * @returns {any[][]} % of nodules effective, 0–100 (no published rating of this share exists, so none is given).
+ */
+export function nodpink(nodules: any[][], nodules_pink: any[][]): any[][] {
+  return NODPINK(arguments);
+}
+const NODPINK = declare(nodpink, [num("nodules"), num("nodules_pink")], (nodules, pink) => nfixPinkNodulePct(nodules, pink));
+
+/**
+ * Mean nodules per plant against the published count for the legume, where a source gives one (#N/A otherwise).
+ * @customfunction NODCOUNT
+ * @param {any[][]} plants_dug Plants dug, a whole number (1–1000).
+ * @param {any[][]} nodules Nodules counted on all of them, a whole number (0–100000).
+ * @param {any[][]} legume Legume: "field pea", "faba bean", "vetch" (50 per plant is good), or a pasture legume (at least 20).
+ * @returns {any[][]} "Good: …"/"Adequate: …" or "Below: …" with the mean per plant and the source.
+ */
+export function nodcount(plants_dug: any[][], nodules: any[][], legume: any[][]): any[][] {
+  return NODCOUNT(arguments);
+}
+const NODCOUNT = declare(
+  nodcount,
+  [num("plants_dug"), num("nodules"), text("legume")],
+  (dug, nodules, legume) => nfixNoduleCount(dug, nodules, legume),
+);
+
+/**
+ * Soil constraints on N2 fixation for a legume: pH for its rhizobia, nitrate at sowing, Mo, B; each with its source.
+ * @customfunction FIXSOIL
+ * @param {any[][]} legume Legume or inoculant group, e.g. "field pea", "chickpea", "lupin", "subterranean clover", "lucerne", "group N".
+ * @param {any[][]} ph Soil pH (0–14), by the test named in ph_method.
+ * @param {any[][]} ph_method "CaCl2" or "water": different tests, never assumed; a level is compared only with its own test.
+ * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured, listed as not checked.
+ * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
+ * @returns {any[][]} "n constraints found: …" or "none found in the checks made: …", then the checks not made and why.
+ */
+export function fixsoil(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
+  return FIXSOIL(arguments);
+}
+const FIXSOIL = declare(
+  fixsoil,
+  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  (legume, ph, method, nitrate, b) => nfixSoilText(legume, ph, method, nitrate, b),
+);
+
+/**
+ * Number of soil factors (pH, nitrate, Mo, B) constraining N2 fixation for a legume, 0–4, for banding a report.
+ * @customfunction FIXSOILCOUNT
+ * @param {any[][]} legume Legume or inoculant group, as in SOIL.FIXSOIL.
+ * @param {any[][]} ph Soil pH (0–14), by the test named in ph_method.
+ * @param {any[][]} ph_method "CaCl2" or "water": different tests, never assumed.
+ * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured.
+ * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
+ * @returns {any[][]} Constraints found, 0–4; 0 means none in the checks made (SOIL.FIXSOIL lists them).
+ */
+export function fixsoilcount(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
+  return FIXSOILCOUNT(arguments);
+}
+const FIXSOILCOUNT = declare(
+  fixsoilcount,
+  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  (legume, ph, method, nitrate, b) => nfixSoilCount(legume, ph, method, nitrate, b),
+);

@@ -7,7 +7,9 @@
  * CCE, fineness and moisture (Source: Penn State AASL notes; BC Soil Factsheet 637.200-2), bands
  * by the Colwell P critical ranges (Source: GRDC Update 2020, southern NSW), legume N by the
  * shoot-based and per-tonne rules (Source: Peoples et al. 2012; Walley et al. 2007 as reported
- * in doi:10.1007/s13593-015-0297-y).
+ * in doi:10.1007/s13593-015-0297-y; Khan et al. 2002, Plant and Soil, for faba bean and
+ * chickpea), root digs by the University of Adelaide grower guide's scale and the soil screen by
+ * its published levels (Sources in src/data/nitrogen/legume-checks.json).
  */
 import crypto from "crypto";
 import fs from "fs";
@@ -21,6 +23,8 @@ import { bandPosition } from "../../src/core/bands/bands";
 import { sufficiencyTableId, sufficiencyTables } from "../../src/core/bands/sufficiency";
 import { nfixFixedN, nfixPerTonne, nfixShootDm } from "../../src/core/nitrogen/nitrogen";
 import { nfixNdfa } from "../../src/core/nitrogen/isotope";
+import { nfixNodulationRating } from "../../src/core/nitrogen/nodulation";
+import { nfixSoilCount } from "../../src/core/nitrogen/fixation-soil";
 import { tempDir } from "../helpers/workbook";
 
 const SAMPLES = path.join(repoRoot(), "sample-workbooks");
@@ -194,6 +198,39 @@ describe("npm run demo (invented sample workbooks)", () => {
     expect(farm.paddocks).toBe(rows.length);
     expect(farm.nFixedKg).toBeCloseTo(fixedKg, 4);
     expect(summary.legumeNegative.every((id) => /^(WRN|QDH)-/.test(id))).toBe(true); // the soybean paddocks
+  });
+
+  it("legume checks: paddocks with a soil constraint and with poor or no nodulation equal the core screen and rating of the dig inputs", async () => {
+    const rows = await rowsOf(LEGUME, LAYOUT.SHEETS.nodulation, H.sampleId);
+    const constrained: string[] = [];
+    const poor: string[] = [];
+    for (const r of rows) {
+      const word = String(r["Legume, as the checks name it"]);
+      const count = nfixSoilCount(word, num(r["Soil pH (CaCl2), 0-10 cm"])!, "CaCl2", num(r["Nitrate-N at sowing (kg N/ha)"]), num(r["Hot-water B (mg/kg)"]));
+      if (count > 0) constrained.push(String(r[H.sampleId]));
+      const rating = nfixNodulationRating(num(r["Plants dug"])!, num(r["Plants adequately nodulated"])!, num(r["Nodules counted"]));
+      if (/^(Poor|None):/.test(rating)) poor.push(String(r[H.sampleId]));
+    }
+    const c = summary.legumeChecks!;
+    expect(c.paddocks).toBe(rows.length);
+    expect(c.constrained).toEqual(constrained);
+    expect(c.poorNodulation).toEqual(poor);
+    // The invented season has both kinds, and the uninoculated soybean dig with no nodules rates None.
+    expect(constrained.length).toBeGreaterThan(0);
+    expect(poor).toContain("QDH-03");
+    expect(printed).toContain(`  paddocks with a soil constraint on fixation: ${constrained.length} of ${rows.length} (${constrained.join(", ")})`);
+    expect(printed).toContain(`  paddocks with poor or no nodulation: ${poor.length} of ${rows.length} (${poor.join(", ")})`);
+  });
+
+  it("the dig sheet's counts are whole numbers and its soil tests name the pH test (CaCl2) in the formula", async () => {
+    const rows = await rowsOf(LEGUME, LAYOUT.SHEETS.nodulation, H.sampleId);
+    for (const r of rows) {
+      for (const k of ["Plants dug", "Plants adequately nodulated", "Nodules counted", "Nodules pink inside"]) expect(Number.isInteger(num(r[k]))).toBe(true);
+    }
+    const JSZip = (await import("jszip")).default;
+    const zip = await JSZip.loadAsync(fs.readFileSync(LEGUME));
+    const sheets = (await Promise.all(Object.keys(zip.files).filter((n) => /^xl\/worksheets\/sheet\d+\.xml$/.test(n)).map((n) => zip.file(n)!.async("string")))).join("");
+    expect(sheets).toMatch(/_xldudf_SOIL_FIXSOIL\([A-Z]+3:[A-Z]+32,[A-Z]+3:[A-Z]+32,&quot;CaCl2&quot;,/);
   });
 
   it("the committed workbooks hold Excel's stored form with cached values", async () => {

@@ -43,8 +43,29 @@ describe("legume nitrogen formulas", () => {
       message: "d15n_reference equals b_value (-1 ‰): the natural abundance method cannot tell soil N from fixed N here",
     });
   });
+  it("SOIL.NFIXED takes a crop's below-ground share and SOIL.NFIXDM the crop rule (Khan et al. 2002: chickpea 48 %; GRDC back pocket guide: 25 kg N/t)", () => {
+    expect(num('=SOIL.NFIXED(5,2.6,60,"chickpea")')).toBeCloseTo(78 / 0.52, 9);
+    expect(num('=SOIL.NFIXDM(6,"crop")')).toBe(150);
+  });
+  it("root digs: % adequate, rating and pink share spill over array columns (University of Adelaide grower guide scale; counts invented)", () => {
+    expect(evaluateFormula("=SOIL.NODPCT({30;30;30},{21;15;9})").value).toEqual([[70], [50], [30]]);
+    const ratings = evaluateFormula("=SOIL.NODRATING({30;30;30},{21;15;0},{400;300;0})").value as string[][];
+    expect(ratings.map((r) => r[0]!.split(":")[0])).toEqual(["Adequate", "Borderline", "None"]);
+    expect(num("=SOIL.NODPINK(40,30)")).toBe(75);
+  });
+  it("SOIL.NODCOUNT for a legume without a published count is #N/A with a message", () => {
+    const r = evaluateFormula('=SOIL.NODCOUNT(30,900,"lentil")');
+    expect(r.error).toBe("#N/A");
+    expect(r.message).toMatch(/^no published nodules-per-plant count for lentil/);
+  });
+  it("SOIL.FIXSOIL and SOIL.FIXSOILCOUNT (GRDC Paddock Practices 2022: pulses below pH 5.5 CaCl2; readings invented)", () => {
+    expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",5.2,"CaCl2",40)').value).toMatch(/^2 constraints found: pH 5.2 \(CaCl2\) is below 5.5/);
+    expect(num('=SOIL.FIXSOILCOUNT("faba bean",5.2,"CaCl2",40)')).toBe(2);
+    expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",6.2,"water")').value).toMatch(/^none found in the checks made: Mo: /);
+    expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",6.2,"")').message).toMatch(/^ph_method is required/);
+  });
   it("SOIL.ABOUT has a line for each legume-N function", () => {
-    for (const id of ["NFIXED", "NFIXDM", "NDFA", "NDIFF", "NBALANCE", "SHOOTDM"]) {
+    for (const id of ["NFIXED", "NFIXDM", "NDFA", "NDIFF", "NBALANCE", "SHOOTDM", "NODPCT", "NODRATING", "NODPINK", "NODCOUNT", "FIXSOIL", "FIXSOILCOUNT"]) {
       expect(typeof evaluateFormula(`=SOIL.ABOUT("${id}")`).value).toBe("string");
     }
   });

@@ -3,7 +3,7 @@
  * as host errors. Expected values are derived from the equations (Source: published-values
  * NFIX-02, NFIX-04, NFIX-08); other inputs are invented.
  */
-import { nfixed, nfixdm, ndfa, ndiff, nbalance, shootdm } from "../../src/functions/nitrogen";
+import { nfixed, nfixdm, ndfa, ndiff, nbalance, shootdm, nodpct, nodrating, nodpink, nodcount, fixsoil, fixsoilcount } from "../../src/functions/nitrogen";
 import { PlainHostError, specOf } from "../../src/functions/_binding";
 import { aboutFunction } from "../../src/core/about";
 
@@ -41,6 +41,10 @@ describe("SOIL.NFIXDM", () => {
   });
   it("a row of DM against a number rule and a factor", () => {
     expect(nfixdm([[1, 2, ""]], [[20]], [[2]])).toEqual([[40, 80, ""]]);
+  });
+  it("the crop rule and a crop's below-ground factor (GRDC back pocket guide 25 kg N/t; Khan et al. 2002 faba bean 30 %)", () => {
+    expect(nfixdm([[4]], [["crop"]])[0]![0]).toBe(100);
+    expect(nfixdm([[4]], [["crop"]], [["faba bean"]])[0]![0]).toBeCloseTo(100 / 0.7, 9);
   });
   it("omitted kg_n_per_t is #VALUE! listing the rule words", () => {
     expect(err(nfixdm([[5]], null as never)[0]![0])).toMatch(/^#VALUE! kg_n_per_t is needed.*"pasture"/);
@@ -81,7 +85,64 @@ describe("SOIL.NDIFF, SOIL.NBALANCE, SOIL.SHOOTDM", () => {
   });
 });
 
+describe("root digs: SOIL.NODPCT, SOIL.NODRATING, SOIL.NODPINK, SOIL.NODCOUNT (scale: University of Adelaide grower guide; counts: GRDC Communities, MLA e-learning; dig counts invented)", () => {
+  it("NODPCT spills over a column of digs; blank in, blank out", () => {
+    expect(nodpct([[30], [30], [""]], [[21], [15], [10]])).toEqual([[70], [50], [""]]);
+  });
+  it("NODRATING: a blank nodule cell means not counted (Poor, with the hint), 0 nodules means None", () => {
+    const out = nodrating([[30], [30], [30]], [[0], [0], [25]], [[0], [""], [400]]);
+    expect(out[0]![0]).toMatch(/^None: /);
+    expect(out[1]![0]).toMatch(/^Poor: 0 % .*count nodules to tell Poor from None/);
+    expect(out[2]![0]).toMatch(/^Adequate: 83.33 % /);
+  });
+  it("NODRATING refuses more plants adequate than dug (a percentage typed as a count)", () => {
+    expect(err(nodrating([[30]], [[70]])[0]![0])).toMatch(/^#VALUE! plants_adequate \(70\) is more than plants_dug \(30\)/);
+  });
+  it("NODPINK: 30 of 40 is 75 %; no nodules is #VALUE!", () => {
+    expect(nodpink([[40], [0]], [[30], [0]])[0]![0]).toBe(75);
+    expect(err(nodpink([[0]], [[0]])[0]![0])).toMatch(/^#VALUE! nodules is 0/);
+  });
+  it("NODCOUNT: a crop with a published count is judged, one without is #N/A (no invented rating)", () => {
+    const out = nodcount([[30]], [[1620], [900]], [["faba bean"], ["lentil"]]);
+    expect(out[0]![0]).toMatch(/^Good: 54 nodules per plant/);
+    expect(err(out[1]![0])).toMatch(/^#N\/A no published nodules-per-plant count for lentil/);
+  });
+  it("declare their arguments in order", () => {
+    expect(specOf(nodpct)?.params.map((p) => p.name)).toEqual(["plants_dug", "plants_adequate"]);
+    expect(specOf(nodrating)?.params.map((p) => p.name)).toEqual(["plants_dug", "plants_adequate", "nodules"]);
+    expect(specOf(nodpink)?.params.map((p) => p.name)).toEqual(["nodules", "nodules_pink"]);
+    expect(specOf(nodcount)?.params.map((p) => p.name)).toEqual(["plants_dug", "nodules", "legume"]);
+  });
+});
+
+describe("soil screen: SOIL.FIXSOIL and SOIL.FIXSOILCOUNT (levels: GRDC Paddock Practices 2022; Cox, GRDC Communities; Voisin et al. 2002; Molybdenum – NSW fact sheet; readings invented)", () => {
+  it("a column of paddocks: text per paddock and the count beside it", () => {
+    const legumes = [["field pea"], ["chickpea"], ["lucerne"]];
+    const ph = [[5.1], [6.4], [5.8]];
+    const nitrate = [[120], [60], [""]];
+    const text = fixsoil(legumes, ph, [["CaCl2"]], nitrate);
+    expect(text[0]![0]).toMatch(/^3 constraints found: /);
+    expect(text[1]![0]).toMatch(/^none found in the checks made: /);
+    expect(text[2]![0]).toMatch(/^none found in the checks made: Mo: pH 5.8 \(CaCl2\) is above 5.5.* Not checked: .*B: hot-water B not given/);
+    expect(fixsoilcount(legumes, ph, [["CaCl2"]], nitrate)).toEqual([[3], [0], [0]]);
+  });
+  it("ph_method omitted or blank is #VALUE! saying it is required; a blank pH gives a blank result", () => {
+    expect(err(fixsoil([["lentil"]], [[6]], null as never)[0]![0])).toMatch(/^#VALUE! ph_method is required/);
+    expect(err(fixsoil([["lentil"]], [[6]], [[""]])[0]![0])).toMatch(/^#VALUE! ph_method is required/);
+    expect(fixsoilcount([["lentil"]], [[""]], [["water"]])).toEqual([[""]]);
+  });
+  it("declare their arguments in order", () => {
+    const args = ["legume", "ph", "ph_method", "nitrate_kg_ha", "hot_water_b_mg_kg"];
+    expect(specOf(fixsoil)?.params.map((p) => p.name)).toEqual(args);
+    expect(specOf(fixsoilcount)?.params.map((p) => p.name)).toEqual(args);
+  });
+});
+
 describe("ABOUT lines", () => {
+  it.each(["NODPCT", "NODRATING", "NODPINK", "NODCOUNT", "FIXSOIL", "FIXSOILCOUNT"])("%s names its sources and says the inoculant's label and local advice govern", (id) => {
+    expect(aboutFunction(id)).toMatch(/(19|20)\d\d|GRDC|MLA|University of Adelaide/);
+    expect(aboutFunction(id)).toContain("Screening aid: an inoculant's label and local advice govern.");
+  });
   it.each(["NFIXED", "NFIXDM", "NDFA", "NDIFF", "NBALANCE", "SHOOTDM"])("%s has a line naming a source", (id) => {
     expect(aboutFunction(id)).toMatch(/(19|20)\d\d|common practice/);
   });

@@ -205,6 +205,27 @@ export const CASES: readonly HostCase[] = [
     args: [250, 90, 40, 60],
     expected: 140,
   },
+  {
+    name: "NODRATING over a column of digs: 21/30 Adequate, 15/30 Borderline, none with 0 nodules (Source: University of Adelaide, Grower guide to assessing legume nodulation – Riverina, seen; counts invented)",
+    area: "nitrogen",
+    id: "NODRATING",
+    args: [col(30, 30, 30), col(21, 15, 0), col(400, null, 0)],
+    expected: [[/^Adequate: 70 % of plants adequately nodulated/], [/^Borderline: 50 % of plants/], [/^None: no nodules on the 30 plants dug/]],
+  },
+  {
+    name: "NODCOUNT for lentil has no published per-plant count: #N/A (no invented rating; counts invented)",
+    area: "nitrogen",
+    id: "NODCOUNT",
+    args: [30, 900, "lentil"],
+    expected: err(/^no published nodules-per-plant count for lentil was found/, "#N/A"),
+  },
+  {
+    name: "FIXSOILCOUNT field pea at pH 5.1 CaCl2 with 120 kg nitrate-N: pH, nitrate and Mo (Sources: GRDC Paddock Practices 2022; Voisin et al. 2002; Cox, GRDC Communities; Molybdenum – NSW fact sheet; all seen; readings invented)",
+    area: "nitrogen",
+    id: "FIXSOILCOUNT",
+    args: ["field pea", 5.1, "CaCl2", 120],
+    expected: 3,
+  },
   // ---- lime --------------------------------------------------------------------------------
   {
     name: "LIMEBUFFER SIKORA-OR2025 buffer 6.0 to pH 5.6 is 1.7 ton/ac (Source: Moore 2025, OSU Extension EM 9585 Table 1, seen)",

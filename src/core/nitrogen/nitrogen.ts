@@ -2,7 +2,8 @@
  * Legume N2 fixation from shoot measurements: the shoot-based estimate (dry matter × N % × %Ndfa ×
  * below-ground factor), the per-tonne rule of thumb, the grain N balance and shoot dry matter from
  * harvest index. Factors, rules and guards are data in `src/data/nitrogen/*.json`, each with its
- * source; no default below-ground factor exists because the published ones could not be verified.
+ * source. There is no default below-ground factor: the general crop and pasture factors could not
+ * be verified, so a factor is a number, "shoot", "walley2007" or a crop with a published share.
  */
 import rootFactors from "../../data/nitrogen/root-factors.json";
 import perTonne from "../../data/nitrogen/per-tonne.json";
@@ -85,15 +86,20 @@ export const NFIX_PER_TONNE_WORDS: readonly string[] = PER_TONNE.ids;
 
 /**
  * The below-ground factor (whole-plant N ÷ shoot N) from a number or a word of
- * `src/data/nitrogen/root-factors.json`: `shoot` (1, shoots only) or `walley2007` (1 / (1 − 0.24):
+ * `src/data/nitrogen/root-factors.json`: `shoot` (1, shoots only), `walley2007` (1 / (1 − 0.24):
  * roots 14 % and rhizodeposits 10 % of plant N, pulses of the Northern Great Plains, Walley et al.
- * 2007 as reported in Agron. Sustain. Dev. 2015, doi:10.1007/s13593-015-0297-y; seen).
+ * 2007 as reported in Agron. Sustain. Dev. 2015, doi:10.1007/s13593-015-0297-y; seen), or a crop
+ * with a published below-ground share s, factor 1 / (1 − s): faba bean 30 %, chickpea 48 %,
+ * mungbean 28 %, pigeonpea 43 % of total plant N (Khan et al. 2002, Plant and Soil, glasshouse
+ * pots; abstract seen).
  * @param value a factor from 1 to 10, numeric text, or a word; undefined when not given
  * @returns the factor, ≥ 1
  * @throws MISSING_INPUT when not given: there is no default, because the crop and pasture factors of
  *   Unkovich, Baldock & Peoples (2010) and Peoples et al. (2009) could not be verified
- * @throws UNKNOWN_NAME for another word; OUT_OF_RANGE below 1 or above 10 (a percentage given as a factor)
+ * @throws UNKNOWN_NAME for another word (a crop without a published share, e.g. lupin, included);
+ *   OUT_OF_RANGE below 1 or above 10 (a percentage given as a factor)
  * @example nfixRootFactor("walley2007") //=> 1.31579
+ * @example nfixRootFactor("faba bean") //=> 1.42857
  */
 export function nfixRootFactor(value: string | number | undefined): number {
   if (value === undefined || (typeof value === "string" && value.trim() === "")) {
@@ -118,20 +124,22 @@ export function nfixRootFactor(value: string | number | undefined): number {
 }
 
 /**
- * The per-tonne rule, kg shoot N fixed per t shoot DM, from a number or a word of
- * `src/data/nitrogen/per-tonne.json`: `pasture` (20; Peoples et al. 2012, Crop & Pasture Sci.
- * 63:759–786, abstract seen).
+ * The per-tonne rule, kg N fixed per t shoot DM, from a number or a word of
+ * `src/data/nitrogen/per-tonne.json`: `pasture` (20 kg shoot N; Peoples et al. 2012, Crop & Pasture
+ * Sci. 63:759–786, abstract seen) or `crop` (25 kg N, inoculated legumes on average; GRDC 2013,
+ * Inoculating legumes: The Back Pocket Guide, as quoted by SeedQuest 2014; seen, secondary).
  * @param value kg N/t from 0 to 160, numeric text, or a word; undefined when not given
  * @returns kg shoot N fixed per t shoot DM
- * @throws MISSING_INPUT when not given (no crop-legume rule could be verified, so none is assumed);
+ * @throws MISSING_INPUT when not given (pasture or crop legume: the rule differs, so none is assumed);
  *   UNKNOWN_NAME for another word; OUT_OF_RANGE outside 0–160 (160 = 1 t of tissue at 16 % N)
  * @example nfixKgPerTonne("pasture") //=> 20
+ * @example nfixKgPerTonne("crop") //=> 25
  */
 export function nfixKgPerTonne(value: string | number | undefined): number {
   if (value === undefined || (typeof value === "string" && value.trim() === "")) {
     throw new SoilError(
       "MISSING_INPUT",
-      `kg_n_per_t is needed: give kg shoot N fixed per t shoot dry matter for your legume, ` +
+      `kg_n_per_t is needed: give kg N fixed per t shoot dry matter for your legume, ` +
         `or ${listWords(perTonne.rules.map((r) => `"${r.id}" (${r.kg_n_per_t} kg N/t)`))}; there is no default rule`,
     );
   }
@@ -168,15 +176,17 @@ export function nfixFixedN(shootDm: number, shootNPct: number, ndfaPct: number, 
 }
 
 /**
- * N2 fixed by the per-tonne rule, kg N/ha: shoot DM × kg shoot N fixed per t × below-ground factor.
- * Rule: about 20 kg shoot N fixed per t herbage DM for pasture legumes (Peoples et al. 2012, Crop &
- * Pasture Sci. 63:759–786; seen). Without rootFactor the result is shoot N fixed only.
+ * N2 fixed by the per-tonne rule, kg N/ha: shoot DM × kg N fixed per t × below-ground factor.
+ * Rules: about 20 kg shoot N fixed per t herbage DM for pasture legumes (Peoples et al. 2012, Crop &
+ * Pasture Sci. 63:759–786; seen); 25 kg N per t shoot DM for inoculated crop legumes on average
+ * (GRDC 2013 back pocket guide, as quoted; seen). Without rootFactor the factor is 1.
  * @param shootDm legume shoot dry matter, t/ha, 0–60
  * @param kgNPerT see nfixKgPerTonne; required
  * @param rootFactor see nfixRootFactor; default "shoot" (1: the rule counts shoot N only)
  * @returns kg N/ha fixed
  * @throws OUT_OF_RANGE for inputs outside their bounds; MISSING_INPUT without kgNPerT
  * @example nfixPerTonne(5, "pasture") //=> 100
+ * @example nfixPerTonne(4, "crop") //=> 100
  */
 export function nfixPerTonne(shootDm: number, kgNPerT: string | number | undefined, rootFactor?: string | number): number {
   shootDmOk(shootDm);

@@ -38,7 +38,7 @@ describe("nfixFixedN: shoot DM × N % × %Ndfa × factor", () => {
   it("without a below-ground factor: MISSING_INPUT, because the Unkovich et al. 2010 / Peoples et al. 2009 factors could not be verified (root-factors.json not_used)", () => {
     expect(code(() => nfixFixedN(8, 2.5, 80, undefined))).toBe("MISSING_INPUT");
     expect(code(() => nfixFixedN(8, 2.5, 80, " "))).toBe("MISSING_INPUT");
-    expect(message(() => nfixFixedN(8, 2.5, 80, undefined))).toMatch(/"shoot" or "walley2007"/);
+    expect(message(() => nfixFixedN(8, 2.5, 80, undefined))).toMatch(/"shoot", "walley2007", "faba bean"/);
   });
   it("the unverified synthesis is recorded as not used, not as a row", () => {
     expect(rootFactors.not_used[0]!.source).toMatch(/Unkovich, Baldock & Peoples \(2010\)/);
@@ -50,9 +50,9 @@ describe("nfixFixedN: shoot DM × N % × %Ndfa × factor", () => {
     expect(code(() => nfixRootFactor(40))).toBe("OUT_OF_RANGE");
     expect(message(() => nfixRootFactor(40))).toMatch(/100 ÷ \(100 − s\)/);
   });
-  it("unknown factor word: UNKNOWN_NAME listing the words; '1,5' is NOT_A_NUMBER", () => {
+  it("unknown factor word (lupin: no published share seen) is UNKNOWN_NAME listing the words; '1,5' is NOT_A_NUMBER", () => {
     expect(code(() => nfixRootFactor("lupin"))).toBe("UNKNOWN_NAME");
-    expect(message(() => nfixRootFactor("lupin"))).toMatch(/shoot or walley2007/);
+    expect(message(() => nfixRootFactor("lupin"))).toMatch(/shoot, walley2007, faba bean, chickpea, mungbean or pigeonpea/);
     expect(code(() => nfixRootFactor("1,5"))).toBe("NOT_A_NUMBER");
   });
   it("shoot N % above 16 is OUT_OF_RANGE with the crude-protein hint (16 % = 100/6.25, Jones factor, from memory; common practice)", () => {
@@ -71,6 +71,40 @@ describe("nfixFixedN: shoot DM × N % × %Ndfa × factor", () => {
   });
   it("zero shoot DM gives 0, a real zero (no crop, no fixation)", () => {
     expect(nfixFixedN(0, 2.5, 80, "shoot")).toBe(0);
+  });
+});
+
+describe("crop below-ground factors: 1 / (1 − share) from Khan et al. (2002) Plant and Soil, 'Quantifying below-ground nitrogen of legumes 2', abstract seen (average of isotopic and mass N balance methods)", () => {
+  it.each([
+    ["faba bean", 30],
+    ["chickpea", 48],
+    ["mungbean", 28],
+    ["pigeonpea", 43],
+  ] as const)("%s: below-ground N %i % of total plant N", (crop, share) => {
+    expect(nfixRootFactor(crop)).toBeCloseTo(1 / (1 - share / 100), 12);
+  });
+  it("printed factors to 3 significant figures: faba bean 1.43, chickpea 1.92, mungbean 1.39, pigeonpea 1.75 (derived)", () => {
+    expect(nfixRootFactor("faba bean")).toBeCloseTo(1.43, 2);
+    expect(nfixRootFactor("chickpea")).toBeCloseTo(1.92, 2);
+    expect(nfixRootFactor("mungbean")).toBeCloseTo(1.39, 2);
+    expect(nfixRootFactor("pigeonpea")).toBeCloseTo(1.75, 2);
+  });
+  it("crop words are matched case- and space-insensitively, with the spellings of the trade", () => {
+    expect(nfixRootFactor("Faba Bean")).toBe(nfixRootFactor("fababean"));
+    expect(nfixRootFactor("broad bean")).toBe(nfixRootFactor("faba bean"));
+    expect(nfixRootFactor("Mung bean")).toBe(nfixRootFactor("mungbean"));
+    expect(nfixRootFactor("pigeon pea")).toBe(nfixRootFactor("pigeonpea"));
+  });
+  it("a faba bean crop: 200 kg shoot N/ha at 80 % Ndfa fixes 160 kg in shoots, 228.6 kg with roots (derived)", () => {
+    expect(nfixFixedN(8, 2.5, 80, "faba bean")).toBeCloseTo(160 / 0.7, 9);
+  });
+  it("every crop row records its share, the source and where it was seen", () => {
+    const crops = rootFactors.factors.filter((r) => !["shoot", "walley2007"].includes(r.id));
+    expect(crops.map((r) => r.id)).toEqual(["faba bean", "chickpea", "mungbean", "pigeonpea"]);
+    for (const r of crops) {
+      expect(r.source).toMatch(/Quantifying below-ground nitrogen of legumes/);
+      expect(r.seen_at).toMatch(/^https:/);
+    }
   });
 });
 
@@ -103,6 +137,18 @@ describe("nfixPerTonne: the shoot-dry-matter rule", () => {
     expect(nfixKgPerTonne("Pasture-legumes")).toBe(20);
     expect(perTonne.rules[0]!.seen_at).toMatch(/latrobe/);
   });
+  it("'crop' is 25 kg N fixed per t legume shoot DM for inoculated legumes (GRDC 2013, Inoculating legumes: The Back Pocket Guide, as quoted by SeedQuest 2014; seen, secondary)", () => {
+    expect(nfixKgPerTonne("crop")).toBe(25);
+    expect(nfixKgPerTonne("Crop-legumes")).toBe(25);
+    expect(perTonne.rules.find((r) => r.id === "crop")!.seen_at).toMatch(/seedquest/);
+  });
+  it("4 t/ha of crop legume shoot DM × 25 kg/t = 100 kg N/ha (derived from the guide's rule)", () => {
+    expect(nfixPerTonne(4, "crop")).toBe(100);
+  });
+  it("pastures keep their 20 kg/t rule beside the crop rule", () => {
+    expect(nfixPerTonne(5, "pasture")).toBe(100);
+    expect(nfixPerTonne(5, "crop")).toBe(125);
+  });
   it("5 t/ha × 20 kg/t = 100 kg N/ha (NFIX-08, derived)", () => {
     expect(nfixPerTonne(5, "pasture")).toBe(100);
   });
@@ -114,9 +160,9 @@ describe("nfixPerTonne: the shoot-dry-matter rule", () => {
     expect(nfixPerTonne(4, 18)).toBeCloseTo(72, 12);
     expect(nfixPerTonne(4, 18, "")).toBeCloseTo(72, 12);
   });
-  it("without a rule: MISSING_INPUT (no crop-legume rule was verified); unknown word: UNKNOWN_NAME", () => {
+  it("without a rule: MISSING_INPUT (pasture and crop rules differ, so none is assumed); unknown word: UNKNOWN_NAME", () => {
     expect(code(() => nfixPerTonne(4, undefined))).toBe("MISSING_INPUT");
-    expect(message(() => nfixPerTonne(4, undefined))).toMatch(/"pasture" \(20 kg N\/t\)/);
+    expect(message(() => nfixPerTonne(4, undefined))).toMatch(/"pasture" \(20 kg N\/t\) or "crop" \(25 kg N\/t\)/);
     expect(code(() => nfixPerTonne(4, "lupin"))).toBe("UNKNOWN_NAME");
   });
   it("more than 160 kg N/t (1 t of tissue at 16 % N) is OUT_OF_RANGE (derived guard)", () => {

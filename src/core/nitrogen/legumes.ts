@@ -1,0 +1,178 @@
+/**
+ * The legume words of the legume checks and the published levels each one is checked against, read
+ * from `src/data/nitrogen/legume-checks.json` (one source per level). Shared by the nodulation
+ * functions and the soil screen; typed keys are resolved once, at load, so a row naming a level
+ * that does not exist fails the first test that loads this module.
+ */
+import table from "../../data/nitrogen/legume-checks.json";
+import { SoilError } from "../errors";
+import { nameTable } from "../names";
+import { check, Bound } from "../validate";
+
+/** How a reading is compared with a published level, as the source words it. */
+export type FlagWhen = "below" | "at_or_below" | "above" | "at_or_above";
+
+/** A published level: the reading is flagged when it lies on the `flagWhen` side of `level`. */
+export interface Level {
+  readonly id: string;
+  readonly level: number;
+  readonly flagWhen: FlagWhen;
+  /** What the source says happens on the flagged side, in a sentence fragment. */
+  readonly meaning: string;
+  /** Short citation shown in results, e.g. "GRDC Paddock Practices 2022 (SARDI)". */
+  readonly short: string;
+}
+
+export interface PhLevel extends Level {
+  /** The pH test the source states, or "not stated". */
+  readonly test: "CaCl2" | "water" | "not stated";
+}
+
+export interface CountLevel extends Level {
+  /** The source's own word for a count that meets the level ("Good", "Adequate"). */
+  readonly metLabel: string;
+}
+
+export interface BoronLevel extends Level {
+  readonly method: string;
+}
+
+export interface Legume {
+  readonly id: string;
+  readonly kind: string;
+  readonly ph?: PhLevel;
+  readonly nitrate: readonly Level[];
+  readonly count?: CountLevel;
+  readonly boron?: BoronLevel;
+  /** Published context shown beside a check (e.g. why a legume has no pH level). */
+  readonly phNote?: string;
+  readonly nitrateNote?: string;
+  readonly note?: string;
+}
+
+const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** An optional measurement: blank or omitted is "not measured", a number or numeric text is read. */
+export function measured(value: string | number | undefined, bound: Bound): number | undefined {
+  if (value === undefined) return undefined;
+  if (typeof value === "number") return check(value, bound);
+  const t = value.trim();
+  if (t === "") return undefined;
+  if (!NUMERIC_TEXT.test(t)) {
+    const hint = /^[<>]/.test(t)
+      ? " (a below- or above-detection value is your call: enter a number or leave the cell blank)"
+      : /\d,\d/.test(t)
+        ? " (use a full stop as the decimal separator)"
+        : "";
+    throw new SoilError("NOT_A_NUMBER", `${bound.name}: "${value}" is not a number${hint}`);
+  }
+  return check(Number(t), bound);
+}
+
+/** True when `value` lies on the flagged side of the level. */
+export function flagged(value: number, l: Level): boolean {
+  switch (l.flagWhen) {
+    case "below":
+      return value < l.level;
+    case "at_or_below":
+      return value <= l.level;
+    case "above":
+      return value > l.level;
+    case "at_or_above":
+      return value >= l.level;
+  }
+}
+
+const FLAG_WORDS: Record<FlagWhen, readonly [flaggedWord: string, clearWord: string]> = {
+  below: ["below", "not below"],
+  at_or_below: ["at or below", "above"],
+  above: ["above", "not above"],
+  at_or_above: ["at or above", "below"],
+};
+
+/** "below 5.5" or "not below 5.5": how the reading stands against the level, in words. */
+export function sideWords(value: number, l: Level): string {
+  const [yes, no] = FLAG_WORDS[l.flagWhen];
+  return `${flagged(value, l) ? yes : no} ${fmt(l.level)}`;
+}
+
+/** A number as a report shows it: at most 6 significant figures, no trailing zeros. */
+export function fmt(v: number): string {
+  return String(Number(v.toPrecision(6)));
+}
+
+interface RawLevel {
+  id: string;
+  level?: number;
+  per_plant?: number;
+  flag_when: string;
+  meaning?: string;
+  met_meaning?: string;
+  short: string;
+}
+
+function level(r: RawLevel): Level {
+  const value = r.level ?? r.per_plant;
+  if (value === undefined || !(r.flag_when in FLAG_WORDS)) throw new Error(`legume-checks.json: level ${r.id} is malformed`);
+  return { id: r.id, level: value, flagWhen: r.flag_when as FlagWhen, meaning: r.meaning ?? r.met_meaning ?? "", short: r.short };
+}
+
+function byId<T extends { id: string }>(rows: readonly T[]): Map<string, T> {
+  return new Map(rows.map((r) => [r.id, r]));
+}
+
+const PH = byId(table.ph_levels.map((r) => ({ ...level(r), test: r.test as PhLevel["test"] })));
+const NITRATE = byId(table.nitrate_levels.map(level));
+const COUNT = byId(table.count_levels.map((r) => ({ ...level(r), metLabel: r.met_label })));
+const BORON = byId(table.boron_levels.map((r) => ({ ...level(r), method: r.method })));
+
+function resolve<T>(map: Map<string, T>, id: string | null | undefined, legume: string): T | undefined {
+  if (id === null || id === undefined) return undefined;
+  const found = map.get(id);
+  if (!found) throw new Error(`legume-checks.json: ${legume} names an unknown level "${id}"`);
+  return found;
+}
+
+interface RawLegume {
+  id: string;
+  aliases: string[];
+  kind: string;
+  ph: string | null;
+  nitrate: string[];
+  count: string | null;
+  boron: string | null;
+  ph_note?: string;
+  nitrate_note?: string;
+  note?: string;
+}
+
+const LEGUMES: Legume[] = (table.legumes as RawLegume[]).map((r) => ({
+  id: r.id,
+  kind: r.kind,
+  ph: resolve(PH, r.ph, r.id),
+  nitrate: r.nitrate.map((id) => resolve(NITRATE, id, r.id) as Level),
+  count: resolve(COUNT, r.count, r.id),
+  boron: resolve(BORON, r.boron, r.id),
+  phNote: r.ph_note,
+  nitrateNote: r.nitrate_note,
+  note: r.note,
+}));
+
+const NAMES = nameTable((table.legumes as RawLegume[]).map((r, i) => ({ id: r.id, aliases: r.aliases, value: LEGUMES[i] as Legume })));
+
+/** Legume and inoculant-group words the legume checks accept. */
+export const LEGUME_WORDS: readonly string[] = NAMES.ids;
+
+/** The molybdenum level (all legumes) and the nodulation scale, as the data file gives them. */
+export const MO_LEVEL: PhLevel = { ...level({ id: "mo", ...table.mo_level }), test: table.mo_level.test as PhLevel["test"] };
+export const NODULATION_SCALE = table.nodulation_scale;
+export const PINK_NODULES = table.pink_nodules;
+
+/**
+ * The legume (or inoculant group) a word names, with its published levels.
+ * @throws UNKNOWN_NAME listing the accepted words
+ */
+export function legumeOf(word: string, argName = "legume"): Legume {
+  if (word.trim() === "") throw new SoilError("MISSING_INPUT", `${argName} is required: name the legume (e.g. "field pea") or inoculant group (e.g. "group N")`);
+  return NAMES.lookup(word, argName);
+}
