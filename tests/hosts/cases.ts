@@ -261,8 +261,8 @@ export const CASES: readonly HostCase[] = [
     name: "SUFFICIENCY with no table for the combination is #N/A (a gap in the shipped tables, not a value)",
     area: "bands",
     id: "SUFFICIENCY",
-    args: ["P", 30, "corn", "Colwell"],
-    expected: err(/no P Colwell table for corn/, "#N/A"),
+    args: ["P", 30, "barley", "Colwell"],
+    expected: err(/no P Colwell table for barley/, "#N/A"),
   },
   {
     name: "REMOVAL corn 10 t/ha as P2O5 is 72.5 kg/ha, the midpoint of 6.6–7.9 kg/t (Source: OMAFA Field Crop News 2025 'Crop Removal Values' Table 1, seen; derived)",

@@ -167,7 +167,7 @@ export function cecText(r: SufficiencyRow): string {
 /** What a row covers, in words: its crops or rotation. */
 export function coverText(r: SufficiencyRow): string {
   if (r.crops.includes(ANY)) return "any crop";
-  if (r.rotation?.only) return `rotation of ${listWords(r.rotation.only)} only`;
+  if (r.rotation?.only) return `rotation of ${r.rotation.only.join(" and ")} only`;
   if (r.rotation?.includes_any) return `rotation including ${listWords(r.rotation.includes_any)}`;
   return r.crops.join(", ");
 }
