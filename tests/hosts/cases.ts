@@ -235,6 +235,14 @@ export const CASES: readonly HostCase[] = [
     args: [col(78.8, 10, 2.4, 7.8)],
     expected: 85.28,
   },
+  {
+    name: "CCE of dolomite given as 21.7 % Ca and 13.1 % Mg is 108.14 % (Source: MN Dept. of Agriculture composition, seen; stoichiometry, derived)",
+    area: "lime",
+    id: "CCE",
+    args: [row(21.7, 13.1), row("Ca", "Mg")],
+    expected: 108.13571,
+    digits: 4,
+  },
   // ---- bands -------------------------------------------------------------------------------
   {
     name: "BAND text results spill over a column with a blank; a limit belongs to the band above (limits 10/20/30/40 invented)",
@@ -249,6 +257,14 @@ export const CASES: readonly HostCase[] = [
     id: "BAND",
     args: [5, row(10, 30, 20, 40)],
     expected: err(/strictly ascending/),
+  },
+  {
+    name: "ESPSAR of SAR 10 and 13 estimates ESP 11.8865 and 15.1931 % (Source: USDA Handbook 60 regression via OAC 165:10, secondary; arithmetic, derived)",
+    area: "cations",
+    id: "ESPSAR",
+    args: [col(10, 13)],
+    expected: [[11.88651], [15.19315]],
+    digits: 4,
   },
   {
     name: "SUFFICIENCY Mehlich-3 K 110 mg/kg for corn by CEC 4 and 15 (Source: Culman et al. 2020, Tri-State Bulletin 974, as restated by OSU Ag BMPs, seen)",
