@@ -51,10 +51,10 @@ const SCENARIO = {
     report: "QDA/2025/1187",
   },
   farmsA: [
-    { name: "Wrenhollow", code: "WRN", samples: 40, pMethod: "Mehlich-3", product: "Greyspar Aglime" },
-    { name: "Pellowmere", code: "PLM", samples: 36, pMethod: "Bray-1", product: "Fenlow Fine Lime" },
-    { name: "Quondle Hill", code: "QDH", samples: 38, pMethod: "Mehlich-3", product: "Slatebrook Dolomite" },
-    { name: "Brackenstow", code: "BRK", samples: 36, pMethod: "Bray-1", product: "Greyspar Aglime" },
+    { name: "Wrenhollow", code: "WRN", samples: 40, pMethod: "Mehlich-3", product: "Greyspar Aglime", rotation: "corn-soybean" },
+    { name: "Pellowmere", code: "PLM", samples: 36, pMethod: "Bray-1", product: "Fenlow Fine Lime", rotation: "corn-soybean" },
+    { name: "Quondle Hill", code: "QDH", samples: 38, pMethod: "Mehlich-3", product: "Slatebrook Dolomite", rotation: "corn-soybean-wheat" },
+    { name: "Brackenstow", code: "BRK", samples: 36, pMethod: "Bray-1", product: "Greyspar Aglime", rotation: "corn-soybean" },
   ],
   farmsB: [
     { name: "Ambergully", code: "AMB", samples: 44, bulkDensity: 1.32, product: "Greyspar Aglime" },

@@ -59,6 +59,7 @@ function seasonWorkbook(build) {
         s: round(r.lognormal(8, 0.35), 1),
         area: round(r.uniform(8, 45), 1),
         crop: r.chance(0.5) ? "corn" : "soybean",
+        rotation: farm.rotation,
         product: farm.product,
       });
     }
@@ -104,6 +105,17 @@ function seasonWorkbook(build) {
       });
     }
   }
+
+  // Lab B's DTPA micronutrients, from a second seeded generator so the values above are unchanged.
+  // A DTPA Mn of exactly 1.0 is avoided: its source classifies that value in neither band.
+  const r2 = rng(20250402);
+  for (const s of labB) {
+    s.zn = round(clamp(r2.lognormal(0.9, 0.6), 0.1, 6), 2);
+    s.cu = round(clamp(r2.lognormal(0.8, 0.5), 0.1, 5), 2);
+    const mn = round(clamp(r2.lognormal(6, 0.9), 0.3, 60), 1);
+    s.mn = mn === 1 ? 1.1 : mn;
+  }
+  for (const s of labB) for (const k of ["zn", "cu", "mn"]) if (r2.chance(0.03)) s[k] = null;
 
   // Real exports have gaps and the odd value typed as text. The report's paddock stays complete.
   const reportSample = labA.find((s) => s.farm === "Wrenhollow" && s.pM3 !== null && s.pM3 < 20 && s.buffer !== null && s.ph >= 5.6 && s.ph < 6.3 && s.k >= 122 && s.k < 168 && s.cec > 5);
@@ -205,9 +217,22 @@ function seasonWorkbook(build) {
 
   // --- Bands (the built-in tables this workbook uses, copied from the add-in's own data) ---
   const tables = sufficiency.sufficiencyTables();
-  const BAND_IDS = ["sare-bray1-p", "tristate2020-m3-p-corn-soybean", "tristate2020-m3-k-cec-5-or-less", "tristate2020-m3-k-cec-above-5", "grdc2020-colwell-p-wheat", "grdc2020-colwell-p-canola"];
+  const BAND_IDS = [
+    "sare-bray1-p",
+    "tristate2020-m3-p-corn-soybean",
+    "tristate2020-m3-p-wheat-alfalfa",
+    "tristate2020-m3-k-cec-5-or-less",
+    "tristate2020-m3-k-cec-above-5",
+    "grdc2020-colwell-p-wheat",
+    "grdc2020-colwell-p-canola",
+    "anderson2013-kcl40-s-wheat",
+    "anderson2013-kcl40-s-canola",
+    "havlin1999-dtpa-zn",
+    "havlin1999-dtpa-cu",
+    "havlin1999-dtpa-mn",
+  ];
   const bandRow = {};
-  const bandHead = ["Table", "Nutrient", "Method", "Crops", "CEC condition", "Limit 1", "Limit 2", "Limit 3", "Labels", "Source"];
+  const bandHead = ["Table", "Nutrient", "Method", "Crops", "CEC condition", "Limit 1", "Limit 2", "Limit 3", "Labels", "Edge rule (the source's)", "Source"];
   wsBands.getCell("A1").value = "Band limits used for SOIL.BANDPOS (copied from the add-in's reference tables; SOIL.SUFFICIENCY reads the same tables)";
   wsBands.getCell("A1").font = { bold: true, size: 13, color: { argb: COLOURS.blue } };
   bandHead.forEach((h, i) => {
@@ -224,16 +249,18 @@ function seasonWorkbook(build) {
     wsBands.getCell(`A${row}`).value = t.id;
     wsBands.getCell(`B${row}`).value = t.nutrient;
     wsBands.getCell(`C${row}`).value = t.method;
-    wsBands.getCell(`D${row}`).value = t.crop;
+    wsBands.getCell(`D${row}`).value = t.covers;
     wsBands.getCell(`E${row}`).value = t.cec;
     t.limits.forEach((l, j) => (wsBands.getCell(row, 6 + j).value = l));
     wsBands.getCell(`I${row}`).value = t.labels.join(" | ");
-    wsBands.getCell(`J${row}`).value = t.source;
+    wsBands.getCell(`J${row}`).value = t.edgeRule;
+    wsBands.getCell(`K${row}`).value = t.source;
   });
-  [36, 9, 11, 26, 18, 8, 8, 8, 60, 120].forEach((w, i) => (wsBands.getColumn(i + 1).width = w));
-  wsBands.getCell("A11").value =
-    "Position on the band scale (SOIL.BANDPOS): 0 at the first limit, 1 at the second, and so on; below 0 is the band under the first limit, which this workbook counts as below optimum.";
-  wsBands.getCell("A11").font = { italic: true, color: { argb: COLOURS.grey } };
+  [36, 9, 11, 30, 18, 8, 8, 8, 60, 90, 120].forEach((w, i) => (wsBands.getColumn(i + 1).width = w));
+  const bandNote = 4 + BAND_IDS.length + 1;
+  wsBands.getCell(`A${bandNote}`).value =
+    "Position on the band scale (SOIL.BANDPOS): 0 at the first limit, 1 at the second, and so on; below 0 is the band under the first limit, which this workbook counts as below optimum. BANDPOS draws bars only: the band word, with the source's own rule for a value on a limit, comes from SOIL.SUFFICIENCY.";
+  wsBands.getCell(`A${bandNote}`).font = { italic: true, color: { argb: COLOURS.grey } };
 
   // --- Lab sheets -------------------------------------------------------------------------
   const last = (list) => FIRST_ROW + list.length - 1;
@@ -325,9 +352,10 @@ function seasonWorkbook(build) {
     { key: "na", header: "Na (ppm)", group: "lab", width: 7, value: (s) => s.na },
     { key: "cec", header: "CEC (meq/100 g)", group: "lab", width: 9, value: (s) => s.cec },
     { key: "no3", header: "NO3-N (lb/ac)", group: "lab", width: 8, value: (s) => s.no3 },
-    { key: "s", header: "SO4-S (ppm)", group: "lab", width: 7, value: (s) => s.s },
+    { key: "s", header: layout.ANALYTES.find((a) => a.key === "S").unbanded[0], group: "lab", width: 7, value: (s) => s.s },
     { key: "area", header: H.area, group: "plan", width: 8, value: (s) => s.area },
     { key: "crop", header: H.crop, group: "plan", width: 9, value: (s) => s.crop },
+    { key: "rotation", header: H.rotation, group: "plan", width: 17, value: (s) => s.rotation },
     { key: "product", header: H.product, group: "plan", width: 19, value: (s) => s.product },
     { key: "cecSum", header: "CEC, sum of bases (cmol(+)/kg)", group: "soil", width: 11, numFmt: "0.0", spill: (S) => `SOIL.CEC(${S("ca")},${S("mg")},${S("k")},${S("na")})` },
     { key: "bs", header: "Base saturation (% of lab CEC)", group: "soil", width: 11, numFmt: "0", spill: (S) => `SOIL.SATURATION("bases",${S("ca")},${S("mg")},${S("k")},${S("na")},,${S("cec")})` },
@@ -338,11 +366,12 @@ function seasonWorkbook(build) {
     { key: "camg", header: "Ca:Mg (charge)", group: "soil", width: 8, numFmt: "0.0", row: (A) => `SOIL.CAMG(${A("ca")},${A("mg")})` },
     {
       key: "pBand", header: H.pBand, group: "soil", width: 14, bandOf: "pPos",
-      row: (A) => `IF(${A("pM3")}<>"",SOIL.SUFFICIENCY("P",${A("pM3")},${A("crop")},"Mehlich-3"),SOIL.SUFFICIENCY("P",${A("pBray")},,"Bray-1"))`,
+      row: (A) => `IF(${A("pM3")}<>"",SOIL.SUFFICIENCY("P",${A("pM3")},${A("rotation")},"Mehlich-3"),SOIL.SUFFICIENCY("P",${A("pBray")},,"Bray-1"))`,
     },
     {
       key: "pPos", header: H.pPos, group: "soil", width: 9, numFmt: "0.00",
-      row: (A) => `IF(${A("pM3")}<>"",SOIL.BANDPOS(${A("pM3")},${bandRow["tristate2020-m3-p-corn-soybean"].range}),SOIL.BANDPOS(${A("pBray")},${bandRow["sare-bray1-p"].range}))`,
+      row: (A) =>
+        `IF(${A("pM3")}<>"",IF(OR(ISNUMBER(SEARCH("wheat",${A("rotation")})),ISNUMBER(SEARCH("alfalfa",${A("rotation")}))),SOIL.BANDPOS(${A("pM3")},${bandRow["tristate2020-m3-p-wheat-alfalfa"].range}),SOIL.BANDPOS(${A("pM3")},${bandRow["tristate2020-m3-p-corn-soybean"].range})),SOIL.BANDPOS(${A("pBray")},${bandRow["sare-bray1-p"].range}))`,
     },
     { key: "kBand", header: H.kBand, group: "soil", width: 12, bandOf: "kPos", spill: (S) => `SOIL.SUFFICIENCY("K",${S("k")},${S("crop")},"Mehlich-3",${S("cec")})` },
     {
@@ -366,8 +395,11 @@ function seasonWorkbook(build) {
     { key: "phW", header: "pH (water)", group: "lab", width: 7, value: (s) => s.phW },
     { key: "oc", header: "Organic C (%)", group: "lab", width: 8, value: (s) => s.oc },
     { key: "colwellP", header: "Colwell P (mg/kg)", group: "lab", width: 8, value: (s) => s.colwellP },
-    { key: "colwellK", header: "Colwell K (mg/kg)", group: "lab", width: 8, value: (s) => s.colwellK },
-    { key: "s", header: "S KCl-40 (mg/kg)", group: "lab", width: 8, value: (s) => s.s },
+    { key: "colwellK", header: layout.ANALYTES.find((a) => a.key === "K").unbanded[0], group: "lab", width: 8, value: (s) => s.colwellK },
+    { key: "s", header: "S KCl-40, 0-30 cm (mg/kg)", group: "lab", width: 8, value: (s) => s.s },
+    { key: "zn", header: "Zn DTPA (mg/kg)", group: "lab", width: 7, value: (s) => s.zn },
+    { key: "cu", header: "Cu DTPA (mg/kg)", group: "lab", width: 7, value: (s) => s.cu },
+    { key: "mn", header: "Mn DTPA (mg/kg)", group: "lab", width: 7, value: (s) => s.mn },
     { key: "no3", header: "Nitrate-N (mg/kg)", group: "lab", width: 8, value: (s) => s.no3 },
     { key: "ca", header: "Exch. Ca (cmol(+)/kg)", group: "lab", width: 9, value: (s) => s.ca },
     { key: "mg", header: "Exch. Mg (cmol(+)/kg)", group: "lab", width: 9, value: (s) => s.mg },
@@ -390,6 +422,16 @@ function seasonWorkbook(build) {
       key: "pPos", header: H.pPos, group: "soil", width: 9, numFmt: "0.00",
       row: (A) => `IF(${A("crop")}="canola",SOIL.BANDPOS(${A("colwellP")},${bandRow["grdc2020-colwell-p-canola"].range}),SOIL.BANDPOS(${A("colwellP")},${bandRow["grdc2020-colwell-p-wheat"].range}))`,
     },
+    { key: "sBand", header: H.sBand, group: "soil", width: 15, bandOf: "sPos", spill: (S) => `SOIL.SUFFICIENCY("S",${S("s")},${S("crop")},"KCl-40")` },
+    {
+      key: "sPos", header: H.sPos, group: "soil", width: 9, numFmt: "0.00",
+      row: (A) => `IF(${A("crop")}="canola",SOIL.BANDPOS(${A("s")},${bandRow["anderson2013-kcl40-s-canola"].range}),SOIL.BANDPOS(${A("s")},${bandRow["anderson2013-kcl40-s-wheat"].range}))`,
+    },
+    { key: "znBand", header: H.znBand, group: "soil", width: 12, bandOf: "znPos", spill: (S) => `SOIL.SUFFICIENCY("Zn",${S("zn")},,"DTPA")` },
+    { key: "znPos", header: H.znPos, group: "soil", width: 9, numFmt: "0.00", spill: (S) => `SOIL.BANDPOS(${S("zn")},${bandRow["havlin1999-dtpa-zn"].range})` },
+    { key: "cuBand", header: H.cuBand, group: "soil", width: 12, bandOf: "cuPos", spill: (S) => `SOIL.SUFFICIENCY("Cu",${S("cu")},,"DTPA")` },
+    { key: "cuPos", header: H.cuPos, group: "soil", width: 9, numFmt: "0.00", spill: (S) => `SOIL.BANDPOS(${S("cu")},${bandRow["havlin1999-dtpa-cu"].range})` },
+    { key: "mnBand", header: H.mnBand, group: "soil", width: 12, spill: (S) => `SOIL.SUFFICIENCY("Mn",${S("mn")},,"DTPA")` },
     { key: "lime", header: H.limeCaco3, group: "soil", width: 10, numFmt: "0.00", spill: (S) => `SOIL.LIMEALSAT(${S("al")},${S("ca")},${S("mg")},${setRef("targetAlSat")},,${setRef("depthB")},${S("bd")})` },
     { key: "limeProduct", header: H.limeProduct, group: "soil", width: 10, numFmt: "0.00", row: (A) => productCols(A("lime")).replace(/#P/g, A("product")) },
     { key: "limeT", header: H.limeTonnes, group: "soil", width: 10, numFmt: "0.0", row: (A) => `IF(ISNUMBER(${A("limeProduct")}),${A("limeProduct")}*${A("area")},"")` },
@@ -402,7 +444,9 @@ function seasonWorkbook(build) {
   const refB = (key) => `${sheetRef(SCENARIO.labB.sheet)}!${B.span(key)}`;
 
   // --- Farms ------------------------------------------------------------------------------
-  const farmHead = [H.farm, H.lab, H.samples, "Area sampled (ha)", H.product, H.needLime, H.limeTonnes, H.pBelow, H.kBelow];
+  const farmHead = [H.farm, H.lab, H.samples, "Area sampled (ha)", H.product, H.needLime, H.limeTonnes, H.pBelow, H.kBelow, H.sBelow, H.znBelow, H.cuBelow, H.mnBelow];
+  // A sample below optimum is in the first band of its table: the band word SOIL.SUFFICIENCY gives there.
+  const firstBand = (id) => tables.find((t) => t.id === id).labels[0];
   wsFarms.getCell("A1").value = `Farms: ${SCENARIO.district} ${SCENARIO.season} sampling (${SCENARIO.consultancy})`;
   wsFarms.getCell("A1").font = { bold: true, size: 14, color: { argb: COLOURS.blue } };
   farmHead.forEach((h, i) => {
@@ -413,7 +457,7 @@ function seasonWorkbook(build) {
     c.alignment = { wrapText: true, vertical: "middle", horizontal: "center" };
   });
   wsFarms.getRow(3).height = 32;
-  [16, 28, 9, 11, 20, 11, 12, 11, 11].forEach((w, i) => (wsFarms.getColumn(i + 1).width = w));
+  [16, 28, 9, 11, 20, 11, 12, 11, 11, 11, 11, 11, 11].forEach((w, i) => (wsFarms.getColumn(i + 1).width = w));
   const farmRows = [...SCENARIO.farmsA.map((f) => [f, "A"]), ...SCENARIO.farmsB.map((f) => [f, "B"])];
   farmRows.forEach(([f, lab], i) => {
     const row = 4 + i;
@@ -426,14 +470,23 @@ function seasonWorkbook(build) {
     formula(wsFarms.getCell(`F${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("limeT")},">0")`);
     formula(wsFarms.getCell(`G${row}`), `SUMIF(${ref("farm")},A${row},${ref("limeT")})`);
     formula(wsFarms.getCell(`H${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("pPos")},"<0")`);
-    if (lab === "A") formula(wsFarms.getCell(`I${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("kPos")},"<0")`);
-    else wsFarms.getCell(`I${row}`).value = "no table";
+    if (lab === "A") {
+      formula(wsFarms.getCell(`I${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("kPos")},"<0")`);
+      wsFarms.getCell(`J${row}`).value = "no table";
+      for (const c of ["K", "L", "M"]) wsFarms.getCell(`${c}${row}`).value = "not tested";
+    } else {
+      wsFarms.getCell(`I${row}`).value = "no table";
+      formula(wsFarms.getCell(`J${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("sBand")},"${firstBand("anderson2013-kcl40-s-wheat")}")`);
+      formula(wsFarms.getCell(`K${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("znBand")},"${firstBand("havlin1999-dtpa-zn")}")`);
+      formula(wsFarms.getCell(`L${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("cuBand")},"${firstBand("havlin1999-dtpa-cu")}")`);
+      formula(wsFarms.getCell(`M${row}`), `COUNTIFS(${ref("farm")},A${row},${ref("mnBand")},"${firstBand("havlin1999-dtpa-mn")}")`);
+    }
     wsFarms.getCell(`D${row}`).numFmt = "0.0";
     wsFarms.getCell(`G${row}`).numFmt = "0.0";
   });
   const totalRow = 4 + farmRows.length;
   wsFarms.getCell(`A${totalRow}`).value = "All farms";
-  for (const c of ["C", "D", "F", "G", "H"]) {
+  for (const c of ["C", "D", "F", "G", "H", "I", "J", "K", "L", "M"]) {
     formula(wsFarms.getCell(`${c}${totalRow}`), `SUM(${c}4:${c}${totalRow - 1})`);
     wsFarms.getCell(`${c}${totalRow}`).numFmt = c === "D" || c === "G" ? "0.0" : "0";
   }
@@ -442,7 +495,7 @@ function seasonWorkbook(build) {
   const notes = [
     "Lime to spread is product as received (SOIL.LIMEPRODUCT: CCE, fineness and moisture from the Lime products sheet) times paddock area.",
     "Lab A paddocks: SIKORA-OR2025 buffer table to the target pH on Settings (0 where the soil pH is already at the target). Lab B paddocks: Al-saturation method to the target on Settings.",
-    "Below optimum: the paddock's value lies under the first limit of its band table (band position below 0; see Bands). Colwell K has no table here.",
+    "Below optimum: the paddock's value lies in the first band of its reference table (band position below 0; see Bands). Colwell K has no table (no readable source), nor has Lab A's sulfate-S (its extraction is not named). Lab B's S is a 0-30 cm core, the depth of the KCl-40 tables.",
     about.CAUTION,
   ];
   notes.forEach((t, i) => {
@@ -459,8 +512,8 @@ function seasonWorkbook(build) {
   readMe(wsRead, `${SCENARIO.consultancy}: ${SCENARIO.district} soil tests, ${SCENARIO.season}`, [
     ["An invented scenario for trying soilcell: the consultancy, farms, paddocks, laboratories, products and every number are made up.", "n"],
     ["What is in this workbook", "h"],
-    [`${SCENARIO.labA.sheet}: ${labA.length} samples as ${SCENARIO.labA.name} delivers them: ppm, meq/100 g and lb/ac, P by Bray-1 or Mehlich-3, Sikora buffer pH (run only below pH 6.7), 0-6 inch cores.`, "n"],
-    [`${SCENARIO.labB.sheet}: ${labB.length} samples as ${SCENARIO.labB.name} delivers them: mg/kg and cmol(+)/kg, Colwell P and K, KCl-extractable Al, 0-10 cm cores; converted to kg/ha with the bulk density in the paddock plan.`, "n"],
+    [`${SCENARIO.labA.sheet}: ${labA.length} samples as ${SCENARIO.labA.name} delivers them: ppm, meq/100 g and lb/ac, P by Bray-1 or Mehlich-3, Sikora buffer pH (run only below pH 6.7), 0-6 inch cores. The paddock plan gives each paddock's rotation: the Tri-State P critical level depends on it (20 ppm Mehlich-3 for corn-soybean, 30 ppm when wheat or alfalfa is in the rotation).`, "n"],
+    [`${SCENARIO.labB.sheet}: ${labB.length} samples as ${SCENARIO.labB.name} delivers them: mg/kg and cmol(+)/kg, Colwell P and K, DTPA Zn, Cu and Mn, KCl-extractable Al, 0-10 cm cores, and KCl-40 sulfur on a 0-30 cm core; converted to kg/ha with the bulk density in the paddock plan.`, "n"],
     ["Farms: samples, lime to spread and paddocks below optimum per farm (COUNTIFS/SUMIF over the lab sheets). Client report: one page per paddock; type a Sample ID in the yellow cell.", "n"],
     ["Lime products: CCE, moisture and sieve fractions of the products on the price list; fineness efficiency by SOIL.FINENESS. Bands: the band limits used for SOIL.BANDPOS, with their sources. Settings: lime targets.", "n"],
     ["Two ways to write SOIL formulas", "h"],
@@ -604,7 +657,18 @@ function buildReport(ws, ctx) {
       limits: `${bandRow["tristate2020-m3-k-cec-above-5"].limits}`,
       fmt: "0",
     },
-    { name: "Sulfur", value: get("s", "s"), unit: `IF(${lab}="A","ppm (SO4-S)","mg/kg (KCl-40)")`, fmt: "0.0" },
+    {
+      name: "Sulfur",
+      value: get("s", "s"),
+      unit: `IF(${lab}="A","ppm (SO4-S)","mg/kg (KCl-40, 0-30 cm)")`,
+      band: get(null, "sBand", `"no reference table"`),
+      pos: get(null, "sPos", `""`),
+      limits: `${bandRow["anderson2013-kcl40-s-wheat"].limits}`,
+      fmt: "0.0",
+    },
+    { name: "Zinc (DTPA)", value: get(null, "zn"), unit: `"mg/kg"`, band: get(null, "znBand", `""`), pos: get(null, "znPos", `""`), limits: `${bandRow["havlin1999-dtpa-zn"].limits}`, fmt: "0.00" },
+    { name: "Copper (DTPA)", value: get(null, "cu"), unit: `"mg/kg"`, band: get(null, "cuBand", `""`), pos: get(null, "cuPos", `""`), limits: `${bandRow["havlin1999-dtpa-cu"].limits}`, fmt: "0.00" },
+    { name: "Manganese (DTPA)", value: get(null, "mn"), unit: `"mg/kg"`, band: get(null, "mnBand", `""`), fmt: "0.0" },
     { name: "Nitrate-N", value: get("no3kg", "no3kg"), unit: `IF(${lab}="A","kg/ha","kg/ha, 0-10 cm")`, fmt: "0.0" },
   ];
   let row = 12;
@@ -617,8 +681,8 @@ function buildReport(ws, ctx) {
     ws.getCell(`C${row}`).alignment = { horizontal: "right" };
     formula(ws.getCell(`D${row}`), line.unit);
     ws.getCell(`D${row}`).font = { color: { argb: COLOURS.grey } };
-    if (line.band) {
-      formula(ws.getCell(`E${row}`), blankIfEmpty(line.band));
+    if (line.band) formula(ws.getCell(`E${row}`), blankIfEmpty(line.band));
+    if (line.band && line.pos) {
       formula(ws.getCell(`J${row}`), line.limits);
       formula(ws.getCell(`I${row}`), line.pos);
       // The bar: position on the band scale, from half a band below the first limit (0) to half a band above the last (1).

@@ -10,6 +10,7 @@ import fs from "fs";
 import path from "path";
 import ExcelJS from "exceljs";
 import { CAUTION } from "../core/about";
+import { sufficiencyTables } from "../core/bands/sufficiency";
 import { CellProblem, RecalcSummary, recalcWorkbook } from "../engine/recalc";
 
 /** Sheet names and column headers the sample workbooks use; the generator takes them from here. */
@@ -26,16 +27,28 @@ export const LAYOUT = {
     product: "Lime product",
     lab: "Lab",
     samples: "Samples",
+    rotation: "Rotation",
     pBand: "P band",
     pPos: "P position (band scale)",
     kBand: "K band",
     kPos: "K position (band scale)",
+    sBand: "S band",
+    sPos: "S position (band scale)",
+    znBand: "Zn band",
+    znPos: "Zn position (band scale)",
+    cuBand: "Cu band",
+    cuPos: "Cu position (band scale)",
+    mnBand: "Mn band",
     limeCaco3: "Lime as CaCO3 (t/ha)",
     limeProduct: "Lime product (t/ha)",
     limeTonnes: "Lime to spread (t)",
     needLime: "Paddocks needing lime",
     pBelow: "P below optimum",
     kBelow: "K below optimum",
+    sBelow: "S below optimum",
+    znBelow: "Zn below optimum",
+    cuBelow: "Cu below optimum",
+    mnBelow: "Mn below optimum",
     legumePaddocks: "Legume paddocks",
     nFixedTotal: "N fixed (kg N)",
     nCreditTotal: "N credit to next crop (kg N)",
@@ -44,6 +57,19 @@ export const LAYOUT = {
     soilScreen: "Soil conditions for fixation",
     soilConstraints: "Soil constraints found",
   },
+  /**
+   * The analytes the demo counts, in report order: the band column a lab sheet holds where a
+   * reference table covers the analyte, and the raw columns of a lab that reports it with no
+   * table (shown as "no reference table"). An analyte a sheet has neither of is not reported there.
+   */
+  ANALYTES: [
+    { key: "P", band: "P band", unbanded: [] },
+    { key: "K", band: "K band", unbanded: ["Colwell K (mg/kg)"] },
+    { key: "S", band: "S band", unbanded: ["SO4-S (ppm)"] },
+    { key: "Zn", band: "Zn band", unbanded: [] },
+    { key: "Cu", band: "Cu band", unbanded: [] },
+    { key: "Mn", band: "Mn band", unbanded: [] },
+  ],
 } as const;
 
 const H = LAYOUT.HEADERS;
@@ -80,12 +106,23 @@ export interface FarmLime {
   readonly tonnes: number;
 }
 
+export interface AnalyteBelow {
+  readonly analyte: string;
+  /** Sample IDs in the first band of their table (below optimum); null where the lab reports the analyte but no reference table covers it. */
+  readonly ids: readonly string[] | null;
+}
+
 export interface BelowOptimum {
   readonly farm: string;
-  /** Sample IDs whose P (or K) lies below the first limit of its band table. */
-  readonly p: readonly string[];
-  /** null where the lab sheet has no K band (no reference table for that extraction). */
-  readonly k: readonly string[] | null;
+  /** One entry per analyte the farm's lab reports, in LAYOUT.ANALYTES order. */
+  readonly analytes: readonly AnalyteBelow[];
+}
+
+/** How many samples of the season got a band for an analyte, and how many of those are in the first band. */
+export interface AnalyteCount {
+  readonly analyte: string;
+  readonly banded: number;
+  readonly below: number;
 }
 
 export interface LegumeFarm {
@@ -119,6 +156,8 @@ export interface DemoSummary {
   readonly samples: number;
   readonly lime: readonly FarmLime[];
   readonly belowOptimum: readonly BelowOptimum[];
+  /** Band results per analyte over the season (the new analytes counted with the old). */
+  readonly bands: readonly AnalyteCount[];
   readonly legume: readonly LegumeFarm[];
   /** Paddocks of the legume budget whose grain took more N than the crop fixed. */
   readonly legumeNegative: readonly string[];
@@ -198,10 +237,23 @@ function table(ws: ExcelJS.Worksheet, firstHeader: string): Table | undefined {
 
 const column = (t: Table, name: string): number | undefined => t.header.get(name);
 
+/** Per nutrient, the labels of the first (lowest) band of its built-in tables: a sample there is below optimum. */
+function firstBandLabels(): Map<string, Set<string>> {
+  const out = new Map<string, Set<string>>();
+  for (const t of sufficiencyTables()) {
+    const set = out.get(t.nutrient) ?? new Set<string>();
+    set.add(t.labels[0] as string);
+    out.set(t.nutrient, set);
+  }
+  return out;
+}
+
 async function readOutputs(outputs: readonly { file: string; output: string }[]) {
   const labs: LabSamples[] = [];
   const lime: FarmLime[] = [];
-  const below = new Map<string, { p: string[]; k: string[] | null }>();
+  const below = new Map<string, Map<string, string[] | null>>();
+  const counts = new Map<string, { banded: number; below: number }>();
+  const firstBands = firstBandLabels();
   const legume: LegumeFarm[] = [];
   const legumeNegative: string[] = [];
   let legumeChecks: LegumeChecks | null = null;
@@ -220,17 +272,34 @@ async function readOutputs(outputs: readonly { file: string; output: string }[])
         }
         const soilCols = [...lab.header.values()].filter((c) => c >= firstSoil);
         let interpreted = 0;
+        const reported = LAYOUT.ANALYTES.map((a) => ({
+          key: a.key,
+          band: column(lab, a.band),
+          unbanded: (a.unbanded as readonly string[]).some((h) => column(lab, h) !== undefined),
+        })).filter((a) => a.band !== undefined || a.unbanded);
         for (const row of lab.rows) {
           if (soilCols.some((c) => row[c] !== null && row[c] !== "")) interpreted++;
           const farm = asText(row[column(lab, H.farm) as number]);
           const id = asText(row[1]);
-          const kCol = column(lab, H.kPos);
-          const entry = below.get(farm) ?? { p: [], k: kCol ? [] : null };
+          const entry = below.get(farm) ?? new Map<string, string[] | null>();
           below.set(farm, entry);
-          const p = asNumber(row[column(lab, H.pPos) ?? 0]);
-          const k = kCol ? asNumber(row[kCol]) : null;
-          if (p !== null && p < 0) entry.p.push(id);
-          if (k !== null && k < 0) entry.k?.push(id);
+          for (const a of reported) {
+            if (a.band === undefined) {
+              entry.set(a.key, null);
+              continue;
+            }
+            const ids = entry.get(a.key) ?? [];
+            entry.set(a.key, ids);
+            const band = asText(row[a.band]);
+            if (!band) continue;
+            const c = counts.get(a.key) ?? { banded: 0, below: 0 };
+            counts.set(a.key, c);
+            c.banded++;
+            if (firstBands.get(a.key)?.has(band)) {
+              ids.push(id);
+              c.below++;
+            }
+          }
         }
         labs.push({ workbook: path.basename(file), sheet: ws.name, samples: lab.rows.length, interpreted });
       }
@@ -276,8 +345,13 @@ async function readOutputs(outputs: readonly { file: string; output: string }[])
       }
     }
   }
-  const belowOptimum = [...below.entries()].map(([farm, e]) => ({ farm, p: e.p, k: e.k }));
-  return { labs, lime, belowOptimum, legume, legumeNegative, legumeChecks };
+  const order = LAYOUT.ANALYTES.map((a) => a.key as string);
+  const belowOptimum = [...below.entries()].map(([farm, e]) => ({
+    farm,
+    analytes: order.filter((k) => e.has(k)).map((k) => ({ analyte: k, ids: e.get(k) ?? null })),
+  }));
+  const bands = order.filter((k) => counts.has(k)).map((k) => ({ analyte: k, ...counts.get(k)! }));
+  return { labs, lime, belowOptimum, bands, legume, legumeNegative, legumeChecks };
 }
 
 /** Paddocks with a soil constraint (count > 0) and with a Poor or None nodulation rating. */
@@ -331,12 +405,16 @@ function report(s: DemoSummary, say: (line: string) => void): void {
   }
   if (s.belowOptimum.length) {
     say("");
-    say("Paddocks with bands below optimum (under the first limit of the band table):");
+    say("Paddocks below optimum (in the first band of their reference table):");
+    const show = (ids: readonly string[] | null) =>
+      ids === null ? "no reference table" : ids.length ? `${ids.length} (${ids.slice(0, 5).join(", ")}${ids.length > 5 ? ", …" : ""})` : "0";
     for (const b of s.belowOptimum) {
-      const show = (ids: readonly string[] | null) =>
-        ids === null ? "no reference table" : ids.length ? `${ids.length} (${ids.slice(0, 5).join(", ")}${ids.length > 5 ? ", …" : ""})` : "0";
-      say(`  ${b.farm.padEnd(14)} P ${show(b.p)}; K ${show(b.k)}`);
+      say(`  ${b.farm.padEnd(14)} ${b.analytes.map((a) => `${a.analyte} ${show(a.ids)}`).join("; ")}`);
     }
+  }
+  if (s.bands.length) {
+    say("");
+    say(`Band results: ${s.bands.map((b) => `${b.analyte} ${b.banded} samples (${b.below} below optimum)`).join("; ")}`);
   }
   if (s.legume.length) {
     say("");
@@ -397,6 +475,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
     samples: read.labs.reduce((a, l) => a + l.samples, 0),
     lime: read.lime,
     belowOptimum: read.belowOptimum,
+    bands: read.bands,
     legume: read.legume,
     legumeNegative: read.legumeNegative,
     legumeChecks: read.legumeChecks,

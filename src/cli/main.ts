@@ -109,10 +109,12 @@ function runList(args: string[], io: Io): number {
     const depth = t.depthCm === undefined ? "depth not stated" : `${t.depthCm} cm`;
     io.out(`  ${t.id}  ${t.unit}, ${depth}${t.shipped ? "" : ", NOT SHIPPED (answers #N/A)"}  — ${t.source}`);
   }
-  io.out("Sufficiency tables (SOIL.SUFFICIENCY):");
+  io.out("Sufficiency tables (SOIL.SUFFICIENCY; name one by its id in the table argument, or pass your own table as a range):");
   for (const t of tables.sufficiency) {
-    const cec = t.cec ? `, ${t.cec}` : "";
-    io.out(`  ${t.nutrient} ${t.method} ${t.unit}, crop ${t.crop}${cec}: limits ${t.limits.join(", ")}  — ${t.source}`);
+    const extra = [t.covers, t.cec, t.sampling].filter(Boolean).join("; ");
+    io.out(`  ${t.id}: ${t.nutrient} ${t.method}, ${t.unit} (${extra}): limits ${t.limits.join(", ")} → ${t.labels.join(" | ")}`);
+    io.out(`      edge rule: ${t.edgeRule}`);
+    io.out(`      source: ${t.source} [${t.status}]`);
   }
   io.out("Removal coefficients (SOIL.REMOVAL):");
   for (const t of tables.removal) io.out(`  ${t.crop} (${t.product}, ${t.basis}): ${t.nutrients.join(", ")}  — ${t.source}`);

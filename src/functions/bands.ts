@@ -33,23 +33,31 @@ export function bandpos(value: any[][], limits: any[][]): any[][] {
 const BANDPOS = declare(bandpos, [num("value"), range("limits")], (value, limits) => bandPosition(value, limits));
 
 /**
- * Band label from a built-in reference table for a soil-test or plant-tissue value; each table names its source.
+ * Band label for a soil-test or tissue value from a reference table: built-in (each with its source) or your own range.
  *
  * @customfunction SUFFICIENCY
- * @param {any[][]} nutrient P, K, N, Ca, Mg, B, Cu, Mn, Mo or Zn.
- * @param {any[][]} value Soil-test value in mg/kg (Olsen index: mg/L of soil) or tissue value in % (micronutrients mg/kg), at least 0.
- * @param {any[][]} [crop] corn, soybean, wheat, alfalfa or canola; omitted: a crop-independent table (Bray-1 general, Olsen index).
- * @param {any[][]} [method] Bray-1, Mehlich-3, Olsen, Colwell, or tissue for plant analysis; required.
+ * @param {any[][]} nutrient P, K, S, N, Ca, Mg, B, Cu, Fe, Mn, Mo or Zn.
+ * @param {any[][]} value Value in the table's unit, at least 0: soil tests mg/kg (Olsen index mg/L of soil), tissue % of dry matter (micronutrients mg/kg).
+ * @param {any[][]} [crop] The crop (corn, soybean, wheat, canola, alfalfa, clover, subclover, pasture, barley, …) or, for the Tri-State P tables, the rotation: crops joined by "-", e.g. corn-soybean or corn-soybean-wheat (every year the same crop: corn-corn). Omitted: a crop-independent table.
+ * @param {any[][]} [method] Bray-1, Mehlich-3, Olsen, Colwell, KCl-40, DTPA, or tissue for plant analysis; required.
  * @param {any[][]} [cec] CEC in cmol(+)/kg, above 0; needed where the table's levels depend on it (Mehlich-3 K).
- * @returns {any[][]} The source's band label; #N/A where no table covers the combination (the message lists those that exist).
+ * @param {any[][]} [table] A built-in table id (soilcell list), where several fit (subclover S by stage); or your own table as a range: nutrient | method | crop | band | limit | band … per row.
+ * @returns {any[][]} The source's band label; #N/A where no table covers the combination (the message lists those that exist). Interpretations are regional estimates: check them locally.
  */
-export function sufficiency(nutrient: any[][], value: any[][], crop?: any[][], method?: any[][], cec?: any[][]): any[][] {
+export function sufficiency(
+  nutrient: any[][],
+  value: any[][],
+  crop?: any[][],
+  method?: any[][],
+  cec?: any[][],
+  table?: any[][],
+): any[][] {
   return SUFFICIENCY(arguments);
 }
 const SUFFICIENCY = declare(
   sufficiency,
-  [text("nutrient"), num("value"), optText("crop"), optText("method"), optNum("cec")],
-  (nutrient, value, crop, method, cec) => sufficiencyBand(nutrient, value, crop, method, cec),
+  [text("nutrient"), num("value"), optText("crop"), optText("method"), optNum("cec"), optRange("table")],
+  (nutrient, value, crop, method, cec, table) => sufficiencyBand(nutrient, value, crop, method, cec, table),
 );
 
 /**

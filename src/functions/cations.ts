@@ -1,6 +1,7 @@
 /** Excel bindings: cations. Argument shaping only; the science is in src/core. */
 import { cecSum, cecSaturation, cecCaMgRatio, cecEsp } from "../core/cations/cations";
 import { cecSar } from "../core/cations/sar";
+import { cecEspFromSar } from "../core/cations/esp-sar";
 import { declare, num, optNum, optText, text } from "./_binding";
 
 /**
@@ -107,3 +108,15 @@ export function sar(na: any[][], ca: any[][], mg: any[][], unit?: any[][]): any[
   return SAR(arguments);
 }
 const SAR = declare(sar, [num("na"), num("ca"), num("mg"), optText("unit")], (na, ca, mg, unit) => cecSar(na, ca, mg, unit));
+
+/**
+ * Exchangeable sodium percentage estimated from the SAR of a soil's saturation extract (USDA Handbook 60 regression).
+ *
+ * @customfunction ESPSAR
+ * @param {any[][]} sar SAR of the soil's saturation extract, at least 0 (SOIL.SAR of the extract's Na, Ca and Mg).
+ * @returns {any[][]} Estimated ESP, %: for when exchangeable Na and CEC were not measured (SOIL.ESP uses measured values). Slightly negative below SAR 0.85, not clamped.
+ */
+export function espsar(sar: any[][]): any[][] {
+  return ESPSAR(arguments);
+}
+const ESPSAR = declare(espsar, [num("sar")], (sarValue) => cecEspFromSar(sarValue));

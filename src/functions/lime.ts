@@ -2,6 +2,7 @@
 import { limeBuffer } from "../core/lime/buffer";
 import { limeAlSat, limeBaseSat, limeExchAl, limePhBc } from "../core/lime/methods";
 import { limeFinenessOfRanges, limeProductRate } from "../core/lime/product";
+import { limeCceOfRanges } from "../core/lime/cce";
 import { declare, num, optNum, optRange, optText, range } from "./_binding";
 
 /**
@@ -171,3 +172,16 @@ export function fineness(fractions: any[][], efficiencies?: any[][]): any[][] {
   return FINENESS(arguments);
 }
 const FINENESS = declare(fineness, [range("fractions"), optRange("efficiencies")], (fr, eff) => limeFinenessOfRanges(fr, eff));
+
+/**
+ * Calcium carbonate equivalent (%) of a liming material from its analysis, from molar masses; for SOIL.LIMEPRODUCT's cce_pct.
+ *
+ * @customfunction CCE
+ * @param {any[][]} analysis_pct % of each component in the material, one row or column (0 to 100 each, together at most 100 plus 1 for rounding; 0 for a component it lacks).
+ * @param {any[][]} forms The component of each percentage, same shape: CaCO3, MgCO3, CaMg(CO3)2, CaO, MgO, Ca(OH)2, Mg(OH)2, or the elements Ca and Mg (not both an element and its compounds).
+ * @returns {any[][]} CCE, % on the analysis' own basis. Ca and Mg as elements count as neutralizing: gypsum or silicate Ca does not, so use a measured CCE for by-products. Burnt and hydrated lime are caustic.
+ */
+export function cce(analysis_pct: any[][], forms: any[][]): any[][] {
+  return CCE(arguments);
+}
+const CCE = declare(cce, [range("analysis_pct"), range("forms")], (analysis, formWords) => limeCceOfRanges(analysis, formWords));

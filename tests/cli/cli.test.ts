@@ -48,6 +48,15 @@ describe("soilcell list", () => {
       for (const t of listed.tables[kind]!) expect(t.source.length).toBeGreaterThan(5);
     }
   });
+  it("shows each sufficiency table with its source and its edge rule", () => {
+    const r = run("list");
+    expect(r.status).toBe(0);
+    const lines = r.stdout.split("\n");
+    const at = lines.findIndex((l) => l.startsWith("  sare-bray1-p:"));
+    expect(at).toBeGreaterThan(0);
+    expect(lines[at + 1]).toMatch(/^ {6}edge rule: .*31 High/);
+    expect(lines[at + 2]).toMatch(/^ {6}source: Magdoff/);
+  });
 });
 
 describe("soilcell recalc", () => {

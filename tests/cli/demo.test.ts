@@ -5,7 +5,8 @@
  * from the engine: lime by the SIKORA-OR2025 table (Source: Moore 2025, OSU Extension EM 9585,
  * Table 1) and the Al-saturation method (Source: Cochrane, Salinas & Sánchez 1980), products by
  * CCE, fineness and moisture (Source: Penn State AASL notes; BC Soil Factsheet 637.200-2), bands
- * by the Colwell P critical ranges (Source: GRDC Update 2020, southern NSW), legume N by the
+ * by the Colwell P critical ranges (Source: GRDC Update 2020, southern NSW), KCl-40 S (Source: Anderson,
+ * Peverill & Brennan 2013, abstract) and DTPA micronutrients (Source: Havlin et al. 1999, secondary), legume N by the
  * shoot-based and per-tonne rules (Source: Peoples et al. 2012; Walley et al. 2007 as reported
  * in doi:10.1007/s13593-015-0297-y; Khan et al. 2002, Plant and Soil, for faba bean and
  * chickpea), root digs by the University of Adelaide grower guide's scale and the soil screen by
@@ -20,7 +21,7 @@ import { limeBuffer } from "../../src/core/lime/buffer";
 import { limeAlSat } from "../../src/core/lime/methods";
 import { limeFineness, limeProductRate } from "../../src/core/lime/product";
 import { bandPosition } from "../../src/core/bands/bands";
-import { sufficiencyTableId, sufficiencyTables } from "../../src/core/bands/sufficiency";
+import { sufficiencyBand, sufficiencyTableId, sufficiencyTables } from "../../src/core/bands/sufficiency";
 import { nfixFixedN, nfixPerTonne, nfixShootDm } from "../../src/core/nitrogen/nitrogen";
 import { nfixNdfa } from "../../src/core/nitrogen/isotope";
 import { nfixNodulationRating } from "../../src/core/nitrogen/nodulation";
@@ -162,13 +163,63 @@ describe("npm run demo (invented sample workbooks)", () => {
       })
       .map((r) => String(r[H.sampleId]));
     const farm = summary.belowOptimum.find((b) => b.farm === "Tarnaby Flats")!;
-    expect(farm.p).toEqual(below);
+    const of = (k: string) => farm.analytes.find((a) => a.analyte === k);
+    expect(of("P")!.ids).toEqual(below);
     expect(below.length).toBeGreaterThan(0);
-    expect(farm.k).toBeNull(); // no Colwell K table: not assessed, not "0 below"
+    expect(of("K")!.ids).toBeNull(); // no Colwell K table: not assessed, not "0 below"
+  });
+
+  it("Quondle Hill's Mehlich-3 P is read for its corn-soybean-wheat rotation (critical level 30 ppm), from core", async () => {
+    // Source: Culman et al. (2020) Tri-State Bull. 974 via OSU Ag BMPs (seen): 30 ppm when wheat is in the rotation.
+    const rows = (await rowsOf(SEASON, "Lab A Brindlewick", H.sampleId)).filter((r) => r[H.farm] === "Quondle Hill");
+    expect(new Set(rows.map((r) => r[H.rotation]))).toEqual(new Set(["corn-soybean-wheat"]));
+    const deficient = rows
+      .filter((r) => num(r["P Mehlich-3 (ppm)"]) !== undefined && sufficiencyBand("P", num(r["P Mehlich-3 (ppm)"])!, String(r[H.rotation]), "Mehlich-3") === "Deficient")
+      .map((r) => String(r[H.sampleId]));
+    const farm = summary.belowOptimum.find((b) => b.farm === "Quondle Hill")!;
+    expect(farm.analytes.find((a) => a.analyte === "P")!.ids).toEqual(deficient);
+    expect(rows.some((r) => { const p = num(r["P Mehlich-3 (ppm)"]); return p !== undefined && p >= 20 && p < 30; })).toBe(true); // deficient only because of the wheat
+  });
+
+  it("Lab B's KCl-40 S and DTPA Zn, Cu, Mn below optimum match the core tables, row by row", async () => {
+    const rows = (await rowsOf(SEASON, "Lab B Quillon Downs", H.sampleId)).filter((r) => r[H.farm] === "Ambergully");
+    const first = (id: string) => sufficiencyTables().find((t) => t.id === id)!.labels[0];
+    const lowIds = (key: string, band: (v: number, crop: string) => string, firstLabel: (crop: string) => string) =>
+      rows
+        .filter((r) => {
+          const v = num(r[key]);
+          return v !== undefined && band(v, String(r[H.crop])) === firstLabel(String(r[H.crop]));
+        })
+        .map((r) => String(r[H.sampleId]));
+    const farm = summary.belowOptimum.find((b) => b.farm === "Ambergully")!;
+    const of = (k: string) => farm.analytes.find((a) => a.analyte === k)!.ids;
+    const s = lowIds("S KCl-40, 0-30 cm (mg/kg)", (v, crop) => sufficiencyBand("S", v, crop, "KCl-40"), (crop) => first(`anderson2013-kcl40-s-${crop}`));
+    expect(of("S")).toEqual(s);
+    expect(s.length).toBeGreaterThan(0);
+    for (const [n, id] of [["Zn", "havlin1999-dtpa-zn"], ["Cu", "havlin1999-dtpa-cu"], ["Mn", "havlin1999-dtpa-mn"]] as const) {
+      expect(of(n)).toEqual(lowIds(`${n} DTPA (mg/kg)`, (v) => sufficiencyBand(n, v, undefined, "DTPA"), () => first(id)));
+    }
+  });
+
+  it("shows no 'no reference table' for an analyte a table covers, and counts the new analytes", () => {
+    // Only Colwell K (no readable source) and Lab A's sulfate-S (its extraction is not named) lack a table.
+    const LAB_A = ["Wrenhollow", "Pellowmere", "Quondle Hill", "Brackenstow"];
+    for (const b of summary.belowOptimum) {
+      const none = b.analytes.filter((a) => a.ids === null).map((a) => a.analyte);
+      expect(none).toEqual(LAB_A.includes(b.farm) ? ["S"] : ["K"]);
+    }
+    const labB = summary.belowOptimum.filter((b) => ["Ambergully", "Tarnaby Flats", "Mistlecombe"].includes(b.farm));
+    for (const b of labB) {
+      expect(b.analytes.map((a) => a.analyte)).toEqual(["P", "K", "S", "Zn", "Cu", "Mn"]);
+      expect(b.analytes.filter((a) => a.ids === null).map((a) => a.analyte)).toEqual(["K"]);
+    }
+    expect(summary.bands.map((b) => b.analyte)).toEqual(["P", "K", "S", "Zn", "Cu", "Mn"]);
+    expect(summary.bands.find((b) => b.analyte === "S")!.banded).toBeGreaterThan(120);
+    expect(printed.some((l) => /^Band results: .*S \d+ samples .*Zn \d+ samples .*Cu \d+ samples .*Mn \d+ samples/.test(l))).toBe(true);
   });
 
   it("reports exactly the two deliberate below-detection values, with the message", () => {
-    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Lab A Brindlewick!AJ60", "Lab B Quillon Downs!AI96"]);
+    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Lab A Brindlewick!AK60", "Lab B Quillon Downs!AS96"]);
     for (const e of summary.errors) {
       expect(e.error).toBe("#VALUE!");
       expect(e.message).toContain('"<0.5" is not a number');
@@ -239,7 +290,7 @@ describe("npm run demo (invented sample workbooks)", () => {
     const names = Object.keys(zip.files);
     expect(names).toContain("xl/metadata.xml");
     const all = (await Promise.all(names.filter((n) => /^xl\/worksheets\/sheet\d+\.xml$/.test(n)).map((n) => zip.file(n)!.async("string")))).join("");
-    expect(all).toMatch(/<c r="V3"[^>]* cm="1"><f t="array" ref="V3:V152">_xldudf_SOIL_CEC\(M3:M152,N3:N152,L3:L152,O3:O152\)<\/f><v>[0-9.]+<\/v>/);
+    expect(all).toMatch(/<c r="W3"[^>]* cm="1"><f t="array" ref="W3:W152">_xldudf_SOIL_CEC\(M3:M152,N3:N152,L3:L152,O3:O152\)<\/f><v>[0-9.]+<\/v>/);
     expect(all).not.toMatch(/SOIL\.[A-Z]+\(/); // no typed form left
   });
 });

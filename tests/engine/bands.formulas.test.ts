@@ -31,15 +31,21 @@ describe("band formulas", () => {
 });
 
 describe("sufficiency, removal and build-up formulas", () => {
-  it("SOIL.SUFFICIENCY: Mehlich-3 P for corn, Mehlich-3 K by CEC, Olsen index", () => {
-    expect(value('=SOIL.SUFFICIENCY("P",25,"corn","Mehlich-3")')).toBe("Optimal");
+  // Source: Culman et al. (2020) Tri-State Bull. 974 via OSU Ag BMPs (seen): Mehlich-3 P critical level 20 ppm
+  // in a corn/soybean rotation, 30 ppm with wheat or alfalfa; NI S.R. 2019/81 Olsen index (seen).
+  it("SOIL.SUFFICIENCY: Mehlich-3 P by rotation, Mehlich-3 K by CEC, Olsen index", () => {
+    expect(value('=SOIL.SUFFICIENCY("P",25,"corn-soybean","Mehlich-3")')).toBe("Optimal");
+    expect(value('=SOIL.SUFFICIENCY("P",25,"corn-soybean-wheat","Mehlich-3")')).toBe("Deficient");
     expect(value('=SOIL.SUFFICIENCY("K",110,"corn","Mehlich-3",{4;15})')).toEqual([["Optimal"], ["Deficient"]]);
     expect(value('=SOIL.SUFFICIENCY("P",23,,"Olsen")')).toBe("Index 2+");
   });
   it("SOIL.SUFFICIENCY without a table is #N/A with the message", () => {
-    const r = evaluateFormula('=SOIL.SUFFICIENCY("P",30,"corn","Colwell")');
+    const r = evaluateFormula('=SOIL.SUFFICIENCY("P",30,"barley","Colwell")');
     expect(r.error).toBe("#N/A");
-    expect(r.message).toMatch(/no P Colwell table for corn/);
+    expect(r.message).toMatch(/no P Colwell table for barley/);
+  });
+  it("SOIL.SUFFICIENCY with your own table as a range (invented limits)", () => {
+    expect(value('=SOIL.SUFFICIENCY("Cl",{10;20},,"water",,{"Cl","water","","Low",20,"Adequate"})')).toEqual([["Low"], ["Adequate"]]);
   });
   it("SOIL.REMOVAL: t/ha in, kg/ha out by default; bu/ac in, lb/ac out", () => {
     expect(value('=SOIL.REMOVAL("corn",10,"P2O5")')).toBeCloseTo(72.5, 9);

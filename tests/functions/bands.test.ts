@@ -3,6 +3,9 @@
  * elements, whole-range arguments and #N/A. Limits and values are invented unless a Source is named.
  */
 import { band, bandpos, sufficiency, removal, buildup } from "../../src/functions/bands";
+import metadata from "../../generated/functions.json";
+import { aboutFunction } from "../../src/core/about";
+import { SUFFICIENCY_ROWS } from "../../src/core/bands/sufficiency";
 import { PlainHostError, specOf } from "../../src/functions/_binding";
 
 const err = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : undefined);
@@ -46,16 +49,29 @@ describe("SOIL.BANDPOS", () => {
 });
 
 describe("SOIL.SUFFICIENCY", () => {
-  // Source: Culman et al. (2020) Tri-State Bull. 974 via OSU Ag BMPs: Mehlich-3 P critical level 20 ppm for corn.
-  it("a column of Mehlich-3 P values for corn", () => {
-    expect(sufficiency([["P"]], [[15], [25], [""]], [["corn"]], [["Mehlich-3"]])).toEqual([["Deficient"], ["Optimal"], [""]]);
+  // Source: Culman et al. (2020) Tri-State Bull. 974 via OSU Ag BMPs (seen): Mehlich-3 P critical level
+  // 20 ppm in a corn/soybean rotation, 30 ppm when the rotation includes wheat or alfalfa.
+  it("a column of Mehlich-3 P values for a corn-soybean rotation", () => {
+    expect(sufficiency([["P"]], [[15], [25], [""]], [["corn-soybean"]], [["Mehlich-3"]])).toEqual([["Deficient"], ["Optimal"], [""]]);
+  });
+  it("a rotation column picks the critical level row by row", () => {
+    expect(sufficiency([["P"]], [[25]], [["corn-soybean"], ["corn-soybean-wheat"]], [["M3"]])).toEqual([["Optimal"], ["Deficient"]]);
+  });
+  it("corn alone is #VALUE! saying how to pass the rotation", () => {
+    expect(err(sufficiency([["P"]], [[25]], [["corn"]], [["Mehlich-3"]])[0]![0])).toMatch(/^#VALUE! .*corn-soybean/);
+  });
+  it("the table argument: a built-in id in one cell, or your own table as a range", () => {
+    // Source: Jones et al. (1980) Agron. J. 72:1043 (abstract, seen): subclover S 0.08 % at 133 days.
+    expect(sufficiency([["S"]], [[0.1]], [["subclover"]], [["tissue"]], null as never, [["jones1980-subclover-tissue-s-133d"]])).toEqual([["At or above critical level"]]);
+    const own = [["Cl", "water", "", "Low", 20, "Adequate"]]; // invented
+    expect(sufficiency([["Cl"]], [[10], [20]], null as never, [["water"]], null as never, own)).toEqual([["Low"], ["Adequate"]]);
   });
   // Source: A&L Great Lakes summary of Bull. 974: K critical 100 ppm at CEC ≤ 5, 120 ppm above.
   it("a CEC column picks the K row element by element", () => {
     expect(sufficiency([["K"]], [[110], [110]], [["corn"]], [["M3"]], [[4], [15]])).toEqual([["Optimal"], ["Deficient"]]);
   });
   it("no table for the combination: #N/A with the combinations that exist", () => {
-    const v = sufficiency([["P"]], [[30]], [["corn"]], [["Colwell"]])[0]![0];
+    const v = sufficiency([["P"]], [[30]], [["barley"]], [["Colwell"]])[0]![0];
     expect(v).toBeInstanceOf(PlainHostError);
     expect((v as PlainHostError).kind).toBe("#N/A");
     expect((v as PlainHostError).message).toMatch(/P Colwell \(wheat; mg\/kg\)/);
@@ -96,5 +112,22 @@ describe("SOIL.BUILDUP", () => {
   });
   it("a zero buffer factor is #VALUE!", () => {
     expect(err(buildup([[10]], [[15]], [[0]])[0]![0])).toMatch(/^#VALUE! buffer_factor must be greater than 0/);
+  });
+});
+
+describe("SOIL.SUFFICIENCY's help and ABOUT list what exists", () => {
+  const meta = (metadata.functions as { id: string; parameters: { name: string; description?: string }[] }[]).find((f) => f.id === "SUFFICIENCY")!;
+  const param = (name: string) => meta.parameters.find((p) => p.name === name)!.description ?? "";
+  it("every nutrient and method of a built-in table is named in the help and in ABOUT", () => {
+    const about = aboutFunction("SUFFICIENCY");
+    for (const r of SUFFICIENCY_ROWS) {
+      expect(param("nutrient")).toContain(r.nutrient);
+      expect(param("method")).toContain(r.method);
+      expect(about).toContain(r.method === "tissue" ? "tissue" : r.method);
+    }
+  });
+  it("the help says how to pass a rotation and a table", () => {
+    expect(param("crop")).toMatch(/corn-soybean-wheat/);
+    expect(param("table")).toMatch(/range/);
   });
 });

@@ -256,6 +256,14 @@ export const CASES: readonly HostCase[] = [
     args: [col(78.8, 10, 2.4, 7.8)],
     expected: 85.28,
   },
+  {
+    name: "CCE of dolomite given as 21.7 % Ca and 13.1 % Mg is 108.14 % (Source: MN Dept. of Agriculture composition, seen; stoichiometry, derived)",
+    area: "lime",
+    id: "CCE",
+    args: [row(21.7, 13.1), row("Ca", "Mg")],
+    expected: 108.13571,
+    digits: 4,
+  },
   // ---- bands -------------------------------------------------------------------------------
   {
     name: "BAND text results spill over a column with a blank; a limit belongs to the band above (limits 10/20/30/40 invented)",
@@ -272,6 +280,14 @@ export const CASES: readonly HostCase[] = [
     expected: err(/strictly ascending/),
   },
   {
+    name: "ESPSAR of SAR 10 and 13 estimates ESP 11.8865 and 15.1931 % (Source: USDA Handbook 60 regression via OAC 165:10, secondary; arithmetic, derived)",
+    area: "cations",
+    id: "ESPSAR",
+    args: [col(10, 13)],
+    expected: [[11.88651], [15.19315]],
+    digits: 4,
+  },
+  {
     name: "SUFFICIENCY Mehlich-3 K 110 mg/kg for corn by CEC 4 and 15 (Source: Culman et al. 2020, Tri-State Bulletin 974, as restated by OSU Ag BMPs, seen)",
     area: "bands",
     id: "SUFFICIENCY",
@@ -282,8 +298,8 @@ export const CASES: readonly HostCase[] = [
     name: "SUFFICIENCY with no table for the combination is #N/A (a gap in the shipped tables, not a value)",
     area: "bands",
     id: "SUFFICIENCY",
-    args: ["P", 30, "corn", "Colwell"],
-    expected: err(/no P Colwell table for corn/, "#N/A"),
+    args: ["P", 30, "barley", "Colwell"],
+    expected: err(/no P Colwell table for barley/, "#N/A"),
   },
   {
     name: "REMOVAL corn 10 t/ha as P2O5 is 72.5 kg/ha, the midpoint of 6.6–7.9 kg/t (Source: OMAFA Field Crop News 2025 'Crop Removal Values' Table 1, seen; derived)",

@@ -159,6 +159,42 @@ export function bandIndex(value: number, limits: ListInput<number | string | boo
 }
 
 /**
+ * Which side a value exactly equal to a limit falls on, as a published table prints it: "above"
+ * (the limit opens the band above, as in "less than 20 is deficient"), "below" (the limit closes
+ * the band below, as in a closed range "3.00–5.00" or "at or below the critical level") or "none"
+ * (the source classifies that exact value on neither side, as in "< 1 low; > 1 high").
+ */
+export type AtLimit = "above" | "below" | "none";
+
+/**
+ * Index of the band that holds `value` under a table's own edge rule, one rule per limit (see
+ * AtLimit); null when the value equals a limit the source leaves unclassified ("none").
+ * SOIL.BAND's rule on the user's own limits is the special case of every limit "above".
+ * @param value any finite number, in the unit of the limits
+ * @param limits strictly ascending limits (checked by the caller's data test)
+ * @param atLimit one rule per limit
+ * @returns band index 0 … n, or null
+ * @throws OUT_OF_RANGE for a value that is not finite; SHAPE_MISMATCH when the rules and limits differ in number
+ * @example bandIndexAt(20, [10, 20, 30], ["above", "below", "below"]) //=> 1
+ */
+export function bandIndexAt(value: number, limits: readonly number[], atLimit: readonly AtLimit[]): number | null {
+  check(value, { name: "value" });
+  if (atLimit.length !== limits.length) {
+    throw new SoilError("SHAPE_MISMATCH", `${limits.length} limits need ${limits.length} edge rules (got ${atLimit.length})`);
+  }
+  let k = 0;
+  for (; k < limits.length; k++) {
+    const l = limits[k] as number;
+    if (value > l) continue;
+    if (value < l) break;
+    const rule = atLimit[k];
+    if (rule === "none") return null;
+    if (rule === "below") break;
+  }
+  return k;
+}
+
+/**
  * The label of the band that holds `value` (SOIL.BAND).
  * @param value any finite number, in the unit of the limits
  * @param limits ascending lower bounds; n limits make n + 1 bands

@@ -4,7 +4,7 @@
  * published tables are checked in sufficiency.test.ts.
  */
 import fc from "fast-check";
-import { bandIndex, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../../src/core/bands/bands";
+import { bandIndex, bandIndexAt, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../../src/core/bands/bands";
 import { errorCode as code } from "../../helpers/errors";
 
 
@@ -205,5 +205,33 @@ describe("properties (fast-check; invented limits)", () => {
         return bandLabel(v, limits, labels) === `band ${bandIndex(v, limits)}`;
       }),
     );
+  });
+});
+
+describe("bandIndexAt: a published table's own edge rule, limit by limit", () => {
+  // Derived: the three rules a printed table can state at a limit (see AtLimit in bands.ts).
+  it("'above' puts a value equal to the limit in the band above, like SOIL.BAND", () => {
+    expect(bandIndexAt(20, [10, 20, 30], ["above", "above", "above"])).toBe(bandIndex(20, [10, 20, 30]));
+  });
+  it("'below' keeps it in the band the limit closes (a closed printed range)", () => {
+    expect(bandIndexAt(20, [10, 20, 30], ["above", "below", "below"])).toBe(1);
+    expect(bandIndexAt(10, [10, 20, 30], ["above", "below", "below"])).toBe(1);
+  });
+  it("'none' leaves the exact value unclassified (null); its neighbours are classified", () => {
+    expect(bandIndexAt(1, [1], ["none"])).toBeNull();
+    expect(bandIndexAt(0.999, [1], ["none"])).toBe(0);
+    expect(bandIndexAt(1.001, [1], ["none"])).toBe(1);
+  });
+  it("values off the limits are unaffected by the rules", () => {
+    fc.assert(
+      fc.property(fc.double({ min: -100, max: 100, noNaN: true }), (v) => {
+        const limits = [-10, 0, 10];
+        fc.pre(!limits.includes(v));
+        expect(bandIndexAt(v, limits, ["below", "none", "above"])).toBe(bandIndex(v, limits));
+      }),
+    );
+  });
+  it("refuses rules that do not match the limits in number", () => {
+    expect(code(() => bandIndexAt(5, [1, 2], ["above"]))).toBe("SHAPE_MISMATCH");
   });
 });
