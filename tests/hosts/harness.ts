@@ -142,6 +142,7 @@ export function distMetadata(): FunctionMeta[] {
 
 const TYPES: Record<string, string> = {
   ".html": "text/html; charset=utf-8",
+  ".css": "text/css; charset=utf-8",
   ".js": "text/javascript; charset=utf-8",
   ".json": "application/json",
   ".xml": "application/xml",
