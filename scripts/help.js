@@ -170,6 +170,9 @@ nav, main, footer { max-width: 46rem; margin: 0 auto; padding: 0.6rem 1rem; }
 nav { border-bottom: 1px solid #ccc; font-size: 0.9rem; }
 footer { border-top: 1px solid #ccc; font-size: 0.8rem; color: #555; margin-top: 2rem; }
 h1 { font-size: 1.4rem; margin: 0.8rem 0 0.2rem; }
+h1 code { font-size: inherit; }
+dt { margin-top: 0.6rem; }
+dd { margin: 0.1rem 0 0 1.2rem; }
 h2 { font-size: 1.05rem; margin: 1.4rem 0 0.4rem; }
 code, pre { font-family: ui-monospace, monospace; font-size: 0.9rem; }
 pre { background: #f4f4f4; padding: 0.5rem; overflow-x: auto; white-space: pre-wrap; }
@@ -240,14 +243,14 @@ function renderHelpSite(input) {
     });
     const call = `=${ns}.${f.name}(${params.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ")})`;
 
-    const rows = params
+    const items = params
       .map((p) => {
         const dflt = p.default !== undefined ? ` Default when left out: ${esc(String(p.default))}.` : "";
-        return `<tr><td><code>${esc(p.name)}</code></td><td>${p.optional ? "optional" : "required"}</td><td>${esc(kindWords(p.kind))}</td><td>${linked(p.text, ids, f.id)}${dflt}</td></tr>`;
+        return `<dt><code>${esc(p.name)}</code> <span class="note">${p.optional ? "optional" : "required"} · ${esc(kindWords(p.kind))}</span></dt>\n<dd>${linked(p.text, ids, f.id)}${dflt}</dd>`;
       })
       .join("\n");
     const argsBlock = params.length
-      ? `<table>\n<tr><th>argument</th><th></th><th>takes</th><th>meaning, unit, range, default</th></tr>\n${rows}\n</table>
+      ? `<dl>\n${items}\n</dl>
 <p class="note">Leave an optional argument out, or empty between commas (<code>=${esc(ns)}.${esc(f.name)}(a,,c)</code>), to take its default. A blank cell in a number argument gives a blank result for that element.</p>`
       : "<p>None.</p>";
 
