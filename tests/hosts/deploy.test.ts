@@ -20,6 +20,10 @@ const deploy = require("../../scripts/deploy-host.js") as {
   isUnder(url: string, host: string): boolean;
 };
 // eslint-disable-next-line @typescript-eslint/no-require-imports
+const checkHost = require("../../scripts/check-host.js") as {
+  checkHost(base: string, opts: { allowHttp?: boolean; fetchImpl?: typeof fetch }): Promise<{ problems: string[]; checked: number }>;
+};
+// eslint-disable-next-line @typescript-eslint/no-require-imports
 const webpackConfig = require("../../webpack.config.js") as (env: Record<string, unknown>) => unknown;
 
 const HOST = "https://addins.example.org/soilcell";
@@ -176,6 +180,38 @@ describe("a real deploy build (into a temporary folder)", () => {
     } finally {
       await server.close();
     }
+  });
+
+  it("check-host, pointed at the deployed copy, finds everything and asks only for the cross-origin header on functions.json", async () => {
+    const plain = await serveDirectory(out);
+    const withCors = await serveDirectory(out, { "access-control-allow-origin": "*" });
+    try {
+      const via = (origin: string) => ((url: string, init?: RequestInit) => fetch(url.replace(HOST, origin), init)) as typeof fetch;
+      const a = await checkHost.checkHost(HOST, { fetchImpl: via(plain.origin) });
+      expect(a.problems).toEqual([`${HOST}/functions.json has no Access-Control-Allow-Origin for https://excel.officeapps.live.com (got none): Excel on the web cannot read the functions`]);
+      expect(a.checked).toBeGreaterThan(metadata.functions.length);
+      const b = await checkHost.checkHost(HOST, { fetchImpl: via(withCors.origin) });
+      expect(b.problems).toEqual([]);
+    } finally {
+      await plain.close();
+      await withCors.close();
+    }
+  });
+
+  it("check-host reports a missing file and a wrong content type", async () => {
+    const calls: string[] = [];
+    const fake = (async (url: string) => {
+      calls.push(url);
+      const u = new URL(url);
+      if (u.pathname.endsWith("/manifest.xml")) return new Response(manifest, { status: 200, headers: { "content-type": "application/xml" } });
+      if (u.pathname.endsWith("/functions.json")) return new Response(JSON.stringify(metadata), { status: 200, headers: { "content-type": "application/json", "access-control-allow-origin": "*" } });
+      if (u.pathname.endsWith("/functions.js")) return new Response("x", { status: 404 });
+      if (u.pathname.endsWith(".css")) return new Response("x", { status: 200, headers: { "content-type": "application/octet-stream" } });
+      const type = u.pathname.endsWith(".png") ? "image/png" : "text/html";
+      return new Response("x", { status: 200, headers: { "content-type": type } });
+    }) as unknown as typeof fetch;
+    const r = await checkHost.checkHost(HOST, { fetchImpl: fake });
+    expect(r.problems).toEqual([`${HOST}/functions.js → 404`, `${HOST}/help/style.css is served as "application/octet-stream"`]);
   });
 
   it("holds only files a static host serves as they are (no server code, no dotfiles)", () => {

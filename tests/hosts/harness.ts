@@ -158,7 +158,8 @@ export interface StaticServer {
   close(): Promise<void>;
 }
 
-export async function serveDirectory(dir: string): Promise<StaticServer> {
+/** A plain static server for `dir`; `headers` are added to every successful response (as a host's header rules would). */
+export async function serveDirectory(dir: string, headers: Record<string, string> = {}): Promise<StaticServer> {
   const served: string[] = [];
   const server = http.createServer((req, res) => {
     const url = new URL(req.url ?? "/", "http://127.0.0.1");
@@ -169,7 +170,7 @@ export async function serveDirectory(dir: string): Promise<StaticServer> {
       res.end("not found");
       return;
     }
-    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream", "cache-control": "no-store" });
+    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream", "cache-control": "no-store", ...headers });
     res.end(fs.readFileSync(file));
   });
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
