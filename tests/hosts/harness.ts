@@ -74,7 +74,7 @@ export function describeHost(title: string, program: string | undefined, what: s
 // ---------------------------------------------------------------------------------------------
 // dist/
 
-const BUILD_INPUTS = ["src", "generated", "assets", "manifest.xml", "webpack.config.js", "package.json"];
+const BUILD_INPUTS = ["src", "generated", "assets", "scripts", "manifest.xml", "webpack.config.js", "package.json"];
 
 function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;
