@@ -13,6 +13,9 @@ import { declare, num, optNum, optRange, optText, range, text } from "./_binding
  * @param {any[][]} limits A row or column of strictly ascending lower bounds; n limits make n+1 bands.
  * @param {any[][]} [labels] A row or column of n+1 labels in any language. Omitted: Very low, Low, Optimum, High, Very high (four limits only).
  * @returns {any[][]} The band's label.
+ * @throws #VALUE! when limits are not strictly ascending, or labels are not one more than the limits (no labels: four limits only).
+ * @example =SOIL.BAND(20, {15,24,31}, {"Low","Optimum","High","Very high"}) //=> "Optimum"
+ * Source: Magdoff & van Es, Building Soils for Better Crops (SARE), Table 21.2, Bray-1 P: low 0-15, optimum 15-24, high 24-31, very high above 31 ppm (seen).
  */
 export function band(value: any[][], limits: any[][], labels?: any[][]): any[][] {
   return BAND(arguments);
@@ -26,6 +29,9 @@ const BAND = declare(band, [num("value"), range("limits"), optRange("labels")], 
  * @param {any[][]} value Value in the unit of the limits; a cell or a range.
  * @param {any[][]} limits A row or column of at least two strictly ascending lower bounds.
  * @returns {any[][]} Position: n limits give 0 … n−1; the open end bands run on with the width of the first and last band, so half a band out is −0.5 or n−0.5. Not clamped: values further out lie beyond that.
+ * @throws #VALUE! for fewer than two limits or limits not strictly ascending.
+ * @example =SOIL.BANDPOS(20, {15,24,31}) //=> 0.5556
+ * Source: the Bray-1 P limits of Magdoff & van Es (SARE) Table 21.2 (seen); the position (20 - 15)/(24 - 15) is derived.
  */
 export function bandpos(value: any[][], limits: any[][]): any[][] {
   return BANDPOS(arguments);
@@ -43,6 +49,10 @@ const BANDPOS = declare(bandpos, [num("value"), range("limits")], (value, limits
  * @param {any[][]} [cec] CEC in cmol(+)/kg, above 0; needed where the table's levels depend on it (Mehlich-3 K).
  * @param {any[][]} [table] A built-in table id (soilcell list), where several fit (subclover S by stage); or your own table as a range: nutrient | method | crop | band | limit | band … per row.
  * @returns {any[][]} The source's band label; #N/A where no table covers the combination (the message lists those that exist). Interpretations are regional estimates: check them locally.
+ * @throws #N/A when no built-in table covers the nutrient, crop and method (the message lists those that exist), when the value sits exactly on a limit the source leaves in neither class, or is above the top of a closed published scale.
+ * @throws #VALUE! when method is missing, cec is missing where the table's levels depend on it, or a table range is malformed.
+ * @example =SOIL.SUFFICIENCY("P", 30, , "Olsen") //=> "Index 3"
+ * Source: Nutrient Action Programme Regulations (Northern Ireland) 2019, S.R. 2019/81, Schedule 5 para. 10, Olsen P index (seen).
  */
 export function sufficiency(
   nutrient: any[][],
@@ -70,6 +80,10 @@ const SUFFICIENCY = declare(
  * @param {any[][]} [yield_unit] t/ha (default), kg/ha, lb/ac, ton/ac, g/m2, or bu/ac for crops with a standard bushel weight.
  * @param {any[][]} [rate_unit] Unit of the result: kg/ha (default), lb/ac, t/ha, ton/ac or g/m2.
  * @returns {any[][]} Nutrient removed in rate_unit. Results are estimates: check them against local calibrations, regulations and licensed advice.
+ * @throws #VALUE! for an unknown crop, nutrient or unit word, or a negative yield.
+ * @throws #N/A when the source gives no coefficient for that crop and nutrient, or bu/ac is used for a crop without a standard bushel weight.
+ * @example =SOIL.REMOVAL("corn", 10, "P2O5") //=> 72.5
+ * Source: OMAFA Field Crop News (2025) "Crop Removal Values", Table 1: corn grain 6.6-7.9 kg P2O5/t (seen); 10 t/ha at the midpoint (derived).
  */
 export function removal(crop: any[][], crop_yield: any[][], nutrient: any[][], yield_unit?: any[][], rate_unit?: any[][]): any[][] {
   return REMOVAL(arguments);
@@ -89,6 +103,9 @@ const REMOVAL = declare(
  * @param {any[][]} buffer_factor Nutrient that raises the test by one unit, above 0 (e.g. 20 lb P2O5/ac per ppm P, Tri-State).
  * @param {any[][]} [years] Years to reach the target, above 0; default 4 (Tri-State build-up period).
  * @returns {any[][]} Rate per year in the buffer factor's unit; 0 means no build-up needed. Results are estimates: check them against local calibrations, regulations and licensed advice.
+ * @throws #VALUE! for a buffer_factor or years of 0 or less, or a negative soil test or target.
+ * @example =SOIL.BUILDUP(10, 15, 20) //=> 25
+ * Source: LaBarge, OSU Extension, "How much fertilizer will move soil test levels": 20 lb P2O5/A per ppm of soil-test P (seen); Tri-State four-year build-up (Culman et al. 2020, OSU Bull. 974, seen); 10 to 15 ppm is derived.
  */
 export function buildup(soil_test: any[][], target: any[][], buffer_factor: any[][], years?: any[][]): any[][] {
   return BUILDUP(arguments);

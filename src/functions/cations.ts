@@ -16,6 +16,9 @@ import { declare, num, optNum, optText, text } from "./_binding";
  * @param {any[][]} [unit] Unit of ca, mg, k, na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} CEC in cmol(+)/kg. On calcareous or saline soils the extractant dissolves salts, so the sum can overstate the CEC.
+ * @throws #VALUE! for an unknown or ambiguous unit word, mg/dm3 without bulk_density, or a negative amount.
+ * @example =SOIL.CEC(200, 14, 110.5, 6, 2.4, "mg/kg") //=> 3.822
+ * Source: Clemson University Agricultural Service Laboratory, "CEC calculations" worked example: K 221, Mg 28, Ca 400, Na 12 lb/acre (halved to ppm), H 2.40 meq/100 g, CEC 3.83 meq/100 g with rounded divisors (seen); 3.822 with IUPAC/CIAAW equivalent weights.
  */
 export function cec(ca: any[][], mg: any[][], k: any[][], na: any[][], acidity?: any[][], unit?: any[][], bulk_density?: any[][]): any[][] {
   return CEC(arguments);
@@ -40,6 +43,9 @@ const CEC = declare(
  * @param {any[][]} [unit] Unit of ca, mg, k, na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} Percent of the CEC, not capped: above 100 % means the extract held more bases than the measured CEC (carbonates, gypsum or salts dissolved), so read it as a warning about the sum, not as a saturation.
+ * @throws #VALUE! for part acidity without acidity, bases without acidity or cec, a cec of 0 or less, or an unknown part or unit word.
+ * @example =SOIL.SATURATION("bases", 200, 14, 110.5, 6, 2.4) //=> 37
+ * Source: Clemson University Agricultural Service Laboratory, "CEC calculations" worked example: base saturation 1.43 / 3.83 = 37 % (seen).
  */
 export function saturation(
   part: any[][],
@@ -69,6 +75,9 @@ const SATURATION = declare(
  * @param {any[][]} [unit] Unit of ca and mg: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg or mg/dm3 (no bulk density needed: it cancels).
  * @param {any[][]} [basis] charge (default; about 0.61 x the mass ratio) or mass. Ratios are weak grounds for fertiliser decisions: use sufficiency levels (Kopittke & Menzies 2007).
  * @returns {any[][]} The Ca:Mg ratio on the chosen basis.
+ * @throws #VALUE! when mg is 0 (no ratio), for a negative amount, or a basis other than charge or mass.
+ * @example =SOIL.CAMG(200, 14) //=> 8.663
+ * Source: Ca 200 and Mg 14 ppm are the Clemson "CEC calculations" worked example (400 and 28 lb/acre, seen); the charge-basis ratio is derived from IUPAC/CIAAW equivalent weights.
  */
 export function camg(ca: any[][], mg: any[][], unit?: any[][], basis?: any[][]): any[][] {
   return CAMG(arguments);
@@ -84,6 +93,9 @@ const CAMG = declare(camg, [num("ca"), num("mg"), optText("unit"), optText("basi
  * @param {any[][]} [unit] Unit of na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} ESP in %, not capped (above 100 % means soluble Na was counted as exchangeable).
+ * @throws #VALUE! for a cec of 0 or less, a negative Na, or mg/dm3 without bulk_density.
+ * @example =SOIL.ESP(2, 20, "cmol/kg") //=> 10
+ * Source: definition ESP = 100 x exchangeable Na / CEC, as stated on Exova, "Soil characteristics" (seen) after USDA Agriculture Handbook 60 (1954; from memory).
  */
 export function esp(na: any[][], cec: any[][], unit?: any[][], bulk_density?: any[][]): any[][] {
   return ESP(arguments);
@@ -103,6 +115,9 @@ const ESP = declare(
  * @param {any[][]} mg Magnesium, in unit, at least 0; ca + mg must be above 0.
  * @param {any[][]} [unit] mmolc/L (default, = meq/L) or mg/L; a bare mmol/L is refused (for Ca and Mg it is half of mmolc/L).
  * @returns {any[][]} SAR in (mmolc/L)^0.5.
+ * @throws #VALUE! when ca + mg is 0, for a negative concentration, or a bare mmol/L (ambiguous for Ca and Mg).
+ * @example =SOIL.SAR(15, 6, 4) //=> 6.708
+ * Source: SAR = Na / sqrt((Ca + Mg)/2) in meq/L, U.S. Salinity Laboratory Staff (1954) USDA Handbook 60 pp. 25-26 (formula seen in the CSU Sacramento water glossary, citation on the UC Davis analytical lab page); arithmetic derived.
  */
 export function sar(na: any[][], ca: any[][], mg: any[][], unit?: any[][]): any[][] {
   return SAR(arguments);

@@ -16,6 +16,10 @@ import { declare, num, optNum, optRange, optText, range } from "./_binding";
  * @param {any[][]} [depth_cm] Depth to lime in cm; default the calibration's own depth (SIKORA-OR2025 15.24 cm), and a given depth scales the rate in proportion. Leave blank with a range or MEHLICH.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac. Leave blank with a range: the result is then in the range's own unit.
  * @returns {any[][]} Pure CaCO3 equivalent (MEHLICH: lime as NCDA&CS states it; a range: its own unit). Estimates: split large rates, incorporate to the depth used, check local calibrations, regulations and licensed advice.
+ * @throws #N/A for the default calibration SMP: its table is not shipped yet (name SIKORA-OR2025 or MEHLICH, or pass your laboratory's table).
+ * @throws #VALUE! when buffer_ph or target_ph lies outside the calibration table (it is never extrapolated), for MEHLICH without soil_ph, or depth_cm or unit given with a table of your own.
+ * @example =SOIL.LIMEBUFFER(6, 5.6, "SIKORA-OR2025", , , "ton/ac") //=> 1.7
+ * Source: Moore (2025) "Updated lime requirement recommendations for Oregon", OSU Extension EM 9585, Table 1 and its worked example: Sikora buffer 6.0, target 5.6, 1.7 t/acre (seen).
  */
 export function limebuffer(
   buffer_ph: any[][],
@@ -43,6 +47,9 @@ const LIMEBUFFER = declare(
  * @param {any[][]} [bulk_density] Dry bulk density of the layer in g/cm3 (0 to 2.65); required.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent. Estimates: split large rates, incorporate to the depth used, check local calibrations, regulations and licensed advice.
+ * @throws #VALUE! when depth_cm or bulk_density is missing (the method is per kg of soil), or for a factor of 0 or less.
+ * @example =SOIL.LIMEAL(2, , 20, 1.2) //=> 3.603
+ * Source: Kamprath (1970) SSSA Proc. 34:252-254, 1.5 cmol(+) CaCO3 per cmol(+) of exchangeable Al (abstract and factor seen); 2 cmol(+)/kg Al over 20 cm at 1.2 g/cm3 is arithmetic (derived).
  */
 export function limeal(exch_al: any[][], factor?: any[][], depth_cm?: any[][], bulk_density?: any[][], unit?: any[][]): any[][] {
   return LIMEAL(arguments);
@@ -66,6 +73,9 @@ const LIMEAL = declare(
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0 to 2.65); required.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent; 0 when the Al saturation is already at or below the target. Estimates: split large rates, check local calibrations, regulations and licensed advice.
+ * @throws #VALUE! when target_al_sat or bulk_density is missing, or for a negative cation.
+ * @example =SOIL.LIMEALSAT(2, 1, 0.5, 20, , , 1) //=> 1.952
+ * Source: Cochrane, Salinas & Sanchez (1980) Tropical Agriculture 57:133-140, LR = 1.5 [Al - RAS (Al + Ca + Mg)/100] meq/100 g (abstract seen); the rate for 20 cm at 1.0 g/cm3 is derived.
  */
 export function limealsat(
   al: any[][],
@@ -96,6 +106,9 @@ const LIMEALSAT = declare(
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3; give it only when cec is per kg (cmol(+)/kg).
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent (PRNT 100 %); divide by PRNT/100 (SOIL.LIMEPRODUCT) for the product. Estimates: check local calibrations, regulations and licensed advice.
+ * @throws #VALUE! for base_sat or target_base_sat outside 0 to 100, or a negative cec.
+ * @example =SOIL.LIMEBASESAT(5.46, 8.42, 60) //=> 2.819
+ * Source: base-saturation method as used in Brazil (van Raij et al. 1997, IAC Boletim Tecnico 100; attribution from memory): T 5.46 cmolc/dm3, V 8.42 to 60 %, worked example seen on a Brazilian agronomy page (2.82 t/ha with 1 t/ha per cmolc/dm3).
  */
 export function limebasesat(
   cec: any[][],
@@ -124,6 +137,9 @@ const LIMEBASESAT = declare(
  * @param {any[][]} [bulk_density] Dry bulk density of the layer in g/cm3 (0 to 2.65); required.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent. Estimates: split large rates, incorporate to the depth used, check local calibrations, regulations and licensed advice.
+ * @throws #VALUE! when depth_cm or bulk_density is missing, or for a pH outside 0 to 14 or a negative capacity.
+ * @example =SOIL.LIMEPHBC(5.2, 6, 400/500.43, 15, 1.3, "kg/ha") //=> 624
+ * Source: lime buffer capacity, Sonon & Kissel, UGA Extension Circular 874 and SERA-IEG-6 fact sheet 3 (definition seen): LBC 400 mg CaCO3/kg per pH unit, pH 5.2 to 6.0 is 320 mg/kg, 624 kg/ha over 15 cm at 1.3 g/cm3 (derived).
  */
 export function limephbc(
   soil_ph: any[][],
@@ -150,6 +166,9 @@ const LIMEPHBC = declare(
  * @param {any[][]} [fineness_pct] Fineness efficiency, % (above 0, at most 100; SOIL.FINENESS); default 100, e.g. when cce_pct is already an ECCE.
  * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0 to below 100); default 0.
  * @returns {any[][]} Product as received, same unit as caco3_rate. Handle with care: dust; burnt and hydrated lime are caustic. Estimates: check local calibrations and regulations.
+ * @throws #VALUE! for cce_pct of 0 or above 250, fineness_pct of 0 or above 100, or moisture_pct of 100 or more.
+ * @example =SOIL.LIMEPRODUCT(5, 70) //=> 7.143
+ * Source: Penn State Agricultural Analytical Services Lab, home-garden report notes: 5 lb/100 ft2 at CCE 100 is 7 lb/100 ft2 of a CCE 70 product (seen; the source rounds 7.14).
  */
 export function limeproduct(caco3_rate: any[][], cce_pct: any[][], fineness_pct?: any[][], moisture_pct?: any[][]): any[][] {
   return LIMEPRODUCT(arguments);
@@ -167,6 +186,9 @@ const LIMEPRODUCT = declare(
  * @param {any[][]} fractions % of the sample in each size class, one row or column, finest first; must add up to 100 +/- 1 %. Default classes: finer than 60 mesh, 20-60, 8-20, coarser than 8 mesh.
  * @param {any[][]} [efficiencies] % effectiveness of each class, one per fraction (0 to 100); default 100, 60, 20, 0 (the method developed in Ohio).
  * @returns {any[][]} Fineness efficiency, % (use as fineness_pct in SOIL.LIMEPRODUCT).
+ * @throws #VALUE! when the fractions do not add up to 100 +/- 1 %, or efficiencies do not match the fractions one for one.
+ * @example =SOIL.FINENESS({78.8;10;2.4;7.8}) //=> 85.28
+ * Source: BC Ministry of Agriculture Soil Factsheet 637.200-2, "Evaluation of Agricultural Limestone", limestone A: 85.28 % (seen).
  */
 export function fineness(fractions: any[][], efficiencies?: any[][]): any[][] {
   return FINENESS(arguments);

@@ -13,6 +13,9 @@ import { declare, num, optNum, optText, text } from "./_binding";
  * @param {any[][]} ndfa_pct Percent of legume N from the atmosphere, 0–100 (e.g. from SOIL.NDFA).
  * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1), "walley2007" (1.32, pulses), or a crop: "faba bean" (1.43), "chickpea" (1.92), "mungbean" (1.39), "pigeonpea" (1.75).
  * @returns {any[][]} kg N/ha fixed by the whole plant (shoots only with "shoot").
+ * @throws #VALUE! when root_factor is missing (no default: the published factors could not be verified), or for a %Ndfa outside 0 to 100 (not clamped) or a shoot N above 16 %.
+ * @example =SOIL.NFIXED(8, 2.5, 71.4, "shoot") //=> 142.8
+ * Source: fixed N = shoot N x %Ndfa (Peoples et al. 1989, ACIAR Monograph 11; Unkovich et al. 2008, ACIAR Monograph 136; method seen); 200 kg shoot N/ha at 71.4 % is derived.
  */
 export function nfixed(shoot_dm: any[][], shoot_n_pct: any[][], ndfa_pct: any[][], root_factor?: any[][]): any[][] {
   return NFIXED(arguments);
@@ -30,6 +33,9 @@ const NFIXED = declare(
  * @param {any[][]} [kg_n_per_t] Needed, no default: kg N fixed per t shoot DM (0–160), "pasture" (20, Peoples et al. 2012) or "crop" (25, GRDC back pocket guide).
  * @param {any[][]} [root_factor] Whole-plant N ÷ shoot N (1–10), "walley2007" or a crop word as in SOIL.NFIXED; default "shoot" (1).
  * @returns {any[][]} kg N/ha fixed.
+ * @throws #VALUE! when kg_n_per_t is missing (no crop-legume rule could be verified), or for a word other than pasture.
+ * @example =SOIL.NFIXDM(5, "pasture") //=> 100
+ * Source: Peoples et al. (2012) Crop & Pasture Science 63:759-786: about 20 kg shoot N fixed per t of legume herbage dry matter (abstract seen); 5 t/ha is derived.
  */
 export function nfixdm(shoot_dm: any[][], kg_n_per_t?: any[][], root_factor?: any[][]): any[][] {
   return NFIXDM(arguments);
@@ -48,6 +54,9 @@ const NFIXDM = declare(
  * @param {any[][]} b_value B value: δ15N of the legume grown wholly on fixed N, ‰ (−100 to 100).
  * @param {any[][]} [min_gap] Smallest reference − B for a reliable result, ‰ (0–20); default 2.
  * @returns {any[][]} %Ndfa; values a little outside 0–100 reflect measurement error and are returned as computed.
+ * @throws #VALUE! when d15n_reference is less than min_gap above b_value, or the result is below -20 % or above 120 % (the message says why).
+ * @example =SOIL.NDFA(6, 1, -1) //=> 71.43
+ * Source: %Ndfa = 100 (d15N reference - d15N legume)/(d15N reference - B) (Ledgard 1989; Peoples et al. 1989 ACIAR Monograph 11; equation seen); these delta values are arithmetic on it (derived).
  */
 export function ndfa(d15n_reference: any[][], d15n_legume: any[][], b_value: any[][], min_gap?: any[][]): any[][] {
   return NDFA(arguments);
@@ -66,6 +75,9 @@ const NDFA = declare(
  * @param {any[][]} [legume_soil_n] Soil mineral N under the legume, kg N/ha; give with reference_soil_n or not at all.
  * @param {any[][]} [reference_soil_n] Soil mineral N under the reference crop, kg N/ha.
  * @returns {any[][]} kg N/ha fixed; negative means the reference took up more N (the method failed).
+ * @throws #VALUE! when only one of the two soil N values is given, or for a negative N yield.
+ * @example =SOIL.NDIFF(250, 90) //=> 160
+ * Source: N-difference method, Peoples et al. (1989) ACIAR Monograph 11, as tabulated in Frontiers in Microbiology 2023 (formula seen); arithmetic derived.
  */
 export function ndiff(legume_n: any[][], reference_n: any[][], legume_soil_n?: any[][], reference_soil_n?: any[][]): any[][] {
   return NDIFF(arguments);
@@ -83,6 +95,9 @@ const NDIFF = declare(
  * @param {any[][]} grain_yield Grain yield, t/ha (0–30), same moisture basis as grain_n_pct.
  * @param {any[][]} grain_n_pct Grain N, % (0–16; crude protein ÷ 6.25 gives N %).
  * @returns {any[][]} kg N/ha; negative when grain removed more N than was fixed.
+ * @throws #VALUE! for a negative fixed_n, a grain yield outside 0 to 30 t/ha, or grain N above 16 %.
+ * @example =SOIL.NBALANCE(142.8, 2, 5) //=> 42.8
+ * Source: partial N balance, fixed N minus grain N removed (Unkovich, Pate, Sanford & Armstrong 1994, abstract seen); fixed N from the SOIL.NFIXED example, grain yield and N % illustrative, not from a source.
  */
 export function nbalance(fixed_n: any[][], grain_yield: any[][], grain_n_pct: any[][]): any[][] {
   return NBALANCE(arguments);
@@ -99,6 +114,9 @@ const NBALANCE = declare(
  * @param {any[][]} grain_yield Grain yield, t/ha (0–30).
  * @param {any[][]} harvest_index Harvest index as a fraction, above 0 and at most 1 (35 % is 0.35).
  * @returns {any[][]} Shoot (above-ground) dry matter, t/ha.
+ * @throws #VALUE! for a harvest_index of 0 or above 1 (35 % is given as 0.35), or a grain yield outside 0 to 30 t/ha.
+ * @example =SOIL.SHOOTDM(2, 0.4) //=> 5
+ * Source: definition of harvest index, grain yield / shoot dry matter (common practice); inputs illustrative, not from a source.
  */
 export function shootdm(grain_yield: any[][], harvest_index: any[][]): any[][] {
   return SHOOTDM(arguments);

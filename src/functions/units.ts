@@ -13,6 +13,9 @@ import { declare, num, optNum, text } from "./_binding";
  * @param {any[][]} [depth_cm] Soil layer depth in cm (0–300); needed between mass fraction or volume and area rate.
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed between mass fraction and area rate or volume.
  * @returns {any[][]} The value in to_unit.
+ * @throws #VALUE! when from_unit and to_unit measure different things (a mass fraction and a salinity), or when a conversion between mass fraction, soil volume and area rate lacks depth_cm or bulk_density (the message names which).
+ * @example =SOIL.CONVERT(100, "lb/ac", "kg/ha") //=> 112.085
+ * Source: IPNI, Better Crops with Plant Food 91(4) 2007 p. 31, "Conversion factors for U.S. system and metric units": lb/A x 1.12 = kg/ha (seen); 1.120851 from the exact 1959 pound and acre (derived).
  */
 export function convert(value: any[][], from_unit: any[][], to_unit: any[][], depth_cm?: any[][], bulk_density?: any[][]): any[][] {
   return CONVERT(arguments);
@@ -29,6 +32,9 @@ const CONVERT = declare(
  * @param {any[][]} mg_per_kg Exchangeable cation in mg/kg (ppm), at least 0.
  * @param {any[][]} ion Ca, Mg, K, Na, NH4, H, Al (Al3+) or Mn (Mn2+).
  * @returns {any[][]} cmol(+)/kg.
+ * @throws #VALUE! for an ion not in the list, or a negative amount.
+ * @example =SOIL.CMOL(200, "Ca") //=> 0.998
+ * Source: Clemson University Agricultural Service Laboratory, "CEC calculations": 200 ppm Ca (400 lb/acre) is 1 meq/100 g with the handbook divisor (seen); 0.998 with the IUPAC/CIAAW equivalent weight 200.39 (derived).
  */
 export function cmol(mg_per_kg: any[][], ion: any[][]): any[][] {
   return CMOL(arguments);
@@ -41,6 +47,9 @@ const CMOL = declare(cmol, [num("mg_per_kg"), text("ion")], (mgKg, ion) => cmolF
  * @param {any[][]} cmol_per_kg Exchangeable cation in cmol(+)/kg, at least 0.
  * @param {any[][]} ion Ca, Mg, K, Na, NH4, H, Al (Al3+) or Mn (Mn2+).
  * @returns {any[][]} mg/kg.
+ * @throws #VALUE! for an ion not in the list, or a negative amount.
+ * @example =SOIL.MGKG(1, "K") //=> 390.98
+ * Source: Clemson University Agricultural Service Laboratory, "CEC calculations": K divisor 782 lb/acre, i.e. 391 ppm, per meq/100 g (seen); 390.98 from the IUPAC/CIAAW atomic weight of K (derived).
  */
 export function mgkg(cmol_per_kg: any[][], ion: any[][]): any[][] {
   return MGKG(arguments);
@@ -54,6 +63,9 @@ const MGKG = declare(mgkg, [num("cmol_per_kg"), text("ion")], (cmolKg, ion) => m
  * @param {any[][]} from_form P, P2O5, K, K2O, Ca, CaO, CaCO3, Mg, MgO, MgCO3, S, SO4, SO3, N, NO3, NH4 or NH3.
  * @param {any[][]} to_form A form of the same element.
  * @returns {any[][]} The amount in to_form.
+ * @throws #VALUE! for forms of different elements (P to K2O), or a form not in the list.
+ * @example =SOIL.OXIDE(49.8, "K", "K2O") //=> 60.0
+ * Source: Reiter, Virginia Cooperative Extension SPES-201NP, "Conversion Factors Needed for Common Fertilizer Calculations": 49.8 % K x 1.2051 = 60 % K2O (seen); the IUPAC factor 1.2046 gives 59.99.
  */
 export function oxide(value: any[][], from_form: any[][], to_form: any[][]): any[][] {
   return OXIDE(arguments);

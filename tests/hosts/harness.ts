@@ -74,7 +74,7 @@ export function describeHost(title: string, program: string | undefined, what: s
 // ---------------------------------------------------------------------------------------------
 // dist/
 
-const BUILD_INPUTS = ["src", "generated", "assets", "manifest.xml", "webpack.config.js", "package.json"];
+const BUILD_INPUTS = ["src", "generated", "assets", "scripts", "manifest.xml", "webpack.config.js", "package.json"];
 
 function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;
@@ -142,6 +142,7 @@ export function distMetadata(): FunctionMeta[] {
 
 const TYPES: Record<string, string> = {
   ".html": "text/html; charset=utf-8",
+  ".css": "text/css; charset=utf-8",
   ".js": "text/javascript; charset=utf-8",
   ".json": "application/json",
   ".xml": "application/xml",
@@ -157,7 +158,8 @@ export interface StaticServer {
   close(): Promise<void>;
 }
 
-export async function serveDirectory(dir: string): Promise<StaticServer> {
+/** A plain static server for `dir`; `headers` are added to every successful response (as a host's header rules would). */
+export async function serveDirectory(dir: string, headers: Record<string, string> = {}): Promise<StaticServer> {
   const served: string[] = [];
   const server = http.createServer((req, res) => {
     const url = new URL(req.url ?? "/", "http://127.0.0.1");
@@ -168,7 +170,7 @@ export async function serveDirectory(dir: string): Promise<StaticServer> {
       res.end("not found");
       return;
     }
-    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream", "cache-control": "no-store" });
+    res.writeHead(200, { "content-type": TYPES[path.extname(file)] ?? "application/octet-stream", "cache-control": "no-store", ...headers });
     res.end(fs.readFileSync(file));
   });
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
