@@ -37,6 +37,7 @@ const HOST: Host = {
   maxCells: 4_000_000,
   value: () => null,
   bounds: () => ({ rows: -1, cols: -1 }),
+  forEach: () => undefined,
   spill: () => err("#REF!", "eval has no workbook"),
   soil: (name) => soilCall(name),
   now: () => (Date.now() - new Date().getTimezoneOffset() * 60000 - Date.UTC(1899, 11, 30)) / 86400000,

@@ -150,11 +150,60 @@ class RecalcHost implements Host {
       for (const r of s.rows) if (r && r.length - 1 > cols) cols = r.length - 1;
       return { rows: s.rows.length - 1, cols };
     });
+    this.areas = book.sheets.map(() => []);
     for (const p of plan.order) {
+      // Areas too large for any formula to fill (a hostile ref) do not widen what ranges visit.
+      if ((p.area.r2 - p.area.r1 + 1) * (p.area.c2 - p.area.c1 + 1) > maxCells) continue;
       const b = this.bound[p.sheet] as { rows: number; cols: number };
       b.rows = Math.max(b.rows, p.area.r2);
       b.cols = Math.max(b.cols, p.area.c2);
+      if (p.area.r2 > p.area.r1 || p.area.c2 > p.area.c1) (this.areas[p.sheet] as Rect[]).push(p.area);
     }
+  }
+
+  /** Multi-cell areas computed formulas may fill, per sheet (cells a file may not have yet). */
+  private readonly areas: Rect[][];
+
+  forEach(ref: XlRef, fn: (v: Scalar, r: number, c: number) => void): void {
+    const sheet = this.book.sheets[ref.sheet];
+    if (!sheet) return;
+    const extra = (this.areas[ref.sheet] ?? []).filter((a) => a.r1 <= ref.r2 && ref.r1 <= a.r2 && a.c1 <= ref.c2 && ref.c1 <= a.c2);
+    const rows = sheet.rows;
+    const rEnd = Math.min(ref.r2, rows.length - 1);
+    if (!extra.length) {
+      for (let r = ref.r1; r <= rEnd; r++) {
+        const row = rows[r];
+        if (!row) continue;
+        const cEnd = Math.min(ref.c2, row.length - 1);
+        for (let c = ref.c1; c <= cEnd; c++) if (row[c]) fn(this.value(ref.sheet, r, c), r, c);
+      }
+      return;
+    }
+    // Spilled cells the file does not have yet are visited too, in row order.
+    const seen = new Set<number>();
+    const positions: [number, number][] = [];
+    for (let r = ref.r1; r <= rEnd; r++) {
+      const row = rows[r];
+      if (!row) continue;
+      const cEnd = Math.min(ref.c2, row.length - 1);
+      for (let c = ref.c1; c <= cEnd; c++) {
+        if (!row[c]) continue;
+        positions.push([r, c]);
+        seen.add(r * 16384 + c);
+      }
+    }
+    for (const a of extra) {
+      for (let r = Math.max(a.r1, ref.r1); r <= Math.min(a.r2, ref.r2); r++) {
+        for (let c = Math.max(a.c1, ref.c1); c <= Math.min(a.c2, ref.c2); c++) {
+          const k = r * 16384 + c;
+          if (seen.has(k)) continue;
+          seen.add(k);
+          positions.push([r, c]);
+        }
+      }
+    }
+    positions.sort((x, y) => x[0] - y[0] || x[1] - y[1]);
+    for (const [r, c] of positions) fn(this.value(ref.sheet, r, c), r, c);
   }
 
   bounds(sheet: number) {
@@ -440,11 +489,14 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
     // Cells the formula covered in the file but no longer fills are cleared.
     const old = f.ref;
     if (old && (f.form === "dynamic" || f.form === "array")) {
-      for (let row = old.r1; row <= old.r2; row++) {
-        for (let col = old.c1; col <= old.c2; col++) {
-          if (row >= area.r1 && row <= area.r2 && col >= area.c1 && col <= area.c2) continue;
-          if (plan.owner(p.sheet, row, col) !== p) continue;
-          if (sheet.rows[row]?.[col]) list.push({ kind: "clear", row, col });
+      for (let row = old.r1; row <= Math.min(old.r2, sheet.rows.length - 1); row++) {
+        const cells = sheet.rows[row];
+        if (!cells) continue;
+        for (let col = old.c1; col <= Math.min(old.c2, cells.length - 1); col++) {
+          if (!cells[col] || (row >= area.r1 && row <= area.r2 && col >= area.c1 && col <= area.c2)) continue;
+          const owner = plan.owner(p.sheet, row, col);
+          if (owner !== undefined && owner !== p) continue;
+          list.push({ kind: "clear", row, col });
         }
       }
     }

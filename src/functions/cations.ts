@@ -130,6 +130,8 @@ const SAR = declare(sar, [num("na"), num("ca"), num("mg"), optText("unit")], (na
  * @customfunction ESPSAR
  * @param {any[][]} sar SAR of the soil's saturation extract, at least 0 (SOIL.SAR of the extract's Na, Ca and Mg).
  * @returns {any[][]} Estimated ESP, %: for when exchangeable Na and CEC were not measured (SOIL.ESP uses measured values). Slightly negative below SAR 0.85, not clamped.
+ * @example =SOIL.ESPSAR(10) //=> 11.887
+ * Source: USDA Agriculture Handbook 60 (1954) regression ESP = 100(-0.0126 + 0.01475 SAR)/(1 + (-0.0126 + 0.01475 SAR)), as quoted in Oklahoma Administrative Code 165:10 (secondary); the value is arithmetic on it.
  */
 export function espsar(sar: any[][]): any[][] {
   return ESPSAR(arguments);

@@ -202,6 +202,8 @@ const FINENESS = declare(fineness, [range("fractions"), optRange("efficiencies")
  * @param {any[][]} analysis_pct % of each component in the material, one row or column (0 to 100 each, together at most 100 plus 1 for rounding; 0 for a component it lacks).
  * @param {any[][]} forms The component of each percentage, same shape: CaCO3, MgCO3, CaMg(CO3)2, CaO, MgO, Ca(OH)2, Mg(OH)2, or the elements Ca and Mg (not both an element and its compounds).
  * @returns {any[][]} CCE, % on the analysis' own basis. Ca and Mg as elements count as neutralizing: gypsum or silicate Ca does not, so use a measured CCE for by-products. Burnt and hydrated lime are caustic.
+ * @example =SOIL.CCE({21.7,13.1},{"Ca","Mg"}) //=> 108.1
+ * Source: Minnesota Department of Agriculture, dolomite of 21.7 % Ca and 13.1 % Mg (seen); CCE derived from IUPAC/CIAAW molar masses.
  */
 export function cce(analysis_pct: any[][], forms: any[][]): any[][] {
   return CCE(arguments);

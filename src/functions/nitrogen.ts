@@ -133,6 +133,8 @@ const SHOOTDM = declare(shootdm, [num("grain_yield"), num("harvest_index")], (gr
  * @param {any[][]} plants_dug Plants dug and scored, a whole number (1–1000; the guide digs about 30, 10 at each of 3 spots).
  * @param {any[][]} plants_adequate Plants scored adequately nodulated, a whole number from 0 to plants_dug (a count, not a percentage).
  * @returns {any[][]} % of plants adequately nodulated, 0–100.
+ * @example =SOIL.NODPCT(30,21) //=> 70
+ * Source: University of Adelaide, "Grower guide to assessing legume nodulation – Riverina": dig 30 plants (10 at each of 3 spots), 70 % adequately nodulated is the "adequate" threshold (seen); the percentage is arithmetic.
  */
 export function nodpct(plants_dug: any[][], plants_adequate: any[][]): any[][] {
   return NODPCT(arguments);
@@ -146,6 +148,8 @@ const NODPCT = declare(nodpct, [num("plants_dug"), num("plants_adequate")], (dug
  * @param {any[][]} plants_adequate Plants scored adequately nodulated, a whole number from 0 to plants_dug.
  * @param {any[][]} [nodules] Nodules counted on all plants dug (0–100000); 0 rates None. Blank: not counted.
  * @returns {any[][]} "Adequate: …", "Borderline: …", "Poor: …" or "None: …" with the % and the scale's source.
+ * @example =SOIL.NODRATING(30,21,600) //=> "Adequate: 70 %…"
+ * Source: University of Adelaide, "Grower guide to assessing legume nodulation – Riverina": ≥ 70 % of plants adequate is adequate, 50–70 % borderline, < 50 % poor (seen).
  */
 export function nodrating(plants_dug: any[][], plants_adequate: any[][], nodules?: any[][]): any[][] {
   return NODRATING(arguments);
@@ -162,6 +166,8 @@ const NODRATING = declare(
  * @param {any[][]} nodules Nodules cut open and looked at, a whole number (1–100000).
  * @param {any[][]} nodules_pink Of those, nodules red or pink inside, a whole number from 0 to nodules.
  * @returns {any[][]} % of nodules effective, 0–100 (no published rating of this share exists, so none is given).
+ * @example =SOIL.NODPINK(40,30) //=> 75
+ * Source: GRDC Communities, "Growing legumes? How to check their nodules": nodules pink or red inside are effective (seen); the share is arithmetic.
  */
 export function nodpink(nodules: any[][], nodules_pink: any[][]): any[][] {
   return NODPINK(arguments);
@@ -175,6 +181,8 @@ const NODPINK = declare(nodpink, [num("nodules"), num("nodules_pink")], (nodules
  * @param {any[][]} nodules Nodules counted on all of them, a whole number (0–100000).
  * @param {any[][]} legume Legume: "field pea", "faba bean", "vetch" (50 per plant is good), or a pasture legume (at least 20).
  * @returns {any[][]} "Good: …"/"Adequate: …" or "Below: …" with the mean per plant and the source.
+ * @example =SOIL.NODCOUNT(10,500,"field pea") //=> "Good: 50 nodules per plant…"
+ * Source: GRDC Communities, "Growing legumes? How to check their nodules": 50 nodules per plant is good for field pea, vetch and faba bean (seen).
  */
 export function nodcount(plants_dug: any[][], nodules: any[][], legume: any[][]): any[][] {
   return NODCOUNT(arguments);
@@ -194,6 +202,8 @@ const NODCOUNT = declare(
  * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured, listed as not checked.
  * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
  * @returns {any[][]} "n constraints found: …" or "none found in the checks made: …", then the checks not made and why.
+ * @example =SOIL.FIXSOIL("field pea",5.2,"CaCl2",40) //=> "2 constraints found: pH 5.2 (CaCl2) is below 5.5…"
+ * Source: GRDC Paddock Practices 2022 (SARDI): rhizobia of groups E, F and N are sensitive below pH 5.5 (CaCl2) (seen); "Molybdenum – NSW" fact sheet, soilquality.org.au: liming above pH 5.5 (seen).
  */
 export function fixsoil(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
   return FIXSOIL(arguments);
@@ -213,6 +223,8 @@ const FIXSOIL = declare(
  * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured.
  * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
  * @returns {any[][]} Constraints found, 0–4; 0 means none in the checks made (SOIL.FIXSOIL lists them).
+ * @example =SOIL.FIXSOILCOUNT("field pea",5.2,"CaCl2",150) //=> 3
+ * Source: GRDC Paddock Practices 2022 (SARDI), pH 5.5 CaCl2 (seen); Cox (DAF Qld), GRDC Communities: pulses fix little above 100 kg/ha soil N (seen); "Molybdenum – NSW" fact sheet (seen).
  */
 export function fixsoilcount(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
   return FIXSOILCOUNT(arguments);

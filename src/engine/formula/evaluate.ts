@@ -34,6 +34,8 @@ export interface Host {
   value(sheet: number, row: number, col: number): Scalar;
   /** The last row and column (0-based) that can hold a value on a sheet, or -1 when empty. */
   bounds(sheet: number): { readonly rows: number; readonly cols: number };
+  /** Visits, row by row, the cells of a rectangle that may hold a value (blank ones may be skipped). */
+  forEach(ref: XlRef, fn: (v: Scalar, r: number, c: number) => void): void;
   /** The spilled range of the dynamic-array formula at a cell; an error when the cell is no anchor. */
   spill(sheet: number, row: number, col: number): XlRef | XlError;
   /** Our add-in's functions by canonical name ("SOIL.CEC"), with the bindings' argument shaping. */
@@ -125,10 +127,7 @@ export function derefArray(ref: XlRef, ctx: Ctx): XlArray | XlError {
 
 /** Visits the cells of a reference that may hold a value (the sheet's used area), row by row. */
 export function eachCell(ref: XlRef, ctx: Ctx, fn: (v: Scalar, r: number, c: number) => void): void {
-  const b = ctx.host.bounds(ref.sheet);
-  const rEnd = Math.min(ref.r2, b.rows);
-  const cEnd = Math.min(ref.c2, b.cols);
-  for (let r = ref.r1; r <= rEnd; r++) for (let c = ref.c1; c <= cEnd; c++) fn(ctx.host.value(ref.sheet, r, c), r, c);
+  ctx.host.forEach(ref, fn);
 }
 
 /** Implicit intersection: the one cell of a range in the formula's row or column. */
