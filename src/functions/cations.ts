@@ -1,6 +1,6 @@
 /** Excel bindings: cations. Argument shaping only; the science is in src/core. */
-import { cecSum, cecSaturation, cecCaMgRatio, cecEsp } from "../core/cations/cations";
-import { cecSar } from "../core/cations/sar";
+import { cecSum, cecSaturation, cecCaMgRatio, cecEsp, CEC_UNIT_NEED } from "../core/cations/cations";
+import { cecSar, SAR_UNIT_NEED } from "../core/cations/sar";
 import { declare, num, optNum, optText, text } from "./_binding";
 
 /**
@@ -11,18 +11,18 @@ import { declare, num, optNum, optText, text } from "./_binding";
  * @param {any[][]} mg Exchangeable Mg in unit, at least 0.
  * @param {any[][]} k Exchangeable K in unit, at least 0.
  * @param {any[][]} na Exchangeable Na in unit, at least 0.
+ * @param {any[][]} unit Required, the unit of ca, mg, k, na: mg/kg (= ppm), g/kg, %, cmol(+)/kg (= meq/100g, cmolc/kg), mmolc/kg or mg/dm3 (needs bulk_density). Bare cmol/kg and mmol/kg are refused as ambiguous.
  * @param {any[][]} [acidity] Exchangeable acidity (H + Al) in cmol(+)/kg, at least 0; omitted = 0. With KCl acidity the result is the effective CEC.
- * @param {any[][]} [unit] Unit of ca, mg, k, na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} CEC in cmol(+)/kg. On calcareous or saline soils the extractant dissolves salts, so the sum can overstate the CEC.
  */
-export function cec(ca: any[][], mg: any[][], k: any[][], na: any[][], acidity?: any[][], unit?: any[][], bulk_density?: any[][]): any[][] {
+export function cec(ca: any[][], mg: any[][], k: any[][], na: any[][], unit: any[][], acidity?: any[][], bulk_density?: any[][]): any[][] {
   return CEC(arguments);
 }
 const CEC = declare(
   cec,
-  [num("ca"), num("mg"), num("k"), num("na"), optNum("acidity"), optText("unit"), optNum("bulk_density")],
-  (ca, mg, k, na, acidity, unit, bulkDensity) => cecSum(ca, mg, k, na, acidity, unit, bulkDensity),
+  [num("ca"), num("mg"), num("k"), num("na"), text("unit", CEC_UNIT_NEED), optNum("acidity"), optNum("bulk_density")],
+  (ca, mg, k, na, unit, acidity, bulkDensity) => cecSum(ca, mg, k, na, unit, acidity, bulkDensity),
 );
 
 /**
@@ -34,9 +34,9 @@ const CEC = declare(
  * @param {any[][]} mg Exchangeable Mg in unit, at least 0.
  * @param {any[][]} k Exchangeable K in unit, at least 0.
  * @param {any[][]} na Exchangeable Na in unit, at least 0.
+ * @param {any[][]} unit Required, the unit of ca, mg, k, na: mg/kg (= ppm), g/kg, %, cmol(+)/kg (= meq/100g, cmolc/kg), mmolc/kg or mg/dm3 (needs bulk_density). Bare cmol/kg and mmol/kg are refused as ambiguous.
  * @param {any[][]} [acidity] Exchangeable acidity (H + Al) in cmol(+)/kg, at least 0; omitted = 0, but part acidity needs it, and so does bases without cec (give 0 for a calcareous soil).
  * @param {any[][]} [cec] Measured CEC in cmol(+)/kg, above 0; it becomes the denominator. Omitted: the summed CEC, and Ca+Mg+K+Na+acidity add up to 100 %.
- * @param {any[][]} [unit] Unit of ca, mg, k, na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} Percent of the CEC, not capped: above 100 % means the extract held more bases than the measured CEC (carbonates, gypsum or salts dissolved), so read it as a warning about the sum, not as a saturation.
  */
@@ -46,17 +46,17 @@ export function saturation(
   mg: any[][],
   k: any[][],
   na: any[][],
+  unit: any[][],
   acidity?: any[][],
   cec?: any[][],
-  unit?: any[][],
   bulk_density?: any[][],
 ): any[][] {
   return SATURATION(arguments);
 }
 const SATURATION = declare(
   saturation,
-  [text("part"), num("ca"), num("mg"), num("k"), num("na"), optNum("acidity"), optNum("cec"), optText("unit"), optNum("bulk_density")],
-  (part, ca, mg, k, na, acidity, cecMeasured, unit, bulkDensity) => cecSaturation(part, ca, mg, k, na, acidity, cecMeasured, unit, bulkDensity),
+  [text("part"), num("ca"), num("mg"), num("k"), num("na"), text("unit", CEC_UNIT_NEED), optNum("acidity"), optNum("cec"), optNum("bulk_density")],
+  (part, ca, mg, k, na, unit, acidity, cecMeasured, bulkDensity) => cecSaturation(part, ca, mg, k, na, unit, acidity, cecMeasured, bulkDensity),
 );
 
 /**
@@ -65,14 +65,18 @@ const SATURATION = declare(
  * @customfunction CAMG
  * @param {any[][]} ca Exchangeable Ca in unit, at least 0.
  * @param {any[][]} mg Exchangeable Mg in unit, above 0.
- * @param {any[][]} [unit] Unit of ca and mg: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg or mg/dm3 (no bulk density needed: it cancels).
- * @param {any[][]} [basis] charge (default; about 0.61 x the mass ratio) or mass. Ratios are weak grounds for fertiliser decisions: use sufficiency levels (Kopittke & Menzies 2007).
+ * @param {any[][]} unit Required, the unit of ca and mg: mg/kg (= ppm), g/kg, %, cmol(+)/kg (= meq/100g), mmolc/kg or mg/dm3 (no bulk density needed: it cancels).
+ * @param {any[][]} [basis] Basis of the result: charge (default; about 0.61 x the mass ratio) or mass. Ratios are weak grounds for fertiliser decisions: use sufficiency levels (Kopittke & Menzies 2007).
  * @returns {any[][]} The Ca:Mg ratio on the chosen basis.
  */
-export function camg(ca: any[][], mg: any[][], unit?: any[][], basis?: any[][]): any[][] {
+export function camg(ca: any[][], mg: any[][], unit: any[][], basis?: any[][]): any[][] {
   return CAMG(arguments);
 }
-const CAMG = declare(camg, [num("ca"), num("mg"), optText("unit"), optText("basis")], (ca, mg, unit, basis) => cecCaMgRatio(ca, mg, unit, basis));
+const CAMG = declare(
+  camg,
+  [num("ca"), num("mg"), text("unit", CEC_UNIT_NEED), optText("basis")],
+  (ca, mg, unit, basis) => cecCaMgRatio(ca, mg, unit, basis),
+);
 
 /**
  * Exchangeable sodium percentage: 100 x exchangeable Na / CEC, both as charge.
@@ -80,16 +84,16 @@ const CAMG = declare(camg, [num("ca"), num("mg"), optText("unit"), optText("basi
  * @customfunction ESP
  * @param {any[][]} na Exchangeable Na in unit, at least 0.
  * @param {any[][]} cec CEC in cmol(+)/kg (= meq/100 g), above 0, whatever unit na is in.
- * @param {any[][]} [unit] Unit of na: mg/kg (default, = ppm), g/kg, %, cmol/kg (= meq/100g), mmol/kg (= mmolc/kg) or mg/dm3 (needs bulk_density).
+ * @param {any[][]} unit Required, the unit of na: mg/kg (= ppm), g/kg, %, cmol(+)/kg (= meq/100g), mmolc/kg or mg/dm3 (needs bulk_density).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed only when unit is mg/dm3.
  * @returns {any[][]} ESP in %, not capped (above 100 % means soluble Na was counted as exchangeable).
  */
-export function esp(na: any[][], cec: any[][], unit?: any[][], bulk_density?: any[][]): any[][] {
+export function esp(na: any[][], cec: any[][], unit: any[][], bulk_density?: any[][]): any[][] {
   return ESP(arguments);
 }
 const ESP = declare(
   esp,
-  [num("na"), num("cec"), optText("unit"), optNum("bulk_density")],
+  [num("na"), num("cec"), text("unit", CEC_UNIT_NEED), optNum("bulk_density")],
   (na, cecValue, unit, bulkDensity) => cecEsp(na, cecValue, unit, bulkDensity),
 );
 
@@ -100,10 +104,10 @@ const ESP = declare(
  * @param {any[][]} na Sodium in the water or extract, in unit, at least 0.
  * @param {any[][]} ca Calcium, in unit, at least 0.
  * @param {any[][]} mg Magnesium, in unit, at least 0; ca + mg must be above 0.
- * @param {any[][]} [unit] mmolc/L (default, = meq/L) or mg/L; a bare mmol/L is refused (for Ca and Mg it is half of mmolc/L).
+ * @param {any[][]} unit Required: mmolc/L (= meq/L) or mg/L; a bare mmol/L is refused (for Ca and Mg it is half of mmolc/L).
  * @returns {any[][]} SAR in (mmolc/L)^0.5.
  */
-export function sar(na: any[][], ca: any[][], mg: any[][], unit?: any[][]): any[][] {
+export function sar(na: any[][], ca: any[][], mg: any[][], unit: any[][]): any[][] {
   return SAR(arguments);
 }
-const SAR = declare(sar, [num("na"), num("ca"), num("mg"), optText("unit")], (na, ca, mg, unit) => cecSar(na, ca, mg, unit));
+const SAR = declare(sar, [num("na"), num("ca"), num("mg"), text("unit", SAR_UNIT_NEED)], (na, ca, mg, unit) => cecSar(na, ca, mg, unit));

@@ -1,5 +1,6 @@
 /** Excel bindings: lime. Argument shaping only; the science is in src/core. */
 import { limeBuffer } from "../core/lime/buffer";
+import { LIME_CALIBRATION_NEED } from "../core/lime/calibrations";
 import { limeAlSat, limeBaseSat, limeExchAl, limePhBc } from "../core/lime/methods";
 import { limeFinenessOfRanges, limeProductRate } from "../core/lime/product";
 import { declare, num, optNum, optRange, optText, range } from "./_binding";
@@ -10,7 +11,7 @@ import { declare, num, optNum, optRange, optText, range } from "./_binding";
  * @customfunction LIMEBUFFER
  * @param {any[][]} buffer_ph Soil-buffer pH from the lab, within the calibration's range (SIKORA-OR2025 4.8 to 6.9; MEHLICH up to 6.6).
  * @param {any[][]} target_ph Target soil pH, within the calibration's range (SIKORA-OR2025 5.6 to 7.2; MEHLICH up to 6.6).
- * @param {any[][]} [calibration] SMP (default; its table is not shipped yet, so it gives #N/A), SIKORA-OR2025 (Oregon 2025, 6-inch depth) or MEHLICH (NCDA&CS, needs soil_ph); or your lab's table as a range: top row target pH, left column buffer pH, body lime rates.
+ * @param {any[][]} calibration Required, no default: SIKORA-OR2025 (Oregon 2025, 6-inch depth), MEHLICH (NCDA&CS, needs soil_ph) or SMP (its table is not shipped yet, so #N/A); or your lab's table as a range: top row target pH, left column buffer pH, body lime rates.
  * @param {any[][]} [soil_ph] Current soil pH (0 to 14). MEHLICH needs it; with any calibration a target at or below it gives 0.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default the calibration's own depth (SIKORA-OR2025 15.24 cm), and a given depth scales the rate in proportion. Leave blank with a range or MEHLICH.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac. Leave blank with a range: the result is then in the range's own unit.
@@ -19,7 +20,7 @@ import { declare, num, optNum, optRange, optText, range } from "./_binding";
 export function limebuffer(
   buffer_ph: any[][],
   target_ph: any[][],
-  calibration?: any[][],
+  calibration: any[][],
   soil_ph?: any[][],
   depth_cm?: any[][],
   unit?: any[][],
@@ -28,7 +29,7 @@ export function limebuffer(
 }
 const LIMEBUFFER = declare(
   limebuffer,
-  [num("buffer_ph"), num("target_ph"), optRange("calibration"), optNum("soil_ph"), optNum("depth_cm"), optText("unit")],
+  [num("buffer_ph"), num("target_ph"), range("calibration", LIME_CALIBRATION_NEED), optNum("soil_ph"), optNum("depth_cm"), optText("unit")],
   (bufferPh, targetPh, calibration, soilPh, depthCm, unit) => limeBuffer(bufferPh, targetPh, { calibration, soilPh, depthCm, unit }),
 );
 
