@@ -93,7 +93,15 @@ export interface RangeParam extends ParamBase {
   readonly kind: "range";
   readonly optional: boolean;
 }
-export type Param = NumParam | TextParam | RangeParam;
+/**
+ * A cell read by the function itself, number or text as it stands (a lab's "<0.05", "12,5"):
+ * broadcast like a number, blank in blank out, but text is not refused here.
+ */
+export interface CellParam extends ParamBase {
+  readonly kind: "cell";
+  readonly optional: false;
+}
+export type Param = NumParam | TextParam | RangeParam | CellParam;
 
 export const num = (name: string) => ({ kind: "number", name, optional: false }) as const satisfies NumParam;
 /** Optional number; omitted gives `dflt` (or undefined, for core to apply its own method default). */
@@ -103,6 +111,7 @@ export const optNum = (name: string, dflt?: number) =>
 export const text = (name: string, need?: string) => ({ kind: "text", name, optional: false, need }) as const satisfies TextParam;
 export const optText = (name: string, dflt?: string) =>
   ({ kind: "text", name, optional: true, default: dflt }) as const satisfies TextParam;
+export const cell = (name: string) => ({ kind: "cell", name, optional: false }) as const satisfies CellParam;
 export const range = (name: string, need?: string) => ({ kind: "range", name, optional: false, need }) as const satisfies RangeParam;
 export const optRange = (name: string) => ({ kind: "range", name, optional: true }) as const satisfies RangeParam;
 
@@ -121,7 +130,9 @@ type ValueOf<P> = P extends NumParam
       ? P["optional"] extends false
         ? RangeValue
         : RangeValue | undefined
-      : never;
+      : P extends CellParam
+        ? number | string
+        : never;
 
 export type ElementValues<Ps extends readonly Param[]> = { -readonly [K in keyof Ps]: ValueOf<Ps[K]> };
 
@@ -255,10 +266,16 @@ function missing(p: Param): SoilError {
 }
 
 /** Turns one cell of one argument into the value core receives, or BLANK. */
-function elementValue(p: NumParam | TextParam, c: unknown, omitted: boolean): unknown {
+function elementValue(p: NumParam | TextParam | CellParam, c: unknown, omitted: boolean): unknown {
   if (omitted) {
     if (!p.optional) throw missing(p);
     return p.default;
+  }
+  if (p.kind === "cell") {
+    if (isBlank(c)) return BLANK;
+    if (typeof c === "number") return numberOfCell(c, p.name);
+    if (typeof c === "string") return c;
+    throw new SoilError("NOT_A_NUMBER", `${p.name} must be a number or text (got ${String(c)})`);
   }
   if (p.kind === "number") {
     if (isBlank(c)) return BLANK;
