@@ -178,7 +178,9 @@ export const PERCENT = {
     unit: "%",
     min: 0.2,
     max: nitrogenChecks.tissue.max_n_pct.value,
-    basis: "bottom: wheat straw, about the poorest plant tissue harvested, holds about 0.5 % N (9-12 lb N per ton: Lentz & Lindsey, Ohio State C.O.R.N. newsletter, 'Nutrient value of wheat straw', seen at farms.com; '0.5 per cent nitrogen or less': Grainews, seen), so 0.2 % is below any shoot or grain; top: about 16 % N in pure protein (nitrogen/checks.json). As a fraction, N % is at most 0.16",
+    zero: true,
+    small: "0 means none (e.g. no grain harvested); a real N concentration is at least 0.2 %",
+    basis: "0 is kept for none (no grain harvested, as before); bottom: wheat straw, about the poorest plant tissue harvested, holds about 0.5 % N (9-12 lb N per ton: Lentz & Lindsey, Ohio State C.O.R.N. newsletter, 'Nutrient value of wheat straw', seen at farms.com; '0.5 per cent nitrogen or less': Grainews, seen), so 0.2 % is below any shoot or grain; top: about 16 % N in pure protein (nitrogen/checks.json). As a fraction, N % is at most 0.16",
   }),
 } as const satisfies Record<string, Bound | ((name: string) => Bound)>;
 

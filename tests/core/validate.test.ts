@@ -22,7 +22,7 @@ const EDGES: [string, Bound, number[], number[]][] = [
   ["base_sat 0, or above 1 to 100", PERCENT.baseSat, [0, 1 + EPS, 100, 100 - EPS], [EPS, 1, 1 - EPS, 100 + EPS, -EPS]],
   ["target_base_sat 20-100", PERCENT.targetBaseSat, [20, 20 + EPS, 100, 100 - EPS], [20 - EPS, 100 + EPS]],
   ["ndfa_pct 0, or above 1 to 100", PERCENT.ndfa, [0, 1 + EPS, 100, 100 - EPS], [EPS, 1, 1 - EPS, 100 + EPS, -EPS]],
-  ["shoot_n_pct 0.2-16", PERCENT.plantN("shoot_n_pct"), [0.2, 0.2 + EPS, 16, 16 - EPS], [0.2 - EPS, 16 + EPS, 0]],
+  ["shoot_n_pct 0, or 0.2-16", PERCENT.plantN("shoot_n_pct"), [0, 0.2, 0.2 + EPS, 16, 16 - EPS], [EPS, 0.2 - EPS, 16 + EPS, -EPS]],
 ];
 
 describe("percent ranges: each bound at the limit, just inside and just outside", () => {

@@ -28,7 +28,7 @@ describe("SOIL.NFIXED", () => {
   it("an element out of range is #VALUE! and does not spoil the others", () => {
     const out = nfixed([[8]], [[2.5], [25]], [[80]], [["shoot"]]);
     expect(out[0]![0]).toBeCloseTo(160, 9);
-    expect(err(out[1]![0])).toMatch(/^#VALUE! shoot_n_pct must be from 0.2 to 16 %.*crude protein/);
+    expect(err(out[1]![0])).toMatch(/^#VALUE! shoot_n_pct must be 0, or from 0.2 to 16 %.*crude protein/);
   });
   it("declares the catalogue's arguments in order", () => {
     expect(specOf(nfixed)?.params.map((p) => p.name)).toEqual(["shoot_dm", "shoot_n_pct", "ndfa_pct", "root_factor"]);

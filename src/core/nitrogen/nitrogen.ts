@@ -151,8 +151,8 @@ export function nfixKgPerTonne(value: string | number | undefined): number {
  * factor. The shoot-based estimate as used in the linear models reviewed by Unkovich, Baldock &
  * Peoples (2010) Plant and Soil 329:75–89 (the form is standard; their factors are not used).
  * @param shootDm shoot dry matter at peak biomass, t/ha, 0–60
- * @param shootNPct shoot N, % of dry matter, 0.2–16 (a larger value is probably crude protein; a
- *   smaller one a fraction: 0.025 is refused, enter 2.5)
+ * @param shootNPct shoot N, % of dry matter: 0, or 0.2–16 (a larger value is probably crude
+ *   protein; a smaller one a fraction: 0.025 is refused, enter 2.5)
  * @param ndfaPct % of legume N derived from the atmosphere: 0, or above 1 to 100 (0 < v ≤ 1 is
  *   refused as a fraction; SOIL.NDFA results slightly outside 0–100 must be decided by the user:
  *   nothing is clamped)
@@ -196,7 +196,8 @@ export function nfixPerTonne(shootDm: number, kgNPerT: string | number | undefin
  * (the partial N balance of e.g. Unkovich, Pate, Sanford & Armstrong 1994, Aust. J. Agric. Res.).
  * @param fixedN N2 fixed, kg N/ha, ≥ 0 (from nfixFixedN or a measurement)
  * @param grainYield grain yield, t/ha, 0–30, on the same moisture basis as grainNPct
- * @param grainNPct grain N, %, 0.2–16 (a larger value is probably crude protein, a smaller one a fraction)
+ * @param grainNPct grain N, %: 0 (no grain), or 0.2–16 (a larger value is probably crude protein, a
+ *   smaller one a fraction)
  * @returns kg N/ha; negative when grain N exceeds fixed N
  * @throws OUT_OF_RANGE for inputs outside their bounds
  * @example nfixNBalance(164, 2, 5) //=> 64
