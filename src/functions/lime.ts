@@ -60,7 +60,7 @@ const LIMEAL = declare(
  * @param {any[][]} al Exchangeable Al (1 N KCl) in cmol(+)/kg (= meq/100 g), at least 0.
  * @param {any[][]} ca Exchangeable Ca (1 N KCl) in cmol(+)/kg, at least 0.
  * @param {any[][]} mg Exchangeable Mg (1 N KCl) in cmol(+)/kg, at least 0.
- * @param {any[][]} [target_al_sat] Al saturation the crop tolerates, % of Al + Ca + Mg (0 to 100); required, crops differ.
+ * @param {any[][]} [target_al_sat] Al saturation the crop tolerates, % of Al + Ca + Mg (0, or 1 to 100; 0.2 is refused as a fraction, enter 20); required, crops differ.
  * @param {any[][]} [factor] Factor above 0; default the source's rule: 1.5, or 2.0 when the 1.5 result exceeds the Al itself.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default 20 (the layer implied by the source's t/ha conversion).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0 to 2.65); required.
@@ -90,8 +90,8 @@ const LIMEALSAT = declare(
  *
  * @customfunction LIMEBASESAT
  * @param {any[][]} cec CEC at pH 7 (T) in cmol(+)/dm3 (= cmolc/dm3), as Brazilian labs report it; with bulk_density it is read as cmol(+)/kg.
- * @param {any[][]} base_sat Current base saturation V1, % (0 to 100).
- * @param {any[][]} target_base_sat Target base saturation V2, % (0 to 100); at or below V1 gives 0.
+ * @param {any[][]} base_sat Current base saturation V1, % (0, or above 1 to 100; 0.5 is refused as a fraction, enter 50).
+ * @param {any[][]} target_base_sat Target base saturation V2, % (20 to 100); at or below V1 gives 0.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default 20 (the method's 0-20 cm layer), scaled in proportion.
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3; give it only when cec is per kg (cmol(+)/kg).
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
@@ -146,9 +146,9 @@ const LIMEPHBC = declare(
  *
  * @customfunction LIMEPRODUCT
  * @param {any[][]} caco3_rate Lime requirement as pure CaCO3 equivalent, in any rate unit, at least 0.
- * @param {any[][]} cce_pct Calcium carbonate equivalent of the product, % of dry matter (above 0, at most 250).
- * @param {any[][]} [fineness_pct] Fineness efficiency, % (above 0, at most 100; SOIL.FINENESS); default 100, e.g. when cce_pct is already an ECCE.
- * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0 to below 100); default 0.
+ * @param {any[][]} cce_pct Calcium carbonate equivalent of the product, % of dry matter (5 to 250; 0.95 is refused as a fraction, enter 95).
+ * @param {any[][]} [fineness_pct] Fineness efficiency, % (above 1, at most 100; SOIL.FINENESS); default 100, e.g. when cce_pct is already an ECCE.
+ * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0, or 1 to below 100: below 1 % enter 0); default 0.
  * @returns {any[][]} Product as received, same unit as caco3_rate. Handle with care: dust; burnt and hydrated lime are caustic. Estimates: check local calibrations and regulations.
  */
 export function limeproduct(caco3_rate: any[][], cce_pct: any[][], fineness_pct?: any[][], moisture_pct?: any[][]): any[][] {
