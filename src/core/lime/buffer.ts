@@ -88,16 +88,16 @@ export function limeMehlichRate(bufferPh: number, targetPh: number, soilPh: numb
 
 /** What the calibration argument names: a built-in, or a table of the user's. */
 function resolve(calibration: string | LimeRange | undefined): LimeCalibration | { kind: "range"; range: LimeRange } {
-  const none = new SoilError("MISSING_INPUT", `calibration is required: ${LIME_CALIBRATION_NEED}`);
-  if (calibration === undefined) throw none;
+  const none = () => new SoilError("MISSING_INPUT", `calibration is required: ${LIME_CALIBRATION_NEED}`);
+  if (calibration === undefined) throw none();
   if (typeof calibration === "string") {
-    if (calibration.trim() === "") throw none;
+    if (calibration.trim() === "") throw none();
     return limeCalibration(calibration);
   }
   const single = calibration.length === 1 && (calibration[0] ?? []).length === 1;
   if (single) {
     const cell = calibration[0]![0];
-    if (cell === null || cell === undefined || (typeof cell === "string" && cell.trim() === "")) throw none;
+    if (cell === null || cell === undefined || (typeof cell === "string" && cell.trim() === "")) throw none();
     if (typeof cell === "string") return limeCalibration(cell);
     throw new SoilError(
       "SHAPE_MISMATCH",
