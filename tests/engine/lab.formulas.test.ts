@@ -27,6 +27,11 @@ describe("LABVALUE formulas", () => {
   it("feeds a SOIL function: Na below detection counted as half the limit in a CEC (meq/100g)", () => {
     expect(evaluateFormula('=SOIL.CEC(6,1,0.5,SOIL.LABVALUE("<0.05","half"),"meq/100g")').value).toBeCloseTo(7.525, 12);
   });
+  it("the issue's spill with a \"<0.05\" Na, read by LABVALUE inside SOIL.CEC, computes both rows (derived sums)", () => {
+    const rows = evaluateFormula('=SOIL.CEC({6;9},{1;2},{0.5;0.6},SOIL.LABVALUE({"<0.05";0.2},"half"),"meq/100g")').value as number[][];
+    expect(rows[0]![0]).toBeCloseTo(6 + 1 + 0.5 + 0.025, 12);
+    expect(rows[1]![0]).toBeCloseTo(9 + 2 + 0.6 + 0.2, 12);
+  });
   it("SOIL.ABOUT names the policies' source", () => {
     expect(evaluateFormula('=SOIL.ABOUT("LABVALUE")').value).toMatch(/Floit/);
   });
