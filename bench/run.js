@@ -161,8 +161,8 @@ function coreChild(rounds) {
   const coreCations = () => {
     let s = 0;
     for (const d of data) {
-      s += cations.cecSum(d[1], d[2], d[3], d[4], d[5]);
-      for (const p of PARTS) s += cations.cecSaturation(p, d[1], d[2], d[3], d[4], d[5]);
+      s += cations.cecSum(d[1], d[2], d[3], d[4], "mg/kg", d[5]);
+      for (const p of PARTS) s += cations.cecSaturation(p, d[1], d[2], d[3], d[4], "mg/kg", d[5]);
     }
     return s;
   };
@@ -193,12 +193,12 @@ function coreChild(rounds) {
   const cols = [1, 2, 3, 4, 5].map(col);
   const viaBinding = () => {
     let s = 0;
-    for (let rep = 0; rep < 10; rep++) for (const row of bindings.cec(...cols)) s += row[0];
+    for (let rep = 0; rep < 10; rep++) for (const row of bindings.cec(cols[0], cols[1], cols[2], cols[3], [["mg/kg"]], cols[4])) s += row[0];
     return s;
   };
   const direct = () => {
     let s = 0;
-    for (let rep = 0; rep < 10; rep++) for (let i = 0; i < 10000; i++) s += cations.cecSum(cols[0][i][0], cols[1][i][0], cols[2][i][0], cols[3][i][0], cols[4][i][0]);
+    for (let rep = 0; rep < 10; rep++) for (let i = 0; i < 10000; i++) s += cations.cecSum(cols[0][i][0], cols[1][i][0], cols[2][i][0], cols[3][i][0], "mg/kg", cols[4][i][0]);
     return s;
   };
   const tb = best(viaBinding);

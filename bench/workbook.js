@@ -3,7 +3,8 @@
  * a demo-like column layout and 12 SOIL formula cells per sample. All lab values are invented
  * (a seeded random generator, so every run sees the same file).
  *
- * Layout: A sample id, B Ca, C Mg, D K, E Na (mg/kg), F acidity (cmol(+)/kg), G pH, H buffer pH,
+ * Layout: A sample id, B Ca, C Mg, D K, E Na (mg/kg, written as the unit argument of every cation
+ * formula), F acidity (cmol(+)/kg), G pH, H buffer pH,
  * I P (mg/kg); J… the formulas below. The same formulas are also written out as native
  * arithmetic (the CEC divisors come from core's equivalent weights, not typed in), for the
  * comparison of SOIL cells against native cells in the same engine.
@@ -19,7 +20,7 @@ const { mgPerCmol, formFactor } = require(path.join(BUILD, "core", "chemistry.js
 const { toStoredFormula } = require(path.join(BUILD, "engine", "formula-text.js"));
 const { columnLetters: colLetters } = require(path.join(BUILD, "engine", "cellref.js"));
 
-const DATA_COLUMNS = ["Sample", "Ca mg/kg", "Mg mg/kg", "K mg/kg", "Na mg/kg", "Acidity cmol/kg", "pH", "Buffer pH", "P mg/kg"];
+const DATA_COLUMNS = ["Sample", "Ca mg/kg", "Mg mg/kg", "K mg/kg", "Na mg/kg", "Acidity cmol(+)/kg", "pH", "Buffer pH", "P mg/kg"];
 const FIRST_FORMULA_COL = DATA_COLUMNS.length; // J
 
 // Equivalent weights and factors from core, so the native formulas compute the same thing.
@@ -37,15 +38,15 @@ const SUM = `(${cCa}+${cMg}+${cK}+${cNa}+@F)`;
  * same row (or, for a spilling formula, the whole column range).
  */
 const FORMULAS = [
-  { header: "CEC", soil: "SOIL.CEC(@B,@C,@D,@E,@F)", native: `${cCa}+${cMg}+${cK}+${cNa}+@F` },
-  { header: "Ca sat %", soil: 'SOIL.SATURATION("Ca",@B,@C,@D,@E,@F)', native: `100*(${cCa})/${SUM}` },
-  { header: "Mg sat %", soil: 'SOIL.SATURATION("Mg",@B,@C,@D,@E,@F)', native: `100*(${cMg})/${SUM}` },
-  { header: "K sat %", soil: 'SOIL.SATURATION("K",@B,@C,@D,@E,@F)', native: `100*(${cK})/${SUM}` },
-  { header: "Na sat %", soil: 'SOIL.SATURATION("Na",@B,@C,@D,@E,@F)', native: `100*(${cNa})/${SUM}` },
-  { header: "Base sat %", soil: 'SOIL.SATURATION("bases",@B,@C,@D,@E,@F)', native: `100*${BASES}/${SUM}` },
-  { header: "Acid sat %", soil: 'SOIL.SATURATION("acidity",@B,@C,@D,@E,@F)', native: `100*@F/${SUM}` },
-  { header: "Ca:Mg", soil: "SOIL.CAMG(@B,@C)", native: `(${cCa})/(${cMg})` },
-  { header: "ESP %", soil: "SOIL.ESP(@E,@J)", native: `100*(${cNa})/@J` },
+  { header: "CEC", soil: 'SOIL.CEC(@B,@C,@D,@E,"mg/kg",@F)', native: `${cCa}+${cMg}+${cK}+${cNa}+@F` },
+  { header: "Ca sat %", soil: 'SOIL.SATURATION("Ca",@B,@C,@D,@E,"mg/kg",@F)', native: `100*(${cCa})/${SUM}` },
+  { header: "Mg sat %", soil: 'SOIL.SATURATION("Mg",@B,@C,@D,@E,"mg/kg",@F)', native: `100*(${cMg})/${SUM}` },
+  { header: "K sat %", soil: 'SOIL.SATURATION("K",@B,@C,@D,@E,"mg/kg",@F)', native: `100*(${cK})/${SUM}` },
+  { header: "Na sat %", soil: 'SOIL.SATURATION("Na",@B,@C,@D,@E,"mg/kg",@F)', native: `100*(${cNa})/${SUM}` },
+  { header: "Base sat %", soil: 'SOIL.SATURATION("bases",@B,@C,@D,@E,"mg/kg",@F)', native: `100*${BASES}/${SUM}` },
+  { header: "Acid sat %", soil: 'SOIL.SATURATION("acidity",@B,@C,@D,@E,"mg/kg",@F)', native: `100*@F/${SUM}` },
+  { header: "Ca:Mg", soil: 'SOIL.CAMG(@B,@C,"mg/kg")', native: `(${cCa})/(${cMg})` },
+  { header: "ESP %", soil: 'SOIL.ESP(@E,@J,"mg/kg")', native: `100*(${cNa})/@J` },
   { header: "K cmol/kg", soil: 'SOIL.CMOL(@D,"K")', native: `${cK}` },
   { header: "P kg/ha", soil: 'SOIL.CONVERT(@I,"mg/kg","kg/ha",15,1.3)', native: "@I*15*1.3*0.1" },
   { header: "P2O5 mg/kg", soil: 'SOIL.OXIDE(@I,"P","P2O5")', native: `@I*${P2O5}` },

@@ -113,7 +113,10 @@ function formula(cell, text) {
   cell.value = { formula: text };
 }
 
-/** Writes a block of "Read me" lines: [text, style] pairs; style "h" heading, "n" normal, "c" caution. */
+/**
+ * Writes a block of "Read me" lines: [text, style] pairs; style "h" heading, "n" normal, "c"
+ * caution, "f" a live formula (the text is the formula). Returns the row of each line.
+ */
 function readMe(ws, title, lines) {
   ws.getColumn(1).width = 2;
   ws.getColumn(2).width = 120;
@@ -123,8 +126,17 @@ function readMe(ws, title, lines) {
   t.fill = fill(COLOURS.blue);
   ws.getRow(2).height = 26;
   let r = 4;
+  const rows = [];
   for (const [text, style] of lines) {
+    rows.push(r);
     const c = ws.getCell(`B${r}`);
+    if (style === "f") {
+      formula(c, text);
+      c.font = { italic: true };
+      c.alignment = { horizontal: "left" };
+      r += 1;
+      continue;
+    }
     c.value = text;
     c.alignment = { wrapText: true, vertical: "top" };
     if (style === "h") {
@@ -138,6 +150,7 @@ function readMe(ws, title, lines) {
     if (chars > 115) ws.getRow(r).height = 15 * Math.ceil(chars / 115);
     r += style === "h" ? 1 : 1;
   }
+  return rows;
 }
 
 /** Fixes the package dates so regenerated files differ only where the content does. */

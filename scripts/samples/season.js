@@ -139,7 +139,7 @@ function seasonWorkbook(build) {
   asText(labB, "colwellP", [12, 77]);
   asText(labB, "ca", [30, 101]);
   asText(labB, "phCa", [64]);
-  // Below-detection values as the labs print them: the designed #VALUE! with its message.
+  // Below-detection values as the labs print them: read by SOIL.LABVALUE with the Settings policy.
   const detectA = labA[57];
   const detectB = labB[93];
   detectA.no3 = "<0.5";
@@ -162,7 +162,7 @@ function seasonWorkbook(build) {
   const wsSet = wb.addWorksheet("Settings", { properties: { tabColor: { argb: COLOURS.sky } } });
 
   // --- Settings ---------------------------------------------------------------------------
-  const SET = { targetPh: "$C$4", targetAlSat: "$C$5", depthB: "$C$6" };
+  const SET = { targetPh: "$C$4", targetAlSat: "$C$5", depthB: "$C$6", belowDetection: "$C$7" };
   const setRef = (k) => `Settings!${SET[k]}`;
   wsSet.getColumn(2).width = 62;
   wsSet.getColumn(3).width = 10;
@@ -173,6 +173,7 @@ function seasonWorkbook(build) {
     ["Target soil pH, Lab A paddocks (SIKORA-OR2025 buffer table, 6-inch layer)", 6.4, "Consultant's target for a corn-soybean rotation (invented for the demo). The table accepts targets 5.6 to 7.2."],
     ["Target Al saturation, Lab B paddocks (% of Al + Ca + Mg)", 5, "Consultant's policy for canola-wheat paddocks (invented for the demo). Crops differ in Al tolerance: check local advice."],
     ["Depth to lime, Lab B paddocks (cm)", 10, "The sampled layer (0-10 cm). The Cochrane method's own layer is 20 cm; a rate is proportional to the depth limed."],
+    ["Below-detection lab results, e.g. \"<0.5\" (SOIL.LABVALUE policy: limit, half, zero or blank)", "half", "Consultant's choice for the demo (invented): half the detection limit. Zero is the cautious choice where soil nitrate is credited against N fertiliser. Without a policy LABVALUE refuses the value: nothing is assumed."],
   ];
   settings.forEach(([label, v, note], i) => {
     const row = 4 + i;
@@ -357,13 +358,13 @@ function seasonWorkbook(build) {
     { key: "crop", header: H.crop, group: "plan", width: 9, value: (s) => s.crop },
     { key: "rotation", header: H.rotation, group: "plan", width: 17, value: (s) => s.rotation },
     { key: "product", header: H.product, group: "plan", width: 19, value: (s) => s.product },
-    { key: "cecSum", header: "CEC, sum of bases (cmol(+)/kg)", group: "soil", width: 11, numFmt: "0.0", spill: (S) => `SOIL.CEC(${S("ca")},${S("mg")},${S("k")},${S("na")})` },
-    { key: "bs", header: "Base saturation (% of lab CEC)", group: "soil", width: 11, numFmt: "0", spill: (S) => `SOIL.SATURATION("bases",${S("ca")},${S("mg")},${S("k")},${S("na")},,${S("cec")})` },
-    { key: "caPct", header: "Ca (% of lab CEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Ca",${S("ca")},${S("mg")},${S("k")},${S("na")},,${S("cec")})` },
-    { key: "mgPct", header: "Mg (% of lab CEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Mg",${S("ca")},${S("mg")},${S("k")},${S("na")},,${S("cec")})` },
-    { key: "kPct", header: "K (% of lab CEC)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("K",${S("ca")},${S("mg")},${S("k")},${S("na")},,${S("cec")})` },
+    { key: "cecSum", header: "CEC, sum of bases (cmol(+)/kg)", group: "soil", width: 11, numFmt: "0.0", spill: (S) => `SOIL.CEC(${S("ca")},${S("mg")},${S("k")},${S("na")},"ppm")` },
+    { key: "bs", header: "Base saturation (% of lab CEC)", group: "soil", width: 11, numFmt: "0", spill: (S) => `SOIL.SATURATION("bases",${S("ca")},${S("mg")},${S("k")},${S("na")},"ppm",,${S("cec")})` },
+    { key: "caPct", header: "Ca (% of lab CEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Ca",${S("ca")},${S("mg")},${S("k")},${S("na")},"ppm",,${S("cec")})` },
+    { key: "mgPct", header: "Mg (% of lab CEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Mg",${S("ca")},${S("mg")},${S("k")},${S("na")},"ppm",,${S("cec")})` },
+    { key: "kPct", header: "K (% of lab CEC)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("K",${S("ca")},${S("mg")},${S("k")},${S("na")},"ppm",,${S("cec")})` },
     { key: "esp", header: "ESP (%)", group: "soil", width: 7, numFmt: "0.0", row: (A) => `SOIL.ESP(${A("na")},${A("cec")},"ppm")` },
-    { key: "camg", header: "Ca:Mg (charge)", group: "soil", width: 8, numFmt: "0.0", row: (A) => `SOIL.CAMG(${A("ca")},${A("mg")})` },
+    { key: "camg", header: "Ca:Mg (charge)", group: "soil", width: 8, numFmt: "0.0", row: (A) => `SOIL.CAMG(${A("ca")},${A("mg")},"ppm")` },
     {
       key: "pBand", header: H.pBand, group: "soil", width: 14, bandOf: "pPos",
       row: (A) => `IF(${A("pM3")}<>"",SOIL.SUFFICIENCY("P",${A("pM3")},${A("rotation")},"Mehlich-3"),SOIL.SUFFICIENCY("P",${A("pBray")},,"Bray-1"))`,
@@ -381,7 +382,7 @@ function seasonWorkbook(build) {
     { key: "lime", header: H.limeCaco3, group: "soil", width: 10, numFmt: "0.00", spill: (S) => `SOIL.LIMEBUFFER(${S("buffer")},${setRef("targetPh")},"SIKORA-OR2025",${S("ph")},,"t/ha")` },
     { key: "limeProduct", header: H.limeProduct, group: "soil", width: 10, numFmt: "0.00", row: (A) => productCols(A("lime")).replace(/#P/g, A("product")) },
     { key: "limeT", header: H.limeTonnes, group: "soil", width: 10, numFmt: "0.0", row: (A) => `IF(ISNUMBER(${A("limeProduct")}),${A("limeProduct")}*${A("area")},"")` },
-    { key: "no3kg", header: "NO3-N (kg/ha)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.CONVERT(${S("no3")},"lb/ac","kg/ha")` },
+    { key: "no3kg", header: "NO3-N (kg/ha)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.CONVERT(SOIL.LABVALUE(${S("no3")},${setRef("belowDetection")}),"lb/ac","kg/ha")` },
   ];
 
   const colsB = [
@@ -410,13 +411,13 @@ function seasonWorkbook(build) {
     { key: "crop", header: H.crop, group: "plan", width: 9, value: (s) => s.crop },
     { key: "bd", header: "Bulk density (g/cm3)", group: "plan", width: 9, value: (s) => s.bd },
     { key: "product", header: H.product, group: "plan", width: 19, value: (s) => s.product },
-    { key: "ecec", header: "ECEC (cmol(+)/kg)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.CEC(${S("ca")},${S("mg")},${S("k")},${S("na")},${S("al")},"cmol/kg")` },
-    { key: "alSat", header: "Al saturation (% of ECEC)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("acidity",${S("ca")},${S("mg")},${S("k")},${S("na")},${S("al")},,"cmol/kg")` },
-    { key: "caPct", header: "Ca (% of ECEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Ca",${S("ca")},${S("mg")},${S("k")},${S("na")},${S("al")},,"cmol/kg")` },
-    { key: "mgPct", header: "Mg (% of ECEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Mg",${S("ca")},${S("mg")},${S("k")},${S("na")},${S("al")},,"cmol/kg")` },
-    { key: "kPct", header: "K (% of ECEC)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("K",${S("ca")},${S("mg")},${S("k")},${S("na")},${S("al")},,"cmol/kg")` },
-    { key: "esp", header: "ESP (%)", group: "soil", width: 7, numFmt: "0.0", row: (A) => `SOIL.ESP(${A("na")},${A("ecec")},"cmol/kg")` },
-    { key: "camg", header: "Ca:Mg (charge)", group: "soil", width: 8, numFmt: "0.0", row: (A) => `SOIL.CAMG(${A("ca")},${A("mg")},"cmol/kg")` },
+    { key: "ecec", header: "ECEC (cmol(+)/kg)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.CEC(${S("ca")},${S("mg")},${S("k")},${S("na")},"cmol(+)/kg",${S("al")})` },
+    { key: "alSat", header: "Al saturation (% of ECEC)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("acidity",${S("ca")},${S("mg")},${S("k")},${S("na")},"cmol(+)/kg",${S("al")})` },
+    { key: "caPct", header: "Ca (% of ECEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Ca",${S("ca")},${S("mg")},${S("k")},${S("na")},"cmol(+)/kg",${S("al")})` },
+    { key: "mgPct", header: "Mg (% of ECEC)", group: "soil", width: 9, numFmt: "0", spill: (S) => `SOIL.SATURATION("Mg",${S("ca")},${S("mg")},${S("k")},${S("na")},"cmol(+)/kg",${S("al")})` },
+    { key: "kPct", header: "K (% of ECEC)", group: "soil", width: 9, numFmt: "0.0", spill: (S) => `SOIL.SATURATION("K",${S("ca")},${S("mg")},${S("k")},${S("na")},"cmol(+)/kg",${S("al")})` },
+    { key: "esp", header: "ESP (%)", group: "soil", width: 7, numFmt: "0.0", row: (A) => `SOIL.ESP(${A("na")},${A("ecec")},"cmol(+)/kg")` },
+    { key: "camg", header: "Ca:Mg (charge)", group: "soil", width: 8, numFmt: "0.0", row: (A) => `SOIL.CAMG(${A("ca")},${A("mg")},"cmol(+)/kg")` },
     { key: "pBand", header: H.pBand, group: "soil", width: 16, bandOf: "pPos", spill: (S) => `SOIL.SUFFICIENCY("P",${S("colwellP")},${S("crop")},"Colwell")` },
     {
       key: "pPos", header: H.pPos, group: "soil", width: 9, numFmt: "0.00",
@@ -435,7 +436,7 @@ function seasonWorkbook(build) {
     { key: "lime", header: H.limeCaco3, group: "soil", width: 10, numFmt: "0.00", spill: (S) => `SOIL.LIMEALSAT(${S("al")},${S("ca")},${S("mg")},${setRef("targetAlSat")},,${setRef("depthB")},${S("bd")})` },
     { key: "limeProduct", header: H.limeProduct, group: "soil", width: 10, numFmt: "0.00", row: (A) => productCols(A("lime")).replace(/#P/g, A("product")) },
     { key: "limeT", header: H.limeTonnes, group: "soil", width: 10, numFmt: "0.0", row: (A) => `IF(ISNUMBER(${A("limeProduct")}),${A("limeProduct")}*${A("area")},"")` },
-    { key: "no3kg", header: "Nitrate-N (kg/ha, 0-10 cm)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.CONVERT(${S("no3")},"mg/kg","kg/ha",${setRef("depthB")},${S("bd")})` },
+    { key: "no3kg", header: "Nitrate-N (kg/ha, 0-10 cm)", group: "soil", width: 10, numFmt: "0.0", spill: (S) => `SOIL.CONVERT(SOIL.LABVALUE(${S("no3")},${setRef("belowDetection")}),"mg/kg","kg/ha",${setRef("depthB")},${S("bd")})` },
   ];
 
   const A = labSheet(wsA, labA, `${SCENARIO.labA.name}, report ${SCENARIO.labA.report} (as delivered)`, colsA);
@@ -509,23 +510,29 @@ function seasonWorkbook(build) {
   buildReport(wsReport, { A, B, refA, refB, reportSample, productTable, setRef, bandRow, about, layout });
 
   // --- Read me ----------------------------------------------------------------------------
-  readMe(wsRead, `${SCENARIO.consultancy}: ${SCENARIO.district} soil tests, ${SCENARIO.season}`, [
+  const no3A = `${A.letters.no3}${FIRST_ROW}:${A.letters.no3}${A.lastRow}`;
+  const detectCellA = `${sheetRef(SCENARIO.labA.sheet)}!${A.letters.no3}${FIRST_ROW + labA.indexOf(detectA)}`;
+  const readMeLines = [
     ["An invented scenario for trying soilcell: the consultancy, farms, paddocks, laboratories, products and every number are made up.", "n"],
     ["What is in this workbook", "h"],
     [`${SCENARIO.labA.sheet}: ${labA.length} samples as ${SCENARIO.labA.name} delivers them: ppm, meq/100 g and lb/ac, P by Bray-1 or Mehlich-3, Sikora buffer pH (run only below pH 6.7), 0-6 inch cores. The paddock plan gives each paddock's rotation: the Tri-State P critical level depends on it (20 ppm Mehlich-3 for corn-soybean, 30 ppm when wheat or alfalfa is in the rotation).`, "n"],
     [`${SCENARIO.labB.sheet}: ${labB.length} samples as ${SCENARIO.labB.name} delivers them: mg/kg and cmol(+)/kg, Colwell P and K, DTPA Zn, Cu and Mn, KCl-extractable Al, 0-10 cm cores, and KCl-40 sulfur on a 0-30 cm core; converted to kg/ha with the bulk density in the paddock plan.`, "n"],
     ["Farms: samples, lime to spread and paddocks below optimum per farm (COUNTIFS/SUMIF over the lab sheets). Client report: one page per paddock; type a Sample ID in the yellow cell.", "n"],
-    ["Lime products: CCE, moisture and sieve fractions of the products on the price list; fineness efficiency by SOIL.FINENESS. Bands: the band limits used for SOIL.BANDPOS, with their sources. Settings: lime targets.", "n"],
+    ["Lime products: CCE, moisture and sieve fractions of the products on the price list; fineness efficiency by SOIL.FINENESS. Bands: the band limits used for SOIL.BANDPOS, with their sources. Settings: lime targets and the policy for below-detection results.", "n"],
     ["Two ways to write SOIL formulas", "h"],
-    ["Columns shaded light blue hold ONE spilling formula in their first data row, e.g. =SOIL.CEC(M3:M152,N3:N152,L3:L152,O3:O152): the result fills the column. White interpretation columns hold one formula per row, e.g. =SOIL.CAMG(M3,N3).", "n"],
+    ["Columns shaded light blue hold ONE spilling formula in their first data row, e.g. =SOIL.CEC(M3:M152,N3:N152,L3:L152,O3:O152,\"ppm\"): the result fills the column. White interpretation columns hold one formula per row, e.g. =SOIL.CAMG(M3,N3,\"ppm\"). The unit is always written: a lab's ppm and meq/100 g differ 200-fold, so soilcell never assumes one.", "n"],
     ["What the lab files contain, as real exports do", "h"],
     ["Blank cells are analytes the lab did not report: the SOIL result is blank too (never 0). A few numbers arrived as text (\"12.5\"): SOIL functions read them as numbers.", "n"],
-    [`Two nitrate values arrived as "<0.5" (${SCENARIO.labA.sheet} ${detectA.id}, ${SCENARIO.labB.sheet} ${detectB.id}). Their conversion shows #VALUE! with the message "no3 ... is not a number (a below- or above-detection value is your call ...)": by design, soilcell does not guess a value below detection. Enter a number or leave the cell blank.`, "n"],
+    [`Two nitrate values arrived as "<0.5" (${SCENARIO.labA.sheet} ${detectA.id}, ${SCENARIO.labB.sheet} ${detectB.id}). The nitrate columns read the lab's column through SOIL.LABVALUE with the policy named once on the Settings sheet (half the limit here), e.g. =SOIL.CONVERT(SOIL.LABVALUE(${no3A},Settings!$C$7),"lb/ac","kg/ha"): change the policy there and every below-detection result follows. LABVALUE also reads ">300", "n.d.", "trace", "1 250" and, with a stated decimal comma, "12,5".`, "n"],
+    ["Without LABVALUE such a cell is refused, by design: soilcell never guesses a value below detection. The next line converts Lab A's \"<0.5\" directly and shows that #VALUE! and its message on purpose (it is the one error cell in this workbook):", "n"],
+    [`SOIL.CONVERT(${detectCellA},"lb/ac","kg/ha")`, "f"],
     ["Recalculate without Excel", "h"],
     ["npx soilcell recalc this-file.xlsx writes a recalculated copy beside it; npm run demo recalculates every sample workbook into demo-output/ and prints a summary.", "n"],
     ["Caution", "h"],
     [`${about.CAUTION} Lime rates can hurt crops, soils and water if misapplied: split large applications, incorporate to the depth the rate is for, and handle liming materials with care (dust; burnt and hydrated lime are caustic).`, "c"],
-  ]);
+  ];
+  const readMeRows = readMe(wsRead, `${SCENARIO.consultancy}: ${SCENARIO.district} soil tests, ${SCENARIO.season}`, readMeLines);
+  const refusalRow = readMeRows[readMeLines.findIndex(([, style]) => style === "f")];
 
   return {
     wb,
@@ -533,10 +540,8 @@ function seasonWorkbook(build) {
       samplesA: labA.length,
       samplesB: labB.length,
       reportSample: reportSample.id,
-      deliberateErrors: [
-        { sheet: SCENARIO.labA.sheet, cell: `${A.letters.no3kg}${FIRST_ROW + labA.indexOf(detectA)}`, id: detectA.id },
-        { sheet: SCENARIO.labB.sheet, cell: `${B.letters.no3kg}${FIRST_ROW + labB.indexOf(detectB)}`, id: detectB.id },
-      ],
+      // The one deliberate refusal: Lab A's "<0.5" converted without LABVALUE, on the Read me sheet.
+      deliberateErrors: [{ sheet: "Read me", cell: `B${refusalRow}`, id: detectA.id }],
     },
   };
 }
@@ -750,7 +755,7 @@ function buildReport(ws, ctx) {
   row++;
   const limeRows = {};
   const limeLines = [
-    ["method", "Method", `IF(${lab}="A","Sikora buffer table (SIKORA-OR2025) to pH "&TEXT(${setRef("targetPh")},"0.0"),IF(${lab}="B","Al saturation (Cochrane et al. 1980) to "&${setRef("targetAlSat")}&" % Al, 0-"&${setRef("depthB")}&" cm",""))`, null, null],
+    ["method", "Method", `IF(${lab}="A","Sikora buffer table (SIKORA-OR2025) to pH "&${setRef("targetPh")},IF(${lab}="B","Al saturation (Cochrane et al. 1980) to "&${setRef("targetAlSat")}&" % Al, 0-"&${setRef("depthB")}&" cm",""))`, null, null],
     ["caco3", "Lime requirement as pure CaCO3", blankIfEmpty(get("lime", "lime")), `"t/ha"`, "0.00"],
     ["product", "Product (change to compare)", null, null, null],
     ["cce", "CCE of the product", `IFERROR(VLOOKUP($C$#product,${productTable},2,FALSE),"")`, `"%"`, "0"],

@@ -7,10 +7,11 @@ import cations from "../data/about/cations.json";
 import lime from "../data/about/lime.json";
 import bands from "../data/about/bands.json";
 import nitrogen from "../data/about/nitrogen.json";
+import lab from "../data/about/lab.json";
 import pkg from "../../package.json";
 import { SoilError, listWords } from "./errors";
 
-const ENTRIES: Record<string, string> = { ...units, ...cations, ...lime, ...bands, ...nitrogen };
+const ENTRIES: Record<string, string> = { ...units, ...lab, ...cations, ...lime, ...bands, ...nitrogen };
 
 /** The caution every lime and fertiliser result carries. */
 export const CAUTION =

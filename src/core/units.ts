@@ -6,8 +6,8 @@
  * yard and pound agreement and NIST Handbook 44 App. C.
  */
 import unitData from "../data/units.json";
-import { SoilError } from "./errors";
-import { nameTable } from "./names";
+import { SoilError, listWords } from "./errors";
+import { nameTable, normaliseWord } from "./names";
 import { BOUNDS, check, finite } from "./validate";
 
 export type UnitFamily = "mass_fraction" | "charge" | "per_volume" | "area_rate" | "salinity";
@@ -25,6 +25,8 @@ interface UnitRow {
   id: string;
   family: string;
   aliases: string[];
+  /** Spellings matched exactly, where an SI prefix collides (Mg/ha is a tonne per hectare). */
+  cased_aliases?: string[];
   factor?: number;
   mass_kg?: number;
   area_m2?: number;
@@ -53,24 +55,77 @@ const TABLE = nameTable(
   (unitData.units as UnitRow[]).map((row, i) => ({ id: row.id, aliases: row.aliases, value: UNITS[i] as UnitDef })),
 );
 
+/** Spellings whose case carries meaning, matched exactly before anything else. */
+const CASED = new Map<string, UnitDef>(
+  (unitData.units as UnitRow[]).flatMap((row, i) => (row.cased_aliases ?? []).map((w) => [w.replace(/\s+/g, " ").trim(), UNITS[i] as UnitDef] as const)),
+);
+
+interface RefusedRow {
+  words: string[];
+  why: string;
+  use: string[];
+  hint?: string;
+}
+
+/** Words two trades read differently, keyed by their case-insensitive form. */
+const REFUSED = new Map<string, RefusedRow>(
+  (unitData.refused as RefusedRow[]).flatMap((r) => r.words.map((w) => [normaliseWord(w), r] as const)),
+);
+
+/** The words the unit tables refuse, for tests and help. */
+export const REFUSED_UNIT_WORDS: readonly string[] = (unitData.refused as RefusedRow[]).flatMap((r) => r.words);
+
+/** What a typed word was found to be; remembered, since a unit column repeats one word. */
+type Found = UnitDef | RefusedRow | null;
+const seen = new Map<string, Found>();
+
+function classify(word: string): Found {
+  const exact = CASED.get(word.replace(/\s+/g, " ").trim());
+  if (exact) return exact;
+  const refused = REFUSED.get(normaliseWord(word));
+  if (refused) return refused;
+  return TABLE.has(word) ? TABLE.lookup(word, "unit") : null;
+}
+
+/** The unit a typed word names: a cased spelling exactly, else case-insensitively; undefined if none. */
+function findUnit(word: string, argName: string): UnitDef | undefined {
+  let found = seen.get(word);
+  if (found === undefined) {
+    found = classify(word);
+    if (seen.size < 4096) seen.set(word, found);
+  }
+  if (found === null) return undefined;
+  if ("why" in found) {
+    const then = found.hint ? ` ${found.hint}` : "";
+    throw new SoilError("UNIT_MISMATCH", `${argName} "${word.trim()}" ${found.why}; write ${listWords(found.use)}${then}`);
+  }
+  return found;
+}
+
 /** The unit ids of one family, for messages and help. */
 export function unitsOf(family: UnitFamily): string[] {
   return UNITS.filter((u) => u.family === family).map((u) => u.id);
 }
 
-/** Looks up a unit by id or alias (case-insensitive). Throws UNKNOWN_NAME listing every unit. */
-export function unitById(word: string): UnitDef {
-  return TABLE.lookup(word, "unit");
+/**
+ * Looks up a unit by id or alias: case-insensitive, except where an SI prefix collides (Mg/ha).
+ * Throws UNIT_MISMATCH for an ambiguous word (naming the unambiguous spellings) and UNKNOWN_NAME
+ * listing every unit for a word not in the table.
+ */
+export function unitById(word: string, argName = "unit"): UnitDef {
+  const u = findUnit(word, argName);
+  if (!u) throw new SoilError("UNKNOWN_NAME", `unknown unit "${word}"; use ${listWords(TABLE.ids)}`);
+  return u;
 }
 
 /** Looks up a unit and requires it to be of one of `families`; otherwise UNIT_MISMATCH listing those units. */
 export function unitOfFamily(word: string, families: readonly UnitFamily[], argName: string): UnitDef {
   // The accepted list is built only for a message: this runs once per cell of a season.
   const accepted = () => families.flatMap(unitsOf).join(", ");
-  if (!TABLE.has(word)) {
+  const u = findUnit(word, argName);
+  if (!u) {
     throw new SoilError("UNKNOWN_NAME", `unknown unit "${word}" for ${argName}; use ${accepted()}`);
   }
-  const u = unitById(word);
   if (!families.includes(u.family)) {
     throw new SoilError("UNIT_MISMATCH", `${argName} "${word}" is not accepted here; use ${accepted()}`);
   }
@@ -118,8 +173,8 @@ function needDensity(layer: SoilLayer, from: UnitDef, to: UnitDef): number {
  */
 export function convertUnit(value: number, fromWord: string, toWord: string, layer: SoilLayer = {}): number {
   check(value, { name: "value" });
-  const from = unitById(fromWord);
-  const to = unitById(toWord);
+  const from = unitById(fromWord, "from_unit");
+  const to = unitById(toWord, "to_unit");
   const base = value * from.toBase;
   const converted = convertBase(base, from, to, layer);
   return finite(converted / to.toBase, "the converted value");

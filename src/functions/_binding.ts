@@ -75,6 +75,8 @@ export function hostErrorFor(e: unknown): object {
 
 interface ParamBase {
   readonly name: string;
+  /** For a required argument: what to give, appended to "<name> is required". */
+  readonly need?: string;
 }
 export interface NumParam extends ParamBase {
   readonly kind: "number";
@@ -91,16 +93,26 @@ export interface RangeParam extends ParamBase {
   readonly kind: "range";
   readonly optional: boolean;
 }
-export type Param = NumParam | TextParam | RangeParam;
+/**
+ * A cell read by the function itself, number or text as it stands (a lab's "<0.05", "12,5"):
+ * broadcast like a number, blank in blank out, but text is not refused here.
+ */
+export interface CellParam extends ParamBase {
+  readonly kind: "cell";
+  readonly optional: false;
+}
+export type Param = NumParam | TextParam | RangeParam | CellParam;
 
 export const num = (name: string) => ({ kind: "number", name, optional: false }) as const satisfies NumParam;
 /** Optional number; omitted gives `dflt` (or undefined, for core to apply its own method default). */
 export const optNum = (name: string, dflt?: number) =>
   ({ kind: "number", name, optional: true, default: dflt }) as const satisfies NumParam;
-export const text = (name: string) => ({ kind: "text", name, optional: false }) as const satisfies TextParam;
+/** Required text; `need` says what to give when it is missing (e.g. the accepted units). */
+export const text = (name: string, need?: string) => ({ kind: "text", name, optional: false, need }) as const satisfies TextParam;
 export const optText = (name: string, dflt?: string) =>
   ({ kind: "text", name, optional: true, default: dflt }) as const satisfies TextParam;
-export const range = (name: string) => ({ kind: "range", name, optional: false }) as const satisfies RangeParam;
+export const cell = (name: string) => ({ kind: "cell", name, optional: false }) as const satisfies CellParam;
+export const range = (name: string, need?: string) => ({ kind: "range", name, optional: false, need }) as const satisfies RangeParam;
 export const optRange = (name: string) => ({ kind: "range", name, optional: true }) as const satisfies RangeParam;
 
 /** A range argument as core sees it: rows of numbers, strings or null (blank). */
@@ -118,7 +130,9 @@ type ValueOf<P> = P extends NumParam
       ? P["optional"] extends false
         ? RangeValue
         : RangeValue | undefined
-      : never;
+      : P extends CellParam
+        ? number | string
+        : never;
 
 export type ElementValues<Ps extends readonly Param[]> = { -readonly [K in keyof Ps]: ValueOf<Ps[K]> };
 
@@ -247,11 +261,21 @@ function rangeValueOf(a: Arg, name: string): RangeValue {
 
 const BLANK = Symbol("blank");
 
+function missing(p: Param): SoilError {
+  return new SoilError("MISSING_INPUT", p.need ? `${p.name} is required: ${p.need}` : `${p.name} is required`);
+}
+
 /** Turns one cell of one argument into the value core receives, or BLANK. */
-function elementValue(p: NumParam | TextParam, c: unknown, omitted: boolean): unknown {
+function elementValue(p: NumParam | TextParam | CellParam, c: unknown, omitted: boolean): unknown {
   if (omitted) {
-    if (!p.optional) throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+    if (!p.optional) throw missing(p);
     return p.default;
+  }
+  if (p.kind === "cell") {
+    if (isBlank(c)) return BLANK;
+    if (typeof c === "number") return numberOfCell(c, p.name);
+    if (typeof c === "string") return c;
+    throw new SoilError("NOT_A_NUMBER", `${p.name} must be a number or text (got ${String(c)})`);
   }
   if (p.kind === "number") {
     if (isBlank(c)) return BLANK;
@@ -259,7 +283,7 @@ function elementValue(p: NumParam | TextParam, c: unknown, omitted: boolean): un
   }
   if (isBlank(c)) {
     if (p.optional) return p.default;
-    throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+    throw missing(p);
   }
   return textOfCell(c, p.name);
 }
@@ -282,7 +306,7 @@ function run(spec: BindingSpec, args: unknown[]): Out {
       const a = args[i] as Arg;
       if (p.kind === "range") {
         if (isOmitted(a)) {
-          if (!p.optional) throw new SoilError("MISSING_INPUT", `${p.name} is required`);
+          if (!p.optional) throw missing(p);
           wholes[i] = undefined;
         } else {
           wholes[i] = rangeValueOf(a, p.name);

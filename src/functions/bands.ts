@@ -1,7 +1,7 @@
 /** Excel bindings: bands. Argument shaping only; the science is in src/core. */
 import { bandLabel, bandPosition } from "../core/bands/bands";
 import { sufficiencyBand } from "../core/bands/sufficiency";
-import { removalAmount } from "../core/bands/removal";
+import { removalAmount, REMOVAL_YIELD_UNIT_NEED } from "../core/bands/removal";
 import { buildupRate } from "../core/bands/buildup";
 import { declare, num, optNum, optRange, optText, range, text } from "./_binding";
 
@@ -77,20 +77,20 @@ const SUFFICIENCY = declare(
  * @param {any[][]} crop corn, soybean, wheat, barley, oats, rye, dry bean, canola, oilseed rape, peas, faba bean, grass hay, grass silage, maize silage, potatoes, sugar beet, lucerne hay or oaten hay.
  * @param {any[][]} crop_yield Harvested yield, at least 0, on the crop's basis (grain at marketing moisture; forage at the stated dry matter).
  * @param {any[][]} nutrient N, P, P2O5, K, K2O, S, SO3, SO4, Ca, CaO, Mg or MgO: the form the result is expressed in.
- * @param {any[][]} [yield_unit] t/ha (default), kg/ha, lb/ac, ton/ac, g/m2, or bu/ac for crops with a standard bushel weight.
+ * @param {any[][]} yield_unit Required, the unit of crop_yield: t/ha, kg/ha, lb/ac, ton/ac, g/m2, or bu/ac for crops with a standard bushel weight.
  * @param {any[][]} [rate_unit] Unit of the result: kg/ha (default), lb/ac, t/ha, ton/ac or g/m2.
  * @returns {any[][]} Nutrient removed in rate_unit. Results are estimates: check them against local calibrations, regulations and licensed advice.
  * @throws #VALUE! for an unknown crop, nutrient or unit word, or a negative yield.
  * @throws #N/A when the source gives no coefficient for that crop and nutrient, or bu/ac is used for a crop without a standard bushel weight.
- * @example =SOIL.REMOVAL("corn", 10, "P2O5") //=> 72.5
+ * @example =SOIL.REMOVAL("corn", 10, "P2O5", "t/ha") //=> 72.5
  * Source: OMAFA Field Crop News (2025) "Crop Removal Values", Table 1: corn grain 6.6-7.9 kg P2O5/t (seen); 10 t/ha at the midpoint (derived).
  */
-export function removal(crop: any[][], crop_yield: any[][], nutrient: any[][], yield_unit?: any[][], rate_unit?: any[][]): any[][] {
+export function removal(crop: any[][], crop_yield: any[][], nutrient: any[][], yield_unit: any[][], rate_unit?: any[][]): any[][] {
   return REMOVAL(arguments);
 }
 const REMOVAL = declare(
   removal,
-  [text("crop"), num("crop_yield"), text("nutrient"), optText("yield_unit"), optText("rate_unit")],
+  [text("crop"), num("crop_yield"), text("nutrient"), text("yield_unit", REMOVAL_YIELD_UNIT_NEED), optText("rate_unit")],
   (crop, cropYield, nutrient, yieldUnit, rateUnit) => removalAmount(crop, cropYield, nutrient, yieldUnit, rateUnit),
 );
 

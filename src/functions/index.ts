@@ -5,3 +5,4 @@ export * from "./lime";
 export * from "./bands";
 export * from "./nitrogen";
 export * from "./meta";
+export * from "./lab";

@@ -1,5 +1,6 @@
 /** Excel bindings: lime. Argument shaping only; the science is in src/core. */
 import { limeBuffer } from "../core/lime/buffer";
+import { LIME_CALIBRATION_NEED } from "../core/lime/calibrations";
 import { limeAlSat, limeBaseSat, limeExchAl, limePhBc } from "../core/lime/methods";
 import { limeFinenessOfRanges, limeProductRate } from "../core/lime/product";
 import { limeCceOfRanges } from "../core/lime/cce";
@@ -11,7 +12,7 @@ import { declare, num, optNum, optRange, optText, range } from "./_binding";
  * @customfunction LIMEBUFFER
  * @param {any[][]} buffer_ph Soil-buffer pH from the lab, within the calibration's range (SIKORA-OR2025 4.8 to 6.9; MEHLICH up to 6.6).
  * @param {any[][]} target_ph Target soil pH, within the calibration's range (SIKORA-OR2025 5.6 to 7.2; MEHLICH up to 6.6).
- * @param {any[][]} [calibration] SMP (default; its table is not shipped yet, so it gives #N/A), SIKORA-OR2025 (Oregon 2025, 6-inch depth) or MEHLICH (NCDA&CS, needs soil_ph); or your lab's table as a range: top row target pH, left column buffer pH, body lime rates.
+ * @param {any[][]} calibration Required, no default: SIKORA-OR2025 (Oregon 2025, 6-inch depth), MEHLICH (NCDA&CS, needs soil_ph) or SMP (its table is not shipped yet, so #N/A); or your lab's table as a range: top row target pH, left column buffer pH, body lime rates.
  * @param {any[][]} [soil_ph] Current soil pH (0 to 14). MEHLICH needs it; with any calibration a target at or below it gives 0.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default the calibration's own depth (SIKORA-OR2025 15.24 cm), and a given depth scales the rate in proportion. Leave blank with a range or MEHLICH.
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac. Leave blank with a range: the result is then in the range's own unit.
@@ -24,7 +25,7 @@ import { declare, num, optNum, optRange, optText, range } from "./_binding";
 export function limebuffer(
   buffer_ph: any[][],
   target_ph: any[][],
-  calibration?: any[][],
+  calibration: any[][],
   soil_ph?: any[][],
   depth_cm?: any[][],
   unit?: any[][],
@@ -33,7 +34,7 @@ export function limebuffer(
 }
 const LIMEBUFFER = declare(
   limebuffer,
-  [num("buffer_ph"), num("target_ph"), optRange("calibration"), optNum("soil_ph"), optNum("depth_cm"), optText("unit")],
+  [num("buffer_ph"), num("target_ph"), range("calibration", LIME_CALIBRATION_NEED), optNum("soil_ph"), optNum("depth_cm"), optText("unit")],
   (bufferPh, targetPh, calibration, soilPh, depthCm, unit) => limeBuffer(bufferPh, targetPh, { calibration, soilPh, depthCm, unit }),
 );
 
@@ -67,7 +68,7 @@ const LIMEAL = declare(
  * @param {any[][]} al Exchangeable Al (1 N KCl) in cmol(+)/kg (= meq/100 g), at least 0.
  * @param {any[][]} ca Exchangeable Ca (1 N KCl) in cmol(+)/kg, at least 0.
  * @param {any[][]} mg Exchangeable Mg (1 N KCl) in cmol(+)/kg, at least 0.
- * @param {any[][]} [target_al_sat] Al saturation the crop tolerates, % of Al + Ca + Mg (0 to 100); required, crops differ.
+ * @param {any[][]} [target_al_sat] Al saturation the crop tolerates, % of Al + Ca + Mg (0, or 1 to 100; 0.2 is refused as a fraction, enter 20); required, crops differ.
  * @param {any[][]} [factor] Factor above 0; default the source's rule: 1.5, or 2.0 when the 1.5 result exceeds the Al itself.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default 20 (the layer implied by the source's t/ha conversion).
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0 to 2.65); required.
@@ -100,8 +101,8 @@ const LIMEALSAT = declare(
  *
  * @customfunction LIMEBASESAT
  * @param {any[][]} cec CEC at pH 7 (T) in cmol(+)/dm3 (= cmolc/dm3), as Brazilian labs report it; with bulk_density it is read as cmol(+)/kg.
- * @param {any[][]} base_sat Current base saturation V1, % (0 to 100).
- * @param {any[][]} target_base_sat Target base saturation V2, % (0 to 100); at or below V1 gives 0.
+ * @param {any[][]} base_sat Current base saturation V1, % (0, or above 1 to 100; 0.5 is refused as a fraction, enter 50).
+ * @param {any[][]} target_base_sat Target base saturation V2, % (20 to 100); at or below V1 gives 0.
  * @param {any[][]} [depth_cm] Depth to lime in cm; default 20 (the method's 0-20 cm layer), scaled in proportion.
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3; give it only when cec is per kg (cmol(+)/kg).
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
@@ -162,9 +163,9 @@ const LIMEPHBC = declare(
  *
  * @customfunction LIMEPRODUCT
  * @param {any[][]} caco3_rate Lime requirement as pure CaCO3 equivalent, in any rate unit, at least 0.
- * @param {any[][]} cce_pct Calcium carbonate equivalent of the product, % of dry matter (above 0, at most 250).
- * @param {any[][]} [fineness_pct] Fineness efficiency, % (above 0, at most 100; SOIL.FINENESS); default 100, e.g. when cce_pct is already an ECCE.
- * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0 to below 100); default 0.
+ * @param {any[][]} cce_pct Calcium carbonate equivalent of the product, % of dry matter (5 to 250; 0.95 is refused as a fraction, enter 95).
+ * @param {any[][]} [fineness_pct] Fineness efficiency, % (above 1, at most 100; SOIL.FINENESS); default 100, e.g. when cce_pct is already an ECCE.
+ * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0, or 1 to below 100: below 1 % enter 0); default 0.
  * @returns {any[][]} Product as received, same unit as caco3_rate. Handle with care: dust; burnt and hydrated lime are caustic. Estimates: check local calibrations and regulations.
  * @throws #VALUE! for cce_pct of 0 or above 250, fineness_pct of 0 or above 100, or moisture_pct of 100 or more.
  * @example =SOIL.LIMEPRODUCT(5, 70) //=> 7.143

@@ -9,8 +9,8 @@ import { declare, num, optNum, optText, text } from "./_binding";
  * N2 fixed by a legume, kg N/ha: shoot dry matter × shoot N % × %Ndfa × below-ground factor.
  * @customfunction NFIXED
  * @param {any[][]} shoot_dm Legume shoot dry matter at peak biomass, t/ha (0–60).
- * @param {any[][]} shoot_n_pct Shoot N, % of dry matter (0–16; crude protein ÷ 6.25 gives N %).
- * @param {any[][]} ndfa_pct Percent of legume N from the atmosphere, 0–100 (e.g. from SOIL.NDFA).
+ * @param {any[][]} shoot_n_pct Shoot N, % of dry matter (0, or 0.2–16; crude protein ÷ 6.25 gives N %; 0.025 is refused as a fraction).
+ * @param {any[][]} ndfa_pct Percent of legume N from the atmosphere: 0, or above 1 to 100 (e.g. from SOIL.NDFA; 0.82 is refused as a fraction).
  * @param {any[][]} [root_factor] Needed, no default: whole-plant N ÷ shoot N (1–10), "shoot" (1), "walley2007" (1.32, pulses), or a crop: "faba bean" (1.43), "chickpea" (1.92), "mungbean" (1.39), "pigeonpea" (1.75).
  * @returns {any[][]} kg N/ha fixed by the whole plant (shoots only with "shoot").
  * @throws #VALUE! when root_factor is missing (no default: the published factors could not be verified), or for a %Ndfa outside 0 to 100 (not clamped) or a shoot N above 16 %.
@@ -93,7 +93,7 @@ const NDIFF = declare(
  * @customfunction NBALANCE
  * @param {any[][]} fixed_n N2 fixed, kg N/ha (at least 0), e.g. from SOIL.NFIXED.
  * @param {any[][]} grain_yield Grain yield, t/ha (0–30), same moisture basis as grain_n_pct.
- * @param {any[][]} grain_n_pct Grain N, % (0–16; crude protein ÷ 6.25 gives N %).
+ * @param {any[][]} grain_n_pct Grain N, % (0 for no grain, or 0.2–16; crude protein ÷ 6.25 gives N %; 0.04 is refused as a fraction).
  * @returns {any[][]} kg N/ha; negative when grain removed more N than was fixed.
  * @throws #VALUE! for a negative fixed_n, a grain yield outside 0 to 30 t/ha, or grain N above 16 %.
  * @example =SOIL.NBALANCE(142.8, 2, 5) //=> 42.8

@@ -8,7 +8,7 @@ import { declare, num, optNum, text } from "./_binding";
  *
  * @customfunction CONVERT
  * @param {any[][]} value Amount in from_unit; a cell or a range.
- * @param {any[][]} from_unit Unit of value: mg/kg (ppm), g/kg, %, cmol/kg (meq/100g), mmol/kg, mg/dm3, kg/ha, t/ha, g/m2, lb/ac, ton/ac, dS/m, uS/cm.
+ * @param {any[][]} from_unit Unit of value: mg/kg (ppm), g/kg, %, cmol(+)/kg (meq/100g), mmolc/kg, mg/dm3 (of soil), kg/ha, t/ha (Mg/ha), g/m2, lb/ac, ton/ac, dS/m, uS/cm. Refused as ambiguous: bare cmol/kg, mmol/kg, mg/L, mg/ha.
  * @param {any[][]} to_unit Unit wanted, from the same list.
  * @param {any[][]} [depth_cm] Soil layer depth in cm (0–300); needed between mass fraction or volume and area rate.
  * @param {any[][]} [bulk_density] Dry bulk density in g/cm3 (0–2.65); needed between mass fraction and area rate or volume.

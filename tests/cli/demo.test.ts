@@ -26,6 +26,8 @@ import { nfixFixedN, nfixPerTonne, nfixShootDm } from "../../src/core/nitrogen/n
 import { nfixNdfa } from "../../src/core/nitrogen/isotope";
 import { nfixNodulationRating } from "../../src/core/nitrogen/nodulation";
 import { nfixSoilCount } from "../../src/core/nitrogen/fixation-soil";
+import { labValue } from "../../src/core/lab-value";
+import { convertUnit } from "../../src/core/units";
 import { tempDir } from "../helpers/workbook";
 
 const SAMPLES = path.join(repoRoot(), "sample-workbooks");
@@ -218,16 +220,41 @@ describe("npm run demo (invented sample workbooks)", () => {
     expect(printed.some((l) => /^Band results: .*S \d+ samples .*Zn \d+ samples .*Cu \d+ samples .*Mn \d+ samples/.test(l))).toBe(true);
   });
 
-  it("reports exactly the two deliberate below-detection values, with the message", () => {
-    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Lab A Brindlewick!AK60", "Lab B Quillon Downs!AS96"]);
+  it("reports exactly the one deliberate refusal: Lab A's \"<0.5\" converted without LABVALUE on the Read me sheet", () => {
+    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Read me!B16"]);
     for (const e of summary.errors) {
       expect(e.error).toBe("#VALUE!");
       expect(e.message).toContain('"<0.5" is not a number');
       expect(e.message).toContain("below- or above-detection value is your call");
     }
     expect(summary.reasons).toHaveLength(1);
-    expect(summary.reasons[0]!.cells).toHaveLength(2);
-    expect(printed).toContain("Cells in error: 2");
+    expect(summary.reasons[0]!.cells).toHaveLength(1);
+    expect(printed).toContain("Cells in error: 1");
+  });
+
+  it("the lab sheets read the below-detection nitrate through SOIL.LABVALUE with the Settings policy, computed from core", async () => {
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.readFile(summary.workbooks.find((w) => /soil-tests/.test(w.file))!.output);
+    const policy = String(wb.getWorksheet("Settings")!.getCell("C7").value);
+    const cached = (sheet: string, header: string, id: string) => {
+      const ws = wb.getWorksheet(sheet)!;
+      let col = 0;
+      ws.getRow(2).eachCell((c, i) => (c.value === header ? (col = i) : undefined));
+      for (let r = 3; r <= ws.rowCount; r++) {
+        if (ws.getCell(r, 1).value === id) {
+          const v = ws.getCell(r, col).value as { result?: unknown } | number;
+          return typeof v === "object" && v !== null ? v.result : v;
+        }
+      }
+      throw new Error(`${id} not on ${sheet}`);
+    };
+    const rowsA = await rowsOf(SEASON, "Lab A Brindlewick", H.sampleId);
+    const a = rowsA.find((r) => r["NO3-N (lb/ac)"] === "<0.5")!;
+    expect(cached("Lab A Brindlewick", "NO3-N (kg/ha)", String(a[H.sampleId]))).toBeCloseTo(convertUnit(labValue("<0.5", policy) as number, "lb/ac", "kg/ha"), 9);
+    const rowsB = await rowsOf(SEASON, "Lab B Quillon Downs", H.sampleId);
+    const b = rowsB.find((r) => r["Nitrate-N (mg/kg)"] === "<0.5")!;
+    const layer = { depthCm: settings.depthB, bulkDensity: num(b["Bulk density (g/cm3)"]) };
+    expect(cached("Lab B Quillon Downs", "Nitrate-N (kg/ha, 0-10 cm)", String(b[H.sampleId]))).toBeCloseTo(convertUnit(labValue("<0.5", policy) as number, "mg/kg", "kg/ha", layer), 9);
   });
 
   it("legume N fixed for a farm equals the shoot-based and per-tonne rules, computed from core", async () => {
@@ -290,7 +317,7 @@ describe("npm run demo (invented sample workbooks)", () => {
     const names = Object.keys(zip.files);
     expect(names).toContain("xl/metadata.xml");
     const all = (await Promise.all(names.filter((n) => /^xl\/worksheets\/sheet\d+\.xml$/.test(n)).map((n) => zip.file(n)!.async("string")))).join("");
-    expect(all).toMatch(/<c r="W3"[^>]* cm="1"><f t="array" ref="W3:W152">_xldudf_SOIL_CEC\(M3:M152,N3:N152,L3:L152,O3:O152\)<\/f><v>[0-9.]+<\/v>/);
+    expect(all).toMatch(/<c r="W3"[^>]* cm="1"><f t="array" ref="W3:W152">_xldudf_SOIL_CEC\(M3:M152,N3:N152,L3:L152,O3:O152,(&quot;|")ppm(&quot;|")\)<\/f><v>[0-9.]+<\/v>/);
     expect(all).not.toMatch(/SOIL\.[A-Z]+\(/); // no typed form left
   });
 });

@@ -1,5 +1,7 @@
 import fc from "fast-check";
-import { convertUnit, UNITS } from "../../src/core/units";
+import { convertUnit, unitById, unitOfFamily, REFUSED_UNIT_WORDS, UNITS } from "../../src/core/units";
+import { normaliseWord } from "../../src/core/names";
+import unitData from "../../src/data/units.json";
 import { errorCode as code } from "../helpers/errors";
 
 
@@ -51,7 +53,7 @@ describe("convertUnit: through a soil layer", () => {
     expect(convertUnit(60, "ppm", "lb/ac", { depthCm: depth, bulkDensity: bd })).toBeCloseTo(120, 6);
   });
   it("mg/dm3 to mg/kg divides by bulk density; to kg/ha needs only depth", () => {
-    expect(convertUnit(26, "mg/L", "mg/kg", { bulkDensity: 1.3 })).toBeCloseTo(20, 10);
+    expect(convertUnit(26, "mg/dm3", "mg/kg", { bulkDensity: 1.3 })).toBeCloseTo(20, 10);
     expect(convertUnit(20, "mg/dm3", "kg/ha", { depthCm: 10 })).toBeCloseTo(20, 10);
   });
   it("says which argument is missing", () => {
@@ -71,14 +73,65 @@ describe("convertUnit: refusals", () => {
     expect(() => convertUnit(1, "kg/acre", "kg/ha")).toThrow(/lb\/ac/);
   });
   it("charge to mass needs an ion", () => {
-    expect(code(() => convertUnit(1, "cmol/kg", "mg/kg"))).toBe("UNIT_MISMATCH");
-    expect(() => convertUnit(1, "cmol/kg", "mg/kg")).toThrow(/SOIL.CMOL/);
+    expect(code(() => convertUnit(1, "cmol(+)/kg", "mg/kg"))).toBe("UNIT_MISMATCH");
+    expect(() => convertUnit(1, "cmol(+)/kg", "mg/kg")).toThrow(/SOIL.CMOL/);
   });
   it("salinity to rate is refused", () => {
     expect(code(() => convertUnit(1, "dS/m", "kg/ha"))).toBe("UNIT_MISMATCH");
   });
   it("unit names are case-insensitive", () => {
     expect(convertUnit(1, "LB/AC", "KG/HA")).toBeCloseTo(1.120851156, 9);
+  });
+});
+
+describe("unit words two trades read differently (issue 22 point 5)", () => {
+  // Source: definition. A mole of Ca2+ or Mg2+ carries two moles of charge, so a bare cmol/kg or
+  // mmol/kg does not say which was meant; SOIL.SAR refuses a bare mmol/L for the same reason.
+  it.each(["cmol/kg", "CMOL/KG", "cmol kg-1", "mmol/kg", "mmol kg-1"])("bare %s is refused as ambiguous (UNIT_MISMATCH)", (w) => {
+    expect(code(() => unitById(w))).toBe("UNIT_MISMATCH");
+  });
+  it("the refusal of a bare cmol/kg names the charge spellings", () => {
+    expect(() => unitById("cmol/kg")).toThrow(/write cmol\(\+\)\/kg, cmolc\/kg or meq\/100g/);
+  });
+  it("the refusal of a bare mmol/kg names mmolc/kg", () => {
+    expect(() => unitById("mmol/kg")).toThrow(/write mmolc\/kg, mmol\(\+\)\/kg or meq\/kg/);
+  });
+  it("cmol(+)/kg, cmolc/kg and meq/100g are charge; mmolc/kg is a tenth of them (Rayment & Lyons 2011 App. 5)", () => {
+    expect(unitById("cmol(+)/kg").family).toBe("charge");
+    expect(convertUnit(1, "cmolc/kg", "meq/100g")).toBe(1);
+    expect(convertUnit(10, "mmolc/kg", "cmol(+)/kg")).toBeCloseTo(1, 12);
+    expect(convertUnit(10, "mmol(+)/kg", "cmolc/kg")).toBeCloseTo(1, 12);
+  });
+  it.each(["mg/L", "mg/l", "MG/L", "mg L-1"])("%s is not read as mg per dm3 of soil (UNIT_MISMATCH naming mg/dm3)", (w) => {
+    expect(code(() => convertUnit(26, w, "mg/kg", { bulkDensity: 1.3 }))).toBe("UNIT_MISMATCH");
+    expect(() => convertUnit(26, w, "mg/kg", { bulkDensity: 1.3 })).toThrow(/write mg\/dm3/);
+  });
+  it("mg/dm3 and mg dm-3 are soil volume (SI definition)", () => {
+    expect(unitById("mg dm-3").id).toBe("mg/dm3");
+  });
+  // Source: SI prefixes m (milli) and M (mega) differ only by case (NIST SP 811, Thompson & Taylor 2008).
+  it("Mg/ha is a megagram (tonne) per hectare", () => {
+    expect(convertUnit(1, "Mg/ha", "kg/ha")).toBe(1000);
+    expect(convertUnit(1, "Mg ha-1", "t/ha")).toBe(1);
+  });
+  it.each(["mg/ha", "MG/HA", "mG/ha", "mg ha-1"])("%s does not resolve to Mg/ha: refused naming Mg/ha and t/ha", (w) => {
+    expect(code(() => convertUnit(1, w, "kg/ha"))).toBe("UNIT_MISMATCH");
+    expect(() => convertUnit(1, w, "kg/ha")).toThrow(/write Mg\/ha or t\/ha/);
+  });
+  it("the refusal names the argument it is in", () => {
+    expect(() => convertUnit(1, "kg/ha", "mg/ha")).toThrow(/^to_unit "mg\/ha"/);
+    expect(() => unitOfFamily("cmol/kg", ["charge"], "unit")).toThrow(/^unit "cmol\/kg" is ambiguous/);
+  });
+  it("matching stays case-insensitive where no prefix collides", () => {
+    expect(unitById("MG/KG").id).toBe("mg/kg");
+    expect(unitById("MEQ/100G").id).toBe("cmol(+)/kg");
+    expect(unitById("T/HA").id).toBe("t/ha");
+  });
+  it("no refused word is also an accepted spelling (data check)", () => {
+    const accepted = new Set(
+      (unitData.units as { id: string; aliases: string[] }[]).flatMap((u) => [u.id, ...u.aliases]).map(normaliseWord),
+    );
+    for (const w of REFUSED_UNIT_WORDS) expect(accepted.has(normaliseWord(w))).toBe(false);
   });
 });
 

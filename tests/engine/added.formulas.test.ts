@@ -16,7 +16,7 @@ describe("SOIL.ESPSAR", () => {
     expect(v[1]![0]).toBeCloseTo(15.193, 3);
   });
   it("chains from SOIL.SAR of the extract (Na 15, Ca 6, Mg 4 mmolc/L): 7.95 %", () => {
-    expect(value("=SOIL.ESPSAR(SOIL.SAR(15,6,4))") as number).toBeCloseTo(7.948, 3);
+    expect(value('=SOIL.ESPSAR(SOIL.SAR(15,6,4,"mmolc/L"))') as number).toBeCloseTo(7.948, 3);
   });
   it("a negative SAR is #VALUE! with the range", () => {
     const r = evaluateFormula("=SOIL.ESPSAR(-1)");

@@ -48,8 +48,17 @@ describe("sufficiency, removal and build-up formulas", () => {
     expect(value('=SOIL.SUFFICIENCY("Cl",{10;20},,"water",,{"Cl","water","","Low",20,"Adequate"})')).toEqual([["Low"], ["Adequate"]]);
   });
   it("SOIL.REMOVAL: t/ha in, kg/ha out by default; bu/ac in, lb/ac out", () => {
-    expect(value('=SOIL.REMOVAL("corn",10,"P2O5")')).toBeCloseTo(72.5, 9);
+    expect(value('=SOIL.REMOVAL("corn",10,"P2O5","t/ha")')).toBeCloseTo(72.5, 9);
     expect(value('=SOIL.REMOVAL("corn",200,"K2O","bu/ac","lb/ac")')).toBeCloseTo(54.88, 2);
+  });
+  it("SOIL.REMOVAL's yield_unit is required (issue 22 point 3): left empty it is #VALUE! listing the units", () => {
+    const r = evaluateFormula('=SOIL.REMOVAL("corn",180,"K2O",)');
+    expect(r.error).toBe("#VALUE!");
+    expect(r.message).toMatch(/^yield_unit is required: .*bu\/ac/);
+  });
+  it("Mg/ha is tonnes per hectare; mg/ha is refused (issue 22 point 5)", () => {
+    expect(value('=SOIL.REMOVAL("corn",10,"P2O5","Mg/ha")')).toBeCloseTo(72.5, 9);
+    expect(evaluateFormula('=SOIL.REMOVAL("corn",10,"P2O5","mg/ha")').message).toMatch(/write Mg\/ha or t\/ha/);
   });
   it("SOIL.BUILDUP with the default four years, and 0 at or above the target", () => {
     expect(value("=SOIL.BUILDUP(10,15,20)")).toBeCloseTo(25, 12);

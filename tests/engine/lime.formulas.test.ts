@@ -26,10 +26,31 @@ describe("lime formulas", () => {
   it("an array literal as the calibration table (invented lab table), interpolated on both axes", () => {
     expect(num('=SOIL.LIMEBUFFER(6.25,6.25,{"",6,6.5;6,3,4;6.5,1,2})')).toBeCloseTo(2.5, 10);
   });
-  it("default calibration SMP is #N/A with the reason (its table is not shipped)", () => {
-    const r = evaluateFormula("=SOIL.LIMEBUFFER(6,6.5)");
+  it("the calibration is required (issue 22 point 3): left out it is an error; left empty #VALUE! naming the built-ins", () => {
+    // Too few arguments: Excel refuses the formula when typed; the engine answers an error.
+    expect(evaluateFormula("=SOIL.LIMEBUFFER(6,6.5)").error).toBeDefined();
+    const r = evaluateFormula("=SOIL.LIMEBUFFER(6,6.5,)");
+    expect(r.error).toBe("#VALUE!");
+    expect(r.message).toMatch(/^calibration is required: .*SIKORA-OR2025, MEHLICH/);
+  });
+  it("SMP named is #N/A with the reason (its table is not shipped)", () => {
+    const r = evaluateFormula('=SOIL.LIMEBUFFER(6,6.5,"SMP")');
     expect(r.error).toBe("#N/A");
     expect(r.message).toMatch(/^the SMP table is not shipped/);
+  });
+  it("issue 22 point 4: =SOIL.LIMEPRODUCT(3,0.95,0.85) and =SOIL.LIMEBASESAT(8.9,0.5,0.7) are refused with the fraction hint", () => {
+    const p = evaluateFormula("=SOIL.LIMEPRODUCT(3,0.95,0.85)");
+    expect(p.error).toBe("#VALUE!");
+    expect(p.message).toContain("0.95 looks like a fraction; enter 95 for 95 %");
+    const b = evaluateFormula("=SOIL.LIMEBASESAT(8.9,0.5,0.7)");
+    expect(b.error).toBe("#VALUE!");
+    expect(b.message).toContain("0.5 looks like a fraction; enter 50 for 50 %");
+  });
+  it("the same in percent computes: 3 t/ha at CCE 95 %, fineness 85 % is 3.715 (derived)", () => {
+    expect(num("=SOIL.LIMEPRODUCT(3,95,85)")).toBeCloseTo(3 / 0.95 / 0.85, 10);
+  });
+  it("a CCE of 95 % written as a percent literal (95%, stored 0.95) is refused too", () => {
+    expect(evaluateFormula("=SOIL.LIMEPRODUCT(3,95%)").error).toBe("#VALUE!");
   });
   it("MEHLICH needs soil_ph: NCDA&CS example 0.75 ton/ac; without it #VALUE!", () => {
     expect(num('=SOIL.LIMEBUFFER(6.3,6,"MEHLICH",5,,"ton/ac")')).toBeCloseTo(0.75, 10);

@@ -17,6 +17,11 @@ describe("legume nitrogen formulas", () => {
     expect(num('=SOIL.NFIXED(8,2.5,SOIL.NDFA(6,1,-1),"shoot")')).toBeCloseTo(142.857, 3);
     expect(num("=SOIL.NFIXED(8,2.5,71.4,1.5)")).toBeCloseTo(214.2, 9);
   });
+  it("percents typed as fractions are refused with the hint (issue 22 point 4)", () => {
+    expect(evaluateFormula('=SOIL.NFIXED(8,0.025,80,"shoot")').message).toContain("0.025 looks like a fraction; enter 2.5 for 2.5 %");
+    expect(evaluateFormula('=SOIL.NFIXED(8,2.5,82%,"shoot")').message).toContain("0.82 looks like a fraction; enter 82 for 82 %");
+    expect(evaluateFormula("=SOIL.NBALANCE(50,2.5,0.04)").error).toBe("#VALUE!");
+  });
   it("SOIL.NFIXED without root_factor says a factor is needed", () => {
     const r = evaluateFormula("=SOIL.NFIXED(8,2.5,80)");
     expect(r.error).toBe("#VALUE!");

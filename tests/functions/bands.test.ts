@@ -84,15 +84,22 @@ describe("SOIL.SUFFICIENCY", () => {
 describe("SOIL.REMOVAL", () => {
   // Source: OMAFA Field Crop News (2025) 'Crop Removal Values': corn P2O5 6.6-7.9 kg/t (midpoint 7.25, derived).
   it("a column of yields, one crop and nutrient", () => {
-    const out = removal([["corn"]], [[10], [""], [12]], [["P2O5"]]);
+    const out = removal([["corn"]], [[10], [""], [12]], [["P2O5"]], [["t/ha"]]);
     expect(out[0]![0]).toBeCloseTo(72.5, 9);
     expect(out[1]![0]).toBe("");
     expect(out[2]![0]).toBeCloseTo(87, 9);
   });
   it("crops and nutrients broadcast together; a missing coefficient is #N/A for that element", () => {
-    const out = removal([["peas"], ["peas"]], [[4]], [["P2O5"], ["N"]]);
+    const out = removal([["peas"], ["peas"]], [[4]], [["P2O5"], ["N"]], [["t/ha"]]);
     expect(out[0]![0]).toBeCloseTo(36, 9);
     expect((out[1]![0] as PlainHostError).kind).toBe("#N/A");
+  });
+  it("yield_unit is required (issue 22 point 3): omitted is #VALUE! listing the yield units", () => {
+    expect(err(removal([["corn"]], [[180]], [["K2O"]], null as never)[0]![0])).toMatch(/^#VALUE! yield_unit is required: .*bu\/ac/);
+  });
+  it("Mg/ha is tonnes per hectare; mg/ha is #VALUE! (issue 22 point 5)", () => {
+    expect(removal([["corn"]], [[10]], [["P2O5"]], [["Mg/ha"]])[0]![0]).toBeCloseTo(72.5, 9);
+    expect(err(removal([["corn"]], [[10]], [["P2O5"]], [["mg/ha"]])[0]![0])).toMatch(/^#VALUE! yield_unit "mg\/ha"/);
   });
   it("bu/ac in, lb/ac out", () => {
     expect(removal([["corn"]], [[200]], [["K2O"]], [["bu/ac"]], [["lb/ac"]])[0]![0]).toBeCloseTo(54.88, 2);

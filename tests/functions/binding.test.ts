@@ -48,6 +48,12 @@ describe("binding layer", () => {
   it("every binding declares its parameters", () => {
     expect(specOf(convert)?.params.map((p) => p.name)).toEqual(["value", "from_unit", "to_unit", "depth_cm", "bulk_density"]);
   });
+  it("ambiguous unit words are #VALUE! naming the unambiguous spellings (issue 22 point 5)", () => {
+    expect(err(convert([[1]], [["cmol/kg"]], [["mmolc/kg"]])[0]![0])).toMatch(/^#VALUE! from_unit "cmol\/kg" is ambiguous/);
+    expect(err(convert([[26]], [["mg/L"]], [["mg/kg"]], null as never, [[1.3]])[0]![0])).toMatch(/write mg\/dm3/);
+    expect(err(convert([[1]], [["mg/ha"]], [["kg/ha"]])[0]![0])).toMatch(/write Mg\/ha or t\/ha/);
+    expect(convert([[1]], [["Mg/ha"]], [["kg/ha"]])).toEqual([[1000]]);
+  });
   it("broadcastShape: 1×1 pairs with anything", () => {
     expect(broadcastShape([{ name: "a", shape: { rows: 1, cols: 1 } }, { name: "b", shape: { rows: 4, cols: 2 } }])).toEqual({ rows: 4, cols: 2 });
   });

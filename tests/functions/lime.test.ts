@@ -41,8 +41,12 @@ describe("SOIL.LIMEBUFFER", () => {
     expect(out[2]![0]).toBeCloseTo(2.5, 10);
     expect(err(out[3]![0])).toBe("#VALUE! buffer_ph 4 is outside the SIKORA-OR2025 table (buffer pH 4.8 to 6.9); the table is not extrapolated");
   });
-  it("calibration omitted means SMP, whose table is not shipped: #N/A with the reason", () => {
-    const v = one(limebuffer(g(6.0), g(6.5)));
+  it("calibration is required (issue 22 point 3): omitted or a blank cell is #VALUE! naming the built-ins and the range form", () => {
+    expect(err(one(limebuffer(g(6.0), g(6.5), null as never)))).toMatch(/^#VALUE! calibration is required: .*SIKORA-OR2025, MEHLICH .*range/);
+    expect(err(one(limebuffer(g(6.0), g(6.5), g(""))))).toMatch(/^#VALUE! calibration is required/);
+  });
+  it("SMP named is #N/A with the reason: its table is not shipped", () => {
+    const v = one(limebuffer(g(6.0), g(6.5), g("SMP")));
     expect(kind(v)).toBe("#N/A");
     expect(err(v)).toMatch(/SMP table is not shipped/);
   });
@@ -89,6 +93,10 @@ describe("SOIL.LIMEBASESAT", () => {
   it("worked example T 5.46, V 8.42 → 60 % (agronomiacomgismonti 2010): 2.82 t/ha for 0–20 cm", () => {
     expect(one(limebasesat(g(5.46), g(8.42), g(60)))).toBeCloseTo(2.8187, 4);
   });
+  it("issue 22: LIMEBASESAT(8.9, 0.5, 0.7) is #VALUE! with the fraction hint, not 0.0178", () => {
+    expect(err(one(limebasesat(g(8.9), g(0.5), g(0.7))))).toMatch(/^#VALUE! base_sat must be 0, or above 1 to 100 %.*0\.5 looks like a fraction; enter 50 for 50 %/);
+    expect(err(one(limebasesat(g(8.9), g(50), g(0.7))))).toContain("0.7 looks like a fraction; enter 70 for 70 %");
+  });
   it("a row of targets broadcasts; V2 ≤ V1 gives 0", () => {
     const out = limebasesat(g(10), g(50), [[40, 50, 70]]);
     expect(out[0]).toEqual([0, 0, expect.any(Number)]);
@@ -113,12 +121,26 @@ describe("SOIL.LIMEPRODUCT", () => {
   it("CCE 0 is #VALUE!, never Infinity", () => {
     expect(err(one(limeproduct(g(5), g(0))))).toMatch(/^#VALUE! cce_pct must be/);
   });
+  it("issue 22: LIMEPRODUCT(3, 0.95, 0.85) is #VALUE! with the fraction hint, not 37 151.7", () => {
+    expect(err(one(limeproduct(g(3), g(0.95), g(0.85))))).toContain("0.95 looks like a fraction; enter 95 for 95 %");
+    expect(one(limeproduct(g(3), g(95), g(85)))).toBeCloseTo(3 / 0.95 / 0.85, 10);
+  });
+  it("a column of CCE formatted as % (0.95, 0.9) is refused element by element; real percents compute", () => {
+    const out = limeproduct(g(3), [[0.95], [95], [""]]);
+    expect(kind(out[0]![0])).toBe("#VALUE!");
+    expect(out[1]![0]).toBeCloseTo(3 / 0.95, 10);
+    expect(out[2]![0]).toBe("");
+  });
 });
 
 describe("SOIL.FINENESS", () => {
   it("BC Factsheet 637.200-2 limestone A (85.28 %) from a column, and B (94.40 %) from a row", () => {
     expect(one(fineness([[78.8], [10], [2.4], [7.8]]))).toBeCloseTo(85.28, 10);
     expect(one(fineness([[90, 6, 4, 0]]))).toBeCloseTo(94.4, 10);
+  });
+  it("fractions or efficiencies typed as fractions of 1 are #VALUE! (issue 22 point 4)", () => {
+    expect(err(one(fineness([[0.788], [0.1], [0.024], [0.078]])))).toMatch(/they look like fractions/);
+    expect(err(one(fineness([[78.8], [10], [2.4], [7.8]], [[1], [0.6], [0.2], [0]])))).toMatch(/look like fractions/);
   });
   it("a user's rating as a second range; fractions not adding up to 100 ± 1 % is #VALUE!", () => {
     expect(one(fineness([[70, 20, 10]], [[100, 50, 10]]))).toBeCloseTo(81, 12);

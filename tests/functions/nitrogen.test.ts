@@ -28,10 +28,19 @@ describe("SOIL.NFIXED", () => {
   it("an element out of range is #VALUE! and does not spoil the others", () => {
     const out = nfixed([[8]], [[2.5], [25]], [[80]], [["shoot"]]);
     expect(out[0]![0]).toBeCloseTo(160, 9);
-    expect(err(out[1]![0])).toMatch(/^#VALUE! shoot_n_pct must be from 0 to 16 %.*crude protein/);
+    expect(err(out[1]![0])).toMatch(/^#VALUE! shoot_n_pct must be 0, or from 0.2 to 16 %.*crude protein/);
   });
   it("declares the catalogue's arguments in order", () => {
     expect(specOf(nfixed)?.params.map((p) => p.name)).toEqual(["shoot_dm", "shoot_n_pct", "ndfa_pct", "root_factor"]);
+  });
+  it("percents typed as fractions are #VALUE! with the hint (issue 22 point 4): N 0.025, %Ndfa 0.82", () => {
+    expect(err(nfixed([[8]], [[0.025]], [[80]], [["shoot"]])[0]![0])).toContain("0.025 looks like a fraction; enter 2.5 for 2.5 %");
+    expect(err(nfixed([[8]], [[2.5]], [[0.82]], [["shoot"]])[0]![0])).toContain("0.82 looks like a fraction; enter 82 for 82 %");
+    expect(err(nbalance([[164]], [[2]], [[0.05]])[0]![0])).toContain("0.05 looks like a fraction; enter 5 for 5 %");
+  });
+  it("a real small N % (0.5) and a %Ndfa of 0 compute (derived: 8 t × 0.5 % × 0 = 0)", () => {
+    expect(nfixed([[8]], [[0.5]], [[50]], [["shoot"]])[0]![0]).toBeCloseTo(20, 9);
+    expect(nfixed([[8]], [[2.5]], [[0]], [["shoot"]])[0]![0]).toBe(0);
   });
 });
 

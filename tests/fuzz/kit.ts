@@ -86,6 +86,7 @@ export function wordsOf(fn: RegisteredFunction): { all: string[]; byParam: Map<n
       const args = fn.spec.params.map((q, j) => {
         if (j === i) return [[PROBE]];
         if (q.kind === "number") return [[[1, 10, 0.5, 2, 100, 7][trial]]];
+        if (q.kind === "cell") return [[LAB_TEXTS[trial % LAB_TEXTS.length]]];
         if (q.kind === "range") return [[1, 2, 3, 4]];
         const pool = accepted.get(j) ?? byParam.get(j) ?? [];
         return q.optional && trial % 2 === 0 ? null : [[pool[trial % Math.max(1, pool.length)] ?? "x"]];
@@ -257,6 +258,28 @@ function numericText(fn: RegisteredFunction): fc.Arbitrary<string> {
 
 const BLANKS = [null, undefined, "", "  "] as const;
 
+/** Result cells as lab exports hold them: censored, locally formatted, words. */
+export const LAB_TEXTS: readonly string[] = [
+  "<0.5", "< 0.05", "<=2", "≤0.1", ">300", ">= 1e3", "≥5", "n.d.", "ND", "trace", "tr.", "n.a.", "N/A", "1 250", "1\u00a0250,5",
+  "12,5", "1,250", "1.250", "1.250,5", "1,250.5", "<0,05", "<0", "<-1", "<", ">", "-", "—", "<LOD", "12.5 mg/kg", "1 25", "١٢", "1e309",
+];
+
+/** One cell of a cell argument (read by the function itself): numbers and lab texts. */
+export function labCell(fn: RegisteredFunction): fc.Arbitrary<unknown> {
+  return fc.oneof(
+    { weight: 6, arbitrary: fc.constantFrom(...LAB_TEXTS) },
+    { weight: 4, arbitrary: finiteNumber(fn) },
+    { weight: 2, arbitrary: numericText(fn) },
+    { weight: 1, arbitrary: fc.constantFrom(NaN, Infinity, -Infinity) },
+    { weight: 2, arbitrary: fc.constantFrom(...BLANKS) },
+    { weight: 1, arbitrary: fc.boolean() },
+    { weight: 1, arbitrary: fc.constantFrom(...GENERIC_TEXT) },
+    { weight: 1, arbitrary: fc.string({ maxLength: 10 }) },
+    { weight: 1, arbitrary: fc.constant(null).map(upstreamError) },
+    { weight: 1, arbitrary: fc.constantFrom({}, [], new Date(0)) },
+  );
+}
+
 /** One cell of a numeric argument. */
 export function numberCell(fn: RegisteredFunction): fc.Arbitrary<unknown> {
   return fc.oneof(
@@ -385,12 +408,14 @@ function plausibleRange(fn: RegisteredFunction, words: Words, index: number): fc
 }
 
 export function cellFor(fn: RegisteredFunction, words: Words, p: Param, i: number): fc.Arbitrary<unknown> {
+  if (p.kind === "cell") return labCell(fn);
   return p.kind === "number" ? numberCell(fn) : p.kind === "text" ? textCell(fn, words, i) : rangeCell(fn, words, i);
 }
 
 /** A cell likely to be valid for its parameter: a number in range, one of its own words. */
 function plausibleCell(fn: RegisteredFunction, words: Words, p: Param, i: number): fc.Arbitrary<unknown> {
   if (p.kind === "number") return plausibleNumber(fn, i);
+  if (p.kind === "cell") return fc.oneof(plausibleNumber(fn, i), fc.constantFrom(...LAB_TEXTS));
   const own = words.accepted.get(i) ?? words.byParam.get(i) ?? [];
   return own.length ? fc.constantFrom(...own) : wordArb(words, i);
 }
@@ -425,19 +450,27 @@ export function argsFor(fn: RegisteredFunction, words: Words): fc.Arbitrary<unkn
 /** The values an element callback (the core call) may receive, of each parameter's own kind. */
 export function coreValuesFor(fn: RegisteredFunction, words: Words): fc.Arbitrary<unknown[]> {
   const each = fn.spec.params.map((p, i) => {
-    const value: fc.Arbitrary<unknown> =
-      p.kind === "number"
-        ? fc.oneof({ weight: 4, arbitrary: plausibleNumber(fn, i) }, { weight: 1, arbitrary: anyNumber(fn) })
-        : p.kind === "text"
-          ? fc.oneof({ weight: 4, arbitrary: plausibleCell(fn, words, p, i) as fc.Arbitrary<string> }, { weight: 1, arbitrary: wordArb(words, i) })
-          : fc.oneof(
-              { weight: 4, arbitrary: plausibleRange(fn, words, i).map((g) => g.map((r) => r.map(coreCell))) },
-              { weight: 1, arbitrary: rangeArg(fn, words, i).filter((g) => Array.isArray(g) && g.every(Array.isArray)).map((g) => (g as unknown[][]).map((r) => r.map(coreCell))) },
-              { weight: 1, arbitrary: fc.constant([] as unknown[][]) },
-            );
+    const value: fc.Arbitrary<unknown> = coreValueOf(fn, words, p, i);
     return p.optional ? fc.oneof({ weight: 1, arbitrary: fc.constant(undefined) }, { weight: 3, arbitrary: value }) : value;
   });
   return fc.tuple(...each).map((v) => [...v]);
+}
+
+function coreValueOf(fn: RegisteredFunction, words: Words, p: Param, i: number): fc.Arbitrary<unknown> {
+  switch (p.kind) {
+    case "number":
+      return fc.oneof({ weight: 4, arbitrary: plausibleNumber(fn, i) }, { weight: 1, arbitrary: anyNumber(fn) });
+    case "cell":
+      return fc.oneof({ weight: 3, arbitrary: fc.constantFrom(...LAB_TEXTS) }, { weight: 2, arbitrary: anyNumber(fn) }, { weight: 1, arbitrary: fc.string({ maxLength: 10 }) });
+    case "text":
+      return fc.oneof({ weight: 4, arbitrary: plausibleCell(fn, words, p, i) as fc.Arbitrary<string> }, { weight: 1, arbitrary: wordArb(words, i) });
+    case "range":
+      return fc.oneof(
+        { weight: 4, arbitrary: plausibleRange(fn, words, i).map((g) => g.map((r) => r.map(coreCell))) },
+        { weight: 1, arbitrary: rangeArg(fn, words, i).filter((g) => Array.isArray(g) && g.every(Array.isArray)).map((g) => (g as unknown[][]).map((r) => r.map(coreCell))) },
+        { weight: 1, arbitrary: fc.constant([] as unknown[][]) },
+      );
+  }
 }
 
 /** A range cell as the binding hands it to core: number, string, boolean or null. */

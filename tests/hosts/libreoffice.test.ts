@@ -211,7 +211,7 @@ async function madeWorkbook(file: string): Promise<string> {
     ws.getCell("G2").value = { formula: 'SOIL.CONVERT({10;20},"mg/kg",{"kg/ha";"lb/ac"},15,1.3)' } as never;
     ws.getCell("H2").value = { formula: "SOIL.BAND(B2:B5,{500,1000,2500,3000})" } as never; // text spill
     ws.getCell("A8").value = "saturation, %";
-    ws.getCell("B8").value = { formula: 'SOIL.SATURATION({"Ca","Mg","K","Na","acidity"},2000,180,150,30,2)' } as never; // spills a row
+    ws.getCell("B8").value = { formula: 'SOIL.SATURATION({"Ca","Mg","K","Na","acidity"},2000,180,150,30,"mg/kg",2)' } as never; // spills a row
     const notes = wb.addWorksheet("Notes");
     notes.getCell("A1").value = "untouched text, with a comma";
     notes.getCell("B1").value = { formula: "LEN(A1)" } as never;

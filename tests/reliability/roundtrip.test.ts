@@ -36,7 +36,7 @@ async function featureRich(file: string): Promise<void> {
     r.getCell(5).numFmt = "yyyy-mm-dd hh:mm";
   });
   lab.getCell("D2").value = { formula: 'SOIL.CMOL(B2:B4,"Ca")' } as never; // spills D2:D4
-  lab.getCell("G2").value = { formula: 'SOIL.CEC(B2,C2,0,0,,"mg/kg")' } as never;
+  lab.getCell("G2").value = { formula: 'SOIL.CEC(B2,C2,0,0,"mg/kg")' } as never;
   lab.getCell("H2").value = { formula: "SUM(B2:B4)" } as never;
   lab.getCell("H3").value = { formula: 'IF(B3>1000,"high","low")' } as never;
   lab.getCell("F2").value = { richText: [{ text: "bold ", font: { bold: true } }, { text: "and blue", font: { color: { argb: "FF0072B2" } } }] };

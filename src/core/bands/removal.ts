@@ -133,23 +133,28 @@ function yieldTonnesPerHa(cropWord: string, yieldValue: number, unitWord: string
   return convertRate(yieldValue, unit.id, "t/ha");
 }
 
+/** What to give when the yield's unit is missing (core and binding say the same). */
+export const REMOVAL_YIELD_UNIT_NEED = "the unit of the yield: t/ha, kg/ha, lb/ac, ton/ac, g/m2, or bu/ac for crops with a standard bushel weight";
+
 /**
  * Nutrient exported in the harvested product (SOIL.REMOVAL).
  * @param cropWord crop id or alias (see removalCrops())
  * @param yieldValue harvested yield, ≥ 0, on the crop row's basis (moisture)
  * @param nutrientWord N, P, P2O5, K, K2O, S, SO3, SO4, Ca, CaO, Mg or MgO (elemental or oxide as asked)
- * @param yieldUnit t/ha (default), kg/ha, lb/ac, ton/ac, g/m2, or bu/ac (crops with a bushel weight)
+ * @param yieldUnit required: t/ha, kg/ha, lb/ac, ton/ac, g/m2, or bu/ac (crops with a bushel weight)
  * @param rateUnit unit of the result: kg/ha (default), lb/ac, t/ha, ton/ac or g/m2
  * @returns nutrient removed, in rateUnit of the nutrient form asked
  * @throws OUT_OF_RANGE for a negative yield; UNKNOWN_NAME / UNIT_MISMATCH for a bad word or unit;
- *   NO_REFERENCE_DATA for a crop without that nutrient, or bu/ac for a crop without a bushel weight
- * @example removalAmount("corn", 10, "P2O5") //=> 72.5
+ *   NO_REFERENCE_DATA for a crop without that nutrient, or bu/ac for a crop without a bushel weight;
+ *   MISSING_INPUT without a yield unit (a yield in bu/ac or kg/ha read as t/ha is far off)
+ * @example removalAmount("corn", 10, "P2O5", "t/ha") //=> 72.5
  */
-export function removalAmount(cropWord: string, yieldValue: number, nutrientWord: string, yieldUnit?: string, rateUnit?: string): number {
+export function removalAmount(cropWord: string, yieldValue: number, nutrientWord: string, yieldUnit: string | undefined, rateUnit?: string): number {
   check(yieldValue, BOUNDS.nonNegative("yield"));
+  if (yieldUnit === undefined || yieldUnit.trim() === "") throw new SoilError("MISSING_INPUT", `yield_unit is required: ${REMOVAL_YIELD_UNIT_NEED}`);
   const perTonne = removalCoefficient(cropWord, nutrientWord);
   const outUnit = unitOfFamily(rateUnit ?? "kg/ha", ["area_rate"], "rate_unit");
-  const tHa = yieldTonnesPerHa(cropWord, yieldValue, yieldUnit ?? "t/ha");
+  const tHa = yieldTonnesPerHa(cropWord, yieldValue, yieldUnit);
   const kgHa = tHa * perTonne;
   return finite(convertRate(kgHa, "kg/ha", outUnit.id), "the nutrient removal");
 }

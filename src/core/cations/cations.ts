@@ -22,16 +22,23 @@ export type BaseCation = "Ca" | "Mg" | "K" | "Na";
 /** Unit families a lab may report exchangeable cations in. */
 const CATION_FAMILIES = ["mass_fraction", "charge", "per_volume"] as const;
 
-/** Default unit of ca, mg, k, na: mg/kg, as most labs report extractable cations. */
-export const CEC_DEFAULT_UNIT = "mg/kg";
-
 /** The unit words accepted for exchangeable cations, for help and messages. */
 export function cecUnitWords(): string[] {
   return CATION_FAMILIES.flatMap((f) => unitsOf(f));
 }
 
+/** What to give when the cation unit is missing (core and binding say the same). */
+export const CEC_UNIT_NEED = `the unit the lab reported the cations in (${cecUnitWords().join(", ")}); a guess between mg/kg and meq/100g is up to 200 times wrong`;
+
+/**
+ * The unit of exchangeable cations; required, because labs report mg/kg, meq/100 g and mmolc/kg
+ * and a guess between them is up to 200 times wrong.
+ */
 function cationUnit(unitWord: string | undefined): UnitDef {
-  return unitOfFamily(unitWord ?? CEC_DEFAULT_UNIT, CATION_FAMILIES, "unit");
+  if (unitWord === undefined || unitWord.trim() === "") {
+    throw new SoilError("MISSING_INPUT", `unit is required: ${CEC_UNIT_NEED}`);
+  }
+  return unitOfFamily(unitWord, CATION_FAMILIES, "unit");
 }
 
 /**
@@ -42,16 +49,17 @@ function cationUnit(unitWord: string | undefined): UnitDef {
  * bulk density to reach mg/kg.
  * @param value the cation as reported, ≥ 0
  * @param ion Ca, Mg, K or Na
- * @param unitWord mg/kg (default), ppm, g/kg, %, cmol/kg, meq/100g, mmol/kg, mmolc/kg, mg/dm3
+ * @param unitWord required: mg/kg, ppm, g/kg, %, cmol(+)/kg, meq/100g, mmolc/kg or mg/dm3
  * @param bulkDensity dry bulk density, g/cm3 (> 0, ≤ 2.65); needed only for mg/dm3
  * @param argName the argument name shown in messages (default: the ion in lower case)
  * @returns cmol(+)/kg
  * @throws OUT_OF_RANGE for a negative value or a bad bulk density; UNKNOWN_NAME or UNIT_MISMATCH
- *   for a unit that is not a cation unit; MISSING_INPUT for mg/dm3 without bulk density
+ *   for a unit that is not a cation unit (UNIT_MISMATCH also for a bare cmol/kg or mmol/kg);
+ *   MISSING_INPUT without a unit, or for mg/dm3 without bulk density
  * @example cecChargeOf(2000, "Ca", "mg/kg") //=> 9.98054
  * Source: equivalent weights from IUPAC/CIAAW standard atomic weights (see chemistry.ts).
  */
-export function cecChargeOf(value: number, ion: BaseCation, unitWord?: string, bulkDensity?: number, argName?: string): number {
+export function cecChargeOf(value: number, ion: BaseCation, unitWord: string | undefined, bulkDensity?: number, argName?: string): number {
   const unit = cationUnit(unitWord);
   check(value, { name: argName ?? ion.toLowerCase(), unit: unit.id, min: 0 });
   if (unit.family === "charge") return finite(value * unit.toBase, `${ion} in cmol(+)/kg`);
@@ -65,7 +73,7 @@ function acidityOf(acidity: number | undefined): number {
 }
 
 /** The four bases in cmol(+)/kg, in the order Ca, Mg, K, Na. */
-function basesOf(ca: number, mg: number, k: number, na: number, unitWord?: string, bulkDensity?: number): Record<BaseCation, number> {
+function basesOf(ca: number, mg: number, k: number, na: number, unitWord: string | undefined, bulkDensity?: number): Record<BaseCation, number> {
   return {
     Ca: cecChargeOf(ca, "Ca", unitWord, bulkDensity),
     Mg: cecChargeOf(mg, "Mg", unitWord, bulkDensity),
@@ -87,16 +95,16 @@ const sumOf = (b: Record<BaseCation, number>) => b.Ca + b.Mg + b.K + b.Na;
  * @param mg exchangeable Mg in `unitWord`, ≥ 0
  * @param k exchangeable K in `unitWord`, ≥ 0
  * @param na exchangeable Na in `unitWord`, ≥ 0
+ * @param unitWord unit of ca, mg, k, na, required; see cecChargeOf
  * @param acidity exchangeable acidity (H + Al), cmol(+)/kg, ≥ 0; omitted = 0
- * @param unitWord unit of ca, mg, k, na (default mg/kg); see cecChargeOf
  * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
  * @returns CEC, cmol(+)/kg (= meq/100 g)
  * @throws as cecChargeOf; OUT_OF_RANGE for negative acidity
- * @example cecSum(2000, 180, 150, 30, 2, "mg/kg") //=> 13.976
+ * @example cecSum(2000, 180, 150, 30, "mg/kg", 2) //=> 13.976
  * Source: summation method as worked by Clemson University Agricultural Service Laboratory,
  * "CEC calculations" (seen), which uses rounded divisors; here IUPAC equivalent weights.
  */
-export function cecSum(ca: number, mg: number, k: number, na: number, acidity?: number, unitWord?: string, bulkDensity?: number): number {
+export function cecSum(ca: number, mg: number, k: number, na: number, unitWord: string | undefined, acidity?: number, bulkDensity?: number): number {
   const bases = basesOf(ca, mg, k, na, unitWord, bulkDensity);
   return finite(sumOf(bases) + acidityOf(acidity), "CEC");
 }
@@ -131,14 +139,14 @@ export const SATURATION_PARTS: readonly string[] = PARTS.ids;
  * always needs `acidity`.
  * @param partWord Ca, Mg, K, Na, acidity (H+Al) or bases (Ca+Mg+K+Na)
  * @param ca exchangeable Ca in `unitWord`, ≥ 0 (mg, k, na likewise)
+ * @param unitWord unit of ca, mg, k, na, required
  * @param acidity exchangeable acidity (H + Al), cmol(+)/kg, ≥ 0; omitted = 0 (see above)
  * @param cec measured CEC, cmol(+)/kg, > 0; omitted = the summed CEC
- * @param unitWord unit of ca, mg, k, na (default mg/kg)
  * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
  * @returns percent of the CEC (may exceed 100 against a measured CEC)
  * @throws UNKNOWN_NAME for an unknown part; MISSING_INPUT as above; OUT_OF_RANGE for negative
  *   inputs or cec ≤ 0; NOT_APPLICABLE when the summed CEC is 0 (nothing to divide by)
- * @example cecSaturation("bases", 2000, 180, 150, 30, 2) //=> 85.69
+ * @example cecSaturation("bases", 2000, 180, 150, 30, "mg/kg", 2) //=> 85.69
  * Source: Clemson University Agricultural Service Laboratory, "CEC calculations" (seen);
  * saturation above 100 % where gypsum dissolves in the extractant: Exova, "Soil characteristics"
  * (lab method page, seen).
@@ -149,9 +157,9 @@ export function cecSaturation(
   mg: number,
   k: number,
   na: number,
+  unitWord: string | undefined,
   acidity?: number,
   cec?: number,
-  unitWord?: string,
   bulkDensity?: number,
 ): number {
   const part = PARTS.lookup(partWord, "part");
@@ -197,11 +205,11 @@ const BASES = nameTable<RatioBasis>([
  * sufficiency levels of each nutrient are the better-supported basis (Kopittke & Menzies 2007).
  * @param ca exchangeable Ca in `unitWord`, ≥ 0
  * @param mg exchangeable Mg in `unitWord`, > 0 for a defined ratio
- * @param unitWord unit of ca and mg (default mg/kg); any cation unit, both in the same unit
+ * @param unitWord unit of ca and mg, required; any cation unit, both in the same unit
  * @param basisWord charge (default) or mass
  * @returns the Ca:Mg ratio (dimensionless)
  * @throws OUT_OF_RANGE for negative inputs; NOT_APPLICABLE when mg is 0; UNKNOWN_NAME for a
- *   basis or unit not listed
+ *   basis or unit not listed; MISSING_INPUT without a unit
  * @example cecCaMgRatio(2000, 180, "mg/kg", "charge") //=> 6.738
  * Source: charge basis as used by Crop File 1.04.132 "What is base saturation" ("ratios are
  * calculated on charge equivalent basis", seen); critique: Kopittke P.M. & Menzies N.W. (2007)
@@ -209,7 +217,7 @@ const BASES = nameTable<RatioBasis>([
  * Am. J. 71:259–265, doi:10.2136/sssaj2006.0186 (abstract seen at UQ eSpace; conclusion quoted
  * in SARE, Building Soils for Better Crops, 3rd ed., seen).
  */
-export function cecCaMgRatio(ca: number, mg: number, unitWord?: string, basisWord?: string): number {
+export function cecCaMgRatio(ca: number, mg: number, unitWord: string | undefined, basisWord?: string): number {
   const unit = cationUnit(unitWord);
   const basis = BASES.lookup(basisWord ?? "charge", "basis");
   check(ca, { name: "ca", unit: unit.id, min: 0 });
@@ -227,15 +235,15 @@ export function cecCaMgRatio(ca: number, mg: number, unitWord?: string, basisWor
  * Not capped: Na above the CEC (soluble Na counted as exchangeable) gives more than 100 %.
  * @param na exchangeable Na in `unitWord`, ≥ 0
  * @param cec CEC, cmol(+)/kg, > 0 (whatever unit na is in)
- * @param unitWord unit of na (default mg/kg)
+ * @param unitWord unit of na, required
  * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
  * @returns ESP, %
  * @throws as cecChargeOf; OUT_OF_RANGE for cec ≤ 0
- * @example cecEsp(2, 20, "cmol/kg") //=> 10
+ * @example cecEsp(2, 20, "cmol(+)/kg") //=> 10
  * Source: U.S. Salinity Laboratory Staff (1954) USDA Agriculture Handbook 60 (Richards, ed.),
  * definition of ESP (from memory); same definition on Exova, "Soil characteristics" (seen).
  */
-export function cecEsp(na: number, cec: number, unitWord?: string, bulkDensity?: number): number {
+export function cecEsp(na: number, cec: number, unitWord: string | undefined, bulkDensity?: number): number {
   const naC = cecChargeOf(na, "Na", unitWord, bulkDensity, "na");
   check(cec, BOUNDS.positive("cec", "cmol(+)/kg"));
   return finite((100 * naC) / cec, "ESP");

@@ -22,11 +22,18 @@ const AMBIGUOUS = new Set(sarUnits.ambiguous.map(normaliseWord));
 /** Unit words accepted by cecSar. */
 export const SAR_UNITS: readonly string[] = UNITS.ids;
 
-/** Default concentration unit of SOIL.SAR. */
-export const SAR_DEFAULT_UNIT = "mmolc/L";
+/** What to give when SAR's unit is missing, for the core and the binding's message alike. */
+export const SAR_UNIT_NEED = `the unit of na, ca and mg: ${listWords(SAR_UNITS)} (mmolc/L = meq/L); mg/L read as meq/L gives a SAR several times wrong`;
 
+/**
+ * The basis of the concentrations. The unit is required: mg/L read as meq/L (or the reverse)
+ * gives a plausible SAR that is several times wrong.
+ */
 function sarBasis(unitWord: string | undefined): SarBasis {
-  const word = unitWord ?? SAR_DEFAULT_UNIT;
+  if (unitWord === undefined || unitWord.trim() === "") {
+    throw new SoilError("MISSING_INPUT", `unit is required: ${SAR_UNIT_NEED}`);
+  }
+  const word = unitWord;
   if (AMBIGUOUS.has(normaliseWord(word))) {
     throw new SoilError(
       "UNIT_MISMATCH",
@@ -46,16 +53,16 @@ export function sarMgPerMmolc(ionWord: "Na" | "Ca" | "Mg"): number {
  * @param na sodium in the water or extract, in `unitWord`, ≥ 0
  * @param ca calcium, in `unitWord`, ≥ 0
  * @param mg magnesium, in `unitWord`, ≥ 0; ca + mg must be > 0
- * @param unitWord mmolc/L (= meq/L, default) or mg/L; mg/L is divided by molar mass ÷ charge
+ * @param unitWord required: mmolc/L (= meq/L) or mg/L; mg/L is divided by molar mass ÷ charge
  * @returns SAR, (mmolc/L)^½
  * @throws OUT_OF_RANGE for a negative concentration; NOT_APPLICABLE when ca and mg are both 0;
- *   UNKNOWN_NAME for an unknown unit; UNIT_MISMATCH for a bare mmol/L
+ *   UNKNOWN_NAME for an unknown unit; UNIT_MISMATCH for a bare mmol/L; MISSING_INPUT without a unit
  * @example cecSar(15, 6, 4, "mmolc/L") //=> 6.7082
  * Source: USDA Handbook 60 (1954), see the file header.
  */
-export function cecSar(na: number, ca: number, mg: number, unitWord?: string): number {
+export function cecSar(na: number, ca: number, mg: number, unitWord: string | undefined): number {
   const basis = sarBasis(unitWord);
-  const shown = unitWord ?? SAR_DEFAULT_UNIT;
+  const shown = unitWord as string;
   check(na, { name: "na", unit: shown, min: 0 });
   check(ca, { name: "ca", unit: shown, min: 0 });
   check(mg, { name: "mg", unit: shown, min: 0 });

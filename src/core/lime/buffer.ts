@@ -12,7 +12,7 @@
  */
 import { SoilError } from "../errors";
 import {
-  LIME_DEFAULT_CALIBRATION,
+  LIME_CALIBRATION_NEED,
   LimeCalibration,
   LimeMehlichCalibration,
   LimeTableCalibration,
@@ -24,7 +24,7 @@ import { convertRate } from "../units";
 import { BOUNDS, check, finite } from "../validate";
 
 export interface LimeBufferOptions {
-  /** A built-in name, or a range holding a table (a 1×1 range holding text is a name). Default SMP. */
+  /** A built-in name, or a range holding a table (a 1×1 range holding text is a name). Required. */
   readonly calibration?: string | LimeRange;
   /** Current soil pH; needed by MEHLICH; with any calibration a target ≤ soil pH gives 0. */
   readonly soilPh?: number;
@@ -88,12 +88,16 @@ export function limeMehlichRate(bufferPh: number, targetPh: number, soilPh: numb
 
 /** What the calibration argument names: a built-in, or a table of the user's. */
 function resolve(calibration: string | LimeRange | undefined): LimeCalibration | { kind: "range"; range: LimeRange } {
-  if (calibration === undefined) return limeCalibration(LIME_DEFAULT_CALIBRATION);
-  if (typeof calibration === "string") return limeCalibration(calibration.trim() === "" ? LIME_DEFAULT_CALIBRATION : calibration);
+  const none = () => new SoilError("MISSING_INPUT", `calibration is required: ${LIME_CALIBRATION_NEED}`);
+  if (calibration === undefined) throw none();
+  if (typeof calibration === "string") {
+    if (calibration.trim() === "") throw none();
+    return limeCalibration(calibration);
+  }
   const single = calibration.length === 1 && (calibration[0] ?? []).length === 1;
   if (single) {
     const cell = calibration[0]![0];
-    if (cell === null || cell === undefined || (typeof cell === "string" && cell.trim() === "")) return limeCalibration(LIME_DEFAULT_CALIBRATION);
+    if (cell === null || cell === undefined || (typeof cell === "string" && cell.trim() === "")) throw none();
     if (typeof cell === "string") return limeCalibration(cell);
     throw new SoilError(
       "SHAPE_MISMATCH",
@@ -162,10 +166,11 @@ function fromRange(range: LimeRange, bufferPh: number, targetPh: number, opts: L
  * below the soil pH (when soil_ph is given).
  * @param bufferPh soil-buffer pH, within the calibration's range (SIKORA-OR2025 4.8–6.9; MEHLICH ≤ 6.6)
  * @param targetPh target soil pH, within the calibration's range (SIKORA-OR2025 5.6–7.2; MEHLICH ≤ 6.6)
- * @param opts calibration (default SMP), soilPh, depthCm, unit (see LimeBufferOptions)
+ * @param opts calibration (required), soilPh, depthCm, unit (see LimeBufferOptions)
  * @returns lime rate: pure CaCO3 equivalent in `unit` for built-in tables; NCDA&CS lime for MEHLICH;
  *   the range's own unit for a range
- * @throws UNKNOWN_NAME for an unknown calibration (lists the built-ins); NO_REFERENCE_DATA for SMP
+ * @throws MISSING_INPUT without a calibration (there is no default); UNKNOWN_NAME for an unknown
+ *   calibration (lists the built-ins); NO_REFERENCE_DATA for SMP
  *   (not shipped); OUT_OF_RANGE outside the table (message gives its range); MISSING_INPUT for
  *   MEHLICH without soil_ph; NOT_APPLICABLE for depth_cm or unit with a range, or depth_cm with MEHLICH
  * @example limeBuffer(6.0, 5.6, { calibration: "SIKORA-OR2025", unit: "ton/ac" }) //=> 1.7

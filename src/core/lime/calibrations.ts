@@ -102,11 +102,15 @@ const BUILT_INS: readonly LimeCalibration[] = [tableCalibration(smp as TableFile
 
 const NAMES = nameTable(BUILT_INS.map((c) => ({ id: c.id, value: c })));
 
-/** Names of the built-in calibrations, the default (SMP) first. */
+/** Names of the built-in calibrations, in file order (SMP, not shipped, first). */
 export const LIME_CALIBRATION_IDS: readonly string[] = NAMES.ids;
 
-/** The calibration used when none is named. */
-export const LIME_DEFAULT_CALIBRATION = "SMP";
+/**
+ * What to give when no calibration is named. There is no default: a buffer reading means nothing
+ * without the calibration the lab uses, and the one long-standing default (SMP) is not shipped.
+ */
+export const LIME_CALIBRATION_NEED =
+  "the calibration your lab uses for this buffer: SIKORA-OR2025, MEHLICH (needs soil_ph), or a range holding your lab's table (top row target pH, left column buffer pH); SMP is not shipped yet";
 
 /**
  * A built-in calibration by name (case-insensitive).
@@ -155,7 +159,7 @@ export interface LimeCalibrationInfo {
 
 /**
  * The built-in calibrations with their sources (for `soilcell list`).
- * @returns one entry per built-in, default first (no @example: the result is a list)
+ * @returns one entry per built-in, in file order (no @example: the result is a list)
  */
 export function limeCalibrationTables(): LimeCalibrationInfo[] {
   return BUILT_INS.map((c) => ({

@@ -10,7 +10,7 @@ import methods from "../../data/lime/methods.json";
 import { SoilError } from "../errors";
 import { limeCaco3MgPerKg, limeDepth, limeLayerKgPerHa, limeRateIn } from "./rate";
 import { convertUnit } from "../units";
-import { BOUNDS, check, finite } from "../validate";
+import { BOUNDS, PERCENT, check, finite } from "../validate";
 
 /** Soil layer and result unit shared by the methods. */
 export interface LimeLayerOptions {
@@ -56,7 +56,8 @@ export function limeExchAl(exchAl: number, opts: LimeLayerOptions & { readonly f
  * @param al exchangeable Al (1 N KCl), cmol(+)/kg (= meq/100 g), ≥ 0
  * @param ca exchangeable Ca (1 N KCl), cmol(+)/kg, ≥ 0
  * @param mg exchangeable Mg (1 N KCl), cmol(+)/kg, ≥ 0
- * @param targetAlSat RAS, the Al saturation of the effective CEC the crop tolerates, 0–100 %
+ * @param targetAlSat RAS, the Al saturation of the effective CEC the crop tolerates: 0, or 1–100 %
+ *   (between 0 and 1 is refused as a fraction; PERCENT.targetAlSat)
  * @param factor optional factor (> 0); when given it is used as is
  * @returns cmol(+)/kg (= meq/100 g) of CaCO3 to apply, ≥ 0
  * @example limeAlSatCmol(2, 1, 0.5, 10) //=> 3.3
@@ -66,7 +67,7 @@ export function limeAlSatCmol(al: number, ca: number, mg: number, targetAlSat: n
   check(al, BOUNDS.nonNegative("al", CMOL));
   check(ca, BOUNDS.nonNegative("ca", CMOL));
   check(mg, BOUNDS.nonNegative("mg", CMOL));
-  check(targetAlSat, BOUNDS.percent("target_al_sat"));
+  check(targetAlSat, PERCENT.targetAlSat);
   const c = methods.cochrane;
   const excess = al - (targetAlSat * (al + ca + mg)) / 100;
   if (excess <= 0) return 0;
@@ -82,7 +83,7 @@ export function limeAlSatCmol(al: number, ca: number, mg: number, targetAlSat: n
  * @param al exchangeable Al, cmol(+)/kg, ≥ 0
  * @param ca exchangeable Ca, cmol(+)/kg, ≥ 0
  * @param mg exchangeable Mg, cmol(+)/kg, ≥ 0
- * @param opts targetAlSat (required, 0–100 %), factor, depthCm (default 20), bulkDensity
+ * @param opts targetAlSat (required: 0, or 1–100 %), factor, depthCm (default 20), bulkDensity
  *   (required), unit (default t/ha)
  * @returns pure CaCO3 equivalent in `unit`
  * @throws MISSING_INPUT without target_al_sat or bulk_density; OUT_OF_RANGE for negative cations,
@@ -114,19 +115,21 @@ export function limeAlSat(
  * per cmolc/dm3. 0 when V2 ≤ V1.
  * @param cec CEC at pH 7, cmol(+)/dm3 (= cmolc/dm3, as Brazilian labs report it), ≥ 0; with
  *   bulkDensity given it is read as cmol(+)/kg and multiplied by the density
- * @param baseSat current base saturation V1, 0–100 %
- * @param targetBaseSat target base saturation V2, 0–100 %
+ * @param baseSat current base saturation V1: 0, or above 1 to 100 % (PERCENT.baseSat: 0.5 is refused
+ *   as a fraction)
+ * @param targetBaseSat target base saturation V2, 20–100 % (PERCENT.targetBaseSat)
  * @param opts depthCm (default 20), bulkDensity (only for a CEC per kg), unit (default t/ha)
  * @returns pure CaCO3 equivalent in `unit`
- * @throws OUT_OF_RANGE for a negative CEC, a percentage outside 0–100 or a bad depth/density
+ * @throws OUT_OF_RANGE for a negative CEC, a percentage outside its range (with a hint when it
+ *   looks like a fraction) or a bad depth/density
  * @example limeBaseSat(5.46, 8.42, 60) //=> 2.8187
  * Source: van Raij et al. (1997) IAC Boletim Técnico 100 (attribution from memory); formula and
  * this worked example (T 5.46, V 8.42 → 60 %) seen in a Brazilian agronomy page (agronomiacomgismonti).
  */
 export function limeBaseSat(cec: number, baseSat: number, targetBaseSat: number, opts: LimeLayerOptions = {}): number {
   check(cec, BOUNDS.nonNegative("cec", opts.bulkDensity === undefined ? "cmol(+)/dm3" : CMOL));
-  check(baseSat, BOUNDS.percent("base_sat"));
-  check(targetBaseSat, BOUNDS.percent("target_base_sat"));
+  check(baseSat, PERCENT.baseSat);
+  check(targetBaseSat, PERCENT.targetBaseSat);
   const perVolume = opts.bulkDensity === undefined ? cec : cec * check(opts.bulkDensity, BOUNDS.bulkDensity());
   const cmolPerDm3 = (perVolume * Math.max(0, targetBaseSat - baseSat)) / 100;
   const depth = limeDepth(opts.depthCm, methods.base_saturation.depth_cm);

@@ -14,26 +14,29 @@
 import fineness from "../../data/lime/fineness-ohio.json";
 import { SoilError } from "../errors";
 import { LimeRange } from "./table";
-import { BOUNDS, check, finite } from "../validate";
+import { BOUNDS, PERCENT, check, finite, percentListLooksFractional } from "../validate";
 
 /**
  * Rate of a liming product to spread for a pure-CaCO3 rate:
  * caco3_rate / (CCE/100 × fineness/100) / (1 − moisture/100), in the same unit as caco3_rate.
  * @param caco3Rate lime requirement as pure CaCO3 equivalent, any rate unit, ≥ 0
- * @param ccePct calcium carbonate equivalent of the product (dry), % (> 0, ≤ 250: MgO is about 248)
- * @param finenessPct fineness efficiency, % (> 0, ≤ 100); default 100 (already in an ECCE)
- * @param moisturePct water content of the product as received, % of its wet mass (0 to < 100); default 0
+ * @param ccePct calcium carbonate equivalent of the product (dry), 5–250 % (MgO is about 248;
+ *   PERCENT.cce, so 0.95 is refused as a fraction)
+ * @param finenessPct fineness efficiency, above 1 to 100 %; default 100 (already in an ECCE)
+ * @param moisturePct water content of the product as received, % of its wet mass: 0, or 1 to
+ *   below 100 (between 0 and 1 is refused as a fraction); default 0
  * @returns product rate as received, in caco3_rate's unit
- * @throws OUT_OF_RANGE for any argument outside its range
+ * @throws OUT_OF_RANGE for any argument outside its range, with a hint when a percent looks like
+ *   a fraction ("0.95 looks like a fraction; enter 95 for 95 %")
  * @example limeProductRate(5, 70) //=> 7.1429
  * Source: Penn State AASL home-garden report notes: 5 lb/100 ft2 at CCE 100 → 7 lb of a CCE 70
  * product (the source rounds 7.14; seen).
  */
 export function limeProductRate(caco3Rate: number, ccePct: number, finenessPct = 100, moisturePct = 0): number {
   check(caco3Rate, BOUNDS.nonNegative("caco3_rate"));
-  check(ccePct, { name: "cce_pct", unit: "%", min: 0, minExclusive: true, max: 250 });
-  check(finenessPct, { name: "fineness_pct", unit: "%", min: 0, minExclusive: true, max: 100 });
-  check(moisturePct, { name: "moisture_pct", unit: "%", min: 0, max: 100, maxExclusive: true });
+  check(ccePct, PERCENT.cce);
+  check(finenessPct, PERCENT.fineness);
+  check(moisturePct, PERCENT.moisture);
   const dryEffective = (ccePct / 100) * (finenessPct / 100);
   return finite(caco3Rate / dryEffective / (1 - moisturePct / 100), "the product rate");
 }
@@ -51,7 +54,8 @@ const SUM_TOLERANCE = fineness.fraction_sum_tolerance_pct;
  * @param efficiencies % effectiveness of each class, each 0–100, one per fraction
  * @returns fineness efficiency, %
  * @throws SHAPE_MISMATCH when the counts differ (or not four fractions without efficiencies);
- *   OUT_OF_RANGE for a value outside 0–100 or fractions not adding up to 100 ± 1 %
+ *   OUT_OF_RANGE for a value outside 0–100, fractions not adding up to 100 ± 1 % (with a hint when
+ *   they look like fractions of 1), or efficiencies all at most 1 (fractions of 1, not percentages)
  * @example limeFineness([78.8, 10, 2.4, 7.8]) //=> 85.28
  * Source: BC Ministry of Agriculture Soil Factsheet 637.200-2, limestone A (seen).
  */
@@ -67,9 +71,16 @@ export function limeFineness(fractions: readonly number[], efficiencies: readonl
   if (fractions.length === 0) throw new SoilError("MISSING_INPUT", "fractions is empty");
   fractions.forEach((f, i) => check(f, { name: `fraction ${i + 1}`, unit: "%", min: 0, max: 100 }));
   efficiencies.forEach((e, i) => check(e, { name: `efficiency ${i + 1}`, unit: "%", min: 0, max: 100 }));
+  if (percentListLooksFractional(efficiencies)) {
+    throw new SoilError(
+      "OUT_OF_RANGE",
+      `efficiencies are all at most 1 (${efficiencies.join(", ")}): they look like fractions; enter percentages (e.g. 100, 60, 20, 0)`,
+    );
+  }
   const sum = fractions.reduce((a, b) => a + b, 0);
   if (Math.abs(sum - 100) > SUM_TOLERANCE + 1e-9) {
-    throw new SoilError("OUT_OF_RANGE", `fractions add up to ${+sum.toFixed(6)} %; they must add up to 100 ± ${SUM_TOLERANCE} %`);
+    const hint = percentListLooksFractional(fractions) ? "; they look like fractions: enter percentages (0.788 is 78.8 %)" : "";
+    throw new SoilError("OUT_OF_RANGE", `fractions add up to ${+sum.toFixed(6)} %; they must add up to 100 ± ${SUM_TOLERANCE} %${hint}`);
   }
   return finite(fractions.reduce((acc, f, i) => acc + (f * efficiencies[i]!) / 100, 0), "the fineness efficiency");
 }

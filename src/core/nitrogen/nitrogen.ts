@@ -10,7 +10,7 @@ import perTonne from "../../data/nitrogen/per-tonne.json";
 import checks from "../../data/nitrogen/checks.json";
 import { SoilError, listWords } from "../errors";
 import { nameTable } from "../names";
-import { check, finite, Bound } from "../validate";
+import { check, finite, Bound, PERCENT } from "../validate";
 import { convertUnit } from "../units";
 
 const TISSUE = checks.tissue;
@@ -19,8 +19,9 @@ const TISSUE = checks.tissue;
 export const NFIX_BOUNDS = {
   shootDm: { name: "shoot_dm", unit: "t/ha", min: 0, max: TISSUE.max_shoot_dm_t_ha.value },
   grainYield: { name: "grain_yield", unit: "t/ha", min: 0, max: TISSUE.max_grain_yield_t_ha.value },
-  nPct: (name: string): Bound => ({ name, unit: "%", min: 0, max: TISSUE.max_n_pct.value }),
-  ndfaPct: { name: "ndfa_pct", unit: "%", min: 0, max: 100 },
+  /** Percent ranges are declared once in validate.ts (a fraction such as 0.025 for 2.5 % is refused). */
+  nPct: PERCENT.plantN,
+  ndfaPct: PERCENT.ndfa,
   rootFactor: { name: "root_factor", min: 1, max: TISSUE.max_root_factor.value },
   /** 1 t of tissue at the largest N % holds 10 × that many kg N: no rule can fix more per tonne. */
   kgNPerT: { name: "kg_n_per_t", unit: "kg N/t", min: 0, max: 10 * TISSUE.max_n_pct.value },
@@ -158,9 +159,11 @@ export function nfixKgPerTonne(value: string | number | undefined): number {
  * factor. The shoot-based estimate as used in the linear models reviewed by Unkovich, Baldock &
  * Peoples (2010) Plant and Soil 329:75–89 (the form is standard; their factors are not used).
  * @param shootDm shoot dry matter at peak biomass, t/ha, 0–60
- * @param shootNPct shoot N, % of dry matter, 0–16 (a larger value is probably crude protein)
- * @param ndfaPct % of legume N derived from the atmosphere, 0–100 (SOIL.NDFA results slightly
- *   outside 0–100 must be decided by the user: nothing is clamped)
+ * @param shootNPct shoot N, % of dry matter: 0, or 0.2–16 (a larger value is probably crude
+ *   protein; a smaller one a fraction: 0.025 is refused, enter 2.5)
+ * @param ndfaPct % of legume N derived from the atmosphere: 0, or above 1 to 100 (0 < v ≤ 1 is
+ *   refused as a fraction; SOIL.NDFA results slightly outside 0–100 must be decided by the user:
+ *   nothing is clamped)
  * @param rootFactor see nfixRootFactor; required
  * @returns kg N/ha fixed (whole plant, or shoots only with "shoot")
  * @throws OUT_OF_RANGE for inputs outside their bounds; MISSING_INPUT without rootFactor
@@ -169,7 +172,9 @@ export function nfixKgPerTonne(value: string | number | undefined): number {
 export function nfixFixedN(shootDm: number, shootNPct: number, ndfaPct: number, rootFactor: string | number | undefined): number {
   shootDmOk(shootDm);
   nPctOk(shootNPct, "shoot_n_pct");
-  checkHinted(ndfaPct, NFIX_BOUNDS.ndfaPct, () => "a %Ndfa slightly outside 0–100 from measurement error must be set to 0 or 100 by you; it is not clamped");
+  checkHinted(ndfaPct, NFIX_BOUNDS.ndfaPct, (v) =>
+    v < 0 || v > 100 ? "a %Ndfa slightly outside 0–100 from measurement error must be set to 0 or 100 by you; it is not clamped" : undefined,
+  );
   const factor = nfixRootFactor(rootFactor);
   const shootN = convertUnit(shootDm, "t/ha", "kg/ha") * (shootNPct / 100);
   return finite(shootN * (ndfaPct / 100) * factor, "fixed N");
@@ -201,7 +206,8 @@ export function nfixPerTonne(shootDm: number, kgNPerT: string | number | undefin
  * (the partial N balance of e.g. Unkovich, Pate, Sanford & Armstrong 1994, Aust. J. Agric. Res.).
  * @param fixedN N2 fixed, kg N/ha, ≥ 0 (from nfixFixedN or a measurement)
  * @param grainYield grain yield, t/ha, 0–30, on the same moisture basis as grainNPct
- * @param grainNPct grain N, %, 0–16 (a larger value is probably crude protein)
+ * @param grainNPct grain N, %: 0 (no grain), or 0.2–16 (a larger value is probably crude protein, a
+ *   smaller one a fraction)
  * @returns kg N/ha; negative when grain N exceeds fixed N
  * @throws OUT_OF_RANGE for inputs outside their bounds
  * @example nfixNBalance(164, 2, 5) //=> 64

@@ -13,10 +13,10 @@ const mid = (c: number | readonly number[]) => (typeof c === "number" ? c : ((c[
 describe("coefficients as their sources print them", () => {
   // Source: OMAFA Field Crop News (2025) 'Crop Removal Values', Table 1 (seen), kg/t at marketing moisture.
   it("corn grain: P2O5 6.6-7.9 kg/t, so 10 t/ha removes 72.5 kg P2O5/ha (midpoint, derived)", () => {
-    expect(removalAmount("corn", 10, "P2O5")).toBeCloseTo(72.5, 9);
+    expect(removalAmount("corn", 10, "P2O5", "t/ha")).toBeCloseTo(72.5, 9);
   });
   it("soybean: N 62.3-66.7 kg/t, so 3.5 t/ha removes 225.75 kg N/ha (midpoint, derived)", () => {
-    expect(removalAmount("soybean", 3.5, "N")).toBeCloseTo(3.5 * 64.5, 9);
+    expect(removalAmount("soybean", 3.5, "N", "t/ha")).toBeCloseTo(3.5 * 64.5, 9);
   });
   it("dry beans print single values: N 41.6, P2O5 13.8, K2O 13.8 kg/t", () => {
     expect(removalCoefficient("dry bean", "N")).toBeCloseTo(41.6, 12);
@@ -49,8 +49,8 @@ describe("coefficients as their sources print them", () => {
   // Source: Agriculture Victoria (2017) 'Replacing nutrients removed from cutting hay', Table 1 (seen),
   // per t of dry matter: lucerne/clover hay P 2.5-3.5, K 20-30, S 3.5 kg.
   it("lucerne hay: 8.9 t DM removes 222.5 kg K/ha at the range midpoint 25 kg/t (derived)", () => {
-    expect(removalAmount("lucerne hay", 8.9, "K")).toBeCloseTo(222.5, 9);
-    expect(removalAmount("alfalfa", 8.9, "S")).toBeCloseTo(8.9 * 3.5, 9);
+    expect(removalAmount("lucerne hay", 8.9, "K", "t/ha")).toBeCloseTo(222.5, 9);
+    expect(removalAmount("alfalfa", 8.9, "S", "t/ha")).toBeCloseTo(8.9 * 3.5, 9);
   });
   it("Agriculture Victoria's worked example: 10 500 kg of hay at 85 % DM is 8.9 t DM (arithmetic check)", () => {
     expect((10500 * 0.85) / 1000).toBeCloseTo(8.925, 9);
@@ -59,15 +59,15 @@ describe("coefficients as their sources print them", () => {
 
 describe("elemental or oxide, kg/ha or lb/ac, as asked", () => {
   it("P from P2O5 through the atomic-weight factor (P2O5 → P 0.4364, OXI-02)", () => {
-    expect(removalAmount("corn", 10, "P")).toBeCloseTo(72.5 * formFactor("P2O5", "P"), 9);
-    expect(removalAmount("corn", 10, "P")).toBeCloseTo(31.64, 2);
+    expect(removalAmount("corn", 10, "P", "t/ha")).toBeCloseTo(72.5 * formFactor("P2O5", "P"), 9);
+    expect(removalAmount("corn", 10, "P", "t/ha")).toBeCloseTo(31.64, 2);
   });
   it("K2O from elemental K (K → K2O 1.2046, OXI-03)", () => {
-    expect(removalAmount("lucerne hay", 1, "K2O")).toBeCloseTo(25 * 1.2046, 3);
+    expect(removalAmount("lucerne hay", 1, "K2O", "t/ha")).toBeCloseTo(25 * 1.2046, 3);
   });
   it("phosphate and potash are the trade words for P2O5 and K2O (RB209 usage)", () => {
-    expect(removalAmount("peas", 4, "phosphate")).toBeCloseTo(36, 9);
-    expect(removalAmount("peas", 4, "potash")).toBeCloseTo(40, 9);
+    expect(removalAmount("peas", 4, "phosphate", "t/ha")).toBeCloseTo(36, 9);
+    expect(removalAmount("peas", 4, "potash", "t/ha")).toBeCloseTo(40, 9);
   });
   it("kg/ha to lb/ac with the exact factor (UNIT-08)", () => {
     expect(removalAmount("corn", 10, "P2O5", "t/ha", "lb/ac")).toBeCloseTo(72.5 * 0.8921791, 5);
@@ -112,23 +112,33 @@ describe("bushels (USDA standard weights per bushel)", () => {
 
 describe("refusals", () => {
   it("unknown crop lists the crops", () => {
-    expect(code(() => removalAmount("quinoa", 2, "N"))).toBe("UNKNOWN_NAME");
-    expect(() => removalAmount("quinoa", 2, "N")).toThrow(/corn, soybean, wheat/);
+    expect(code(() => removalAmount("quinoa", 2, "N", "t/ha"))).toBe("UNKNOWN_NAME");
+    expect(() => removalAmount("quinoa", 2, "N", "t/ha")).toThrow(/corn, soybean, wheat/);
   });
   it("a nutrient the source does not give for that crop is #N/A, listing those it gives", () => {
-    expect(code(() => removalAmount("peas", 4, "N"))).toBe("NO_REFERENCE_DATA");
-    expect(() => removalAmount("peas", 4, "N")).toThrow(/P2O5, K2O or MgO/);
-    expect(code(() => removalAmount("grass hay", 4, "Mg"))).toBe("NO_REFERENCE_DATA");
+    expect(code(() => removalAmount("peas", 4, "N", "t/ha"))).toBe("NO_REFERENCE_DATA");
+    expect(() => removalAmount("peas", 4, "N", "t/ha")).toThrow(/P2O5, K2O or MgO/);
+    expect(code(() => removalAmount("grass hay", 4, "Mg", "t/ha"))).toBe("NO_REFERENCE_DATA");
   });
   it("unknown nutrient word, unknown or wrong-family units", () => {
-    expect(code(() => removalAmount("corn", 10, "phosphoric acid"))).toBe("UNKNOWN_NAME");
+    expect(code(() => removalAmount("corn", 10, "phosphoric acid", "t/ha"))).toBe("UNKNOWN_NAME");
     expect(code(() => removalAmount("corn", 10, "P", "bushels"))).toBe("UNKNOWN_NAME");
     expect(code(() => removalAmount("corn", 10, "P", "t/ha", "mg/kg"))).toBe("UNIT_MISMATCH");
     expect(code(() => removalAmount("corn", 10, "P", "mg/kg"))).toBe("UNIT_MISMATCH");
   });
+  it("the yield unit is required, no default t/ha (issue 22 point 3): omitted or blank is MISSING_INPUT", () => {
+    // invented: 180 bu/ac of corn typed without a unit would have been read as 180 t/ha.
+    expect(code(() => removalAmount("corn", 180, "K2O", undefined))).toBe("MISSING_INPUT");
+    expect(code(() => removalAmount("corn", 180, "K2O", " "))).toBe("MISSING_INPUT");
+    expect(() => removalAmount("corn", 180, "K2O", undefined)).toThrow(/^yield_unit is required: .*bu\/ac/);
+  });
+  it("Mg/ha is a yield unit (tonnes); mg/ha is refused (issue 22 point 5)", () => {
+    expect(removalAmount("corn", 10, "P2O5", "Mg/ha")).toBeCloseTo(72.5, 9);
+    expect(code(() => removalAmount("corn", 10, "P2O5", "mg/ha"))).toBe("UNIT_MISMATCH");
+  });
   it("a negative yield is refused; a zero yield removes nothing", () => {
-    expect(code(() => removalAmount("corn", -1, "P"))).toBe("OUT_OF_RANGE");
-    expect(removalAmount("corn", 0, "P")).toBe(0);
+    expect(code(() => removalAmount("corn", -1, "P", "t/ha"))).toBe("OUT_OF_RANGE");
+    expect(removalAmount("corn", 0, "P", "t/ha")).toBe(0);
   });
 });
 
@@ -157,15 +167,15 @@ describe("data integrity and properties", () => {
     fc.assert(
       fc.property(fc.constantFrom(...removalCrops()), fc.double({ min: 0, max: 100, noNaN: true }), (crop, y) => {
         const n = Object.keys(REMOVAL_ROWS.find((r) => r.id === crop)!.kg_per_t)[0]!;
-        return Math.abs(removalAmount(crop, y, n) - y * removalAmount(crop, 1, n)) <= 1e-9 * Math.max(1, y);
+        return Math.abs(removalAmount(crop, y, n, "t/ha") - y * removalAmount(crop, 1, n, "t/ha")) <= 1e-9 * Math.max(1, y);
       }),
     );
   });
   it("oxide and element round trip: K2O = K × 1.2046, P2O5 = P × 2.2913 (invented yields)", () => {
     fc.assert(
       fc.property(fc.double({ min: 0, max: 20, noNaN: true }), (y) => {
-        const k = removalAmount("soybean", y, "K");
-        const k2o = removalAmount("soybean", y, "K2O");
+        const k = removalAmount("soybean", y, "K", "t/ha");
+        const k2o = removalAmount("soybean", y, "K2O", "t/ha");
         return Math.abs(k2o - k * formFactor("K", "K2O")) <= 1e-9 * Math.max(1, k2o);
       }),
     );

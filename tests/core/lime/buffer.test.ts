@@ -138,11 +138,11 @@ describe("SIKORA-OR2025: Moore (2025) OSU Extension EM 9585 Table 1 (seen)", () 
 });
 
 describe("SMP: the Shoemaker, McLean & Pratt (1961) table is not shipped", () => {
-  it("the default calibration is SMP and answers NO_REFERENCE_DATA (#N/A) saying why and what to use", () => {
+  it("SMP named answers NO_REFERENCE_DATA (#N/A) saying why and what to use", () => {
     expect(LIME_CALIBRATION_IDS).toEqual(["SMP", "SIKORA-OR2025", "MEHLICH"]);
-    expect(codeOf(() => limeBuffer(6.0, 6.5))).toBe("NO_REFERENCE_DATA");
+    expect(codeOf(() => limeBuffer(6.0, 6.5, { calibration: "SMP" }))).toBe("NO_REFERENCE_DATA");
     expect(codeOf(() => limeBuffer(6.0, 6.5, { calibration: "smp" }))).toBe("NO_REFERENCE_DATA");
-    const msg = messageOf(() => limeBuffer(6.0, 6.5));
+    const msg = messageOf(() => limeBuffer(6.0, 6.5, { calibration: "SMP" }));
     expect(msg).toMatch(/SMP table is not shipped/);
     expect(msg).toMatch(/Pass your laboratory's SMP calibration as a range/);
   });
@@ -161,10 +161,20 @@ describe("calibration names", () => {
       'unknown calibration "WOODRUFF"; use SMP, SIKORA-OR2025 or MEHLICH',
     );
   });
-  it("names are case-insensitive; a 1×1 range holding text is a name; a 1×1 blank is the default", () => {
+  it("names are case-insensitive; a 1×1 range holding text is a name", () => {
     expect(limeBuffer(6.0, 5.6, { calibration: "sikora-or2025", unit: "ton/ac" })).toBeCloseTo(1.7, 10);
     expect(limeBuffer(6.0, 5.6, { calibration: [["Sikora-OR2025"]], unit: "ton/ac" })).toBeCloseTo(1.7, 10);
-    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [[null]] }))).toBe("NO_REFERENCE_DATA");
+  });
+  it.each([
+    ["omitted", undefined],
+    ["an empty text", ""],
+    ["a 1×1 blank cell", [[null]]],
+    ["a 1×1 cell of spaces", [["  "]]],
+  ])("the calibration is required, no default (issue 22 point 3): %s is MISSING_INPUT", (_what, calibration) => {
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: calibration as LimeRange | string | undefined }))).toBe("MISSING_INPUT");
+  });
+  it("the missing-calibration message names the built-ins and the range form", () => {
+    expect(messageOf(() => limeBuffer(6.0, 5.6))).toMatch(/^calibration is required: .*SIKORA-OR2025, MEHLICH .*range/);
   });
   it("a 1×1 range holding a number is SHAPE_MISMATCH (neither a name nor a table)", () => {
     expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [[6.5]] }))).toBe("SHAPE_MISMATCH");

@@ -36,6 +36,9 @@ describe("limeProductRate", () => {
   it("arguments outside their ranges are OUT_OF_RANGE (no division by zero ever leaves)", () => {
     expect(codeOf(() => limeProductRate(-1, 90))).toBe("OUT_OF_RANGE");
     expect(codeOf(() => limeProductRate(2, 0))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 0.9))).toBe("OUT_OF_RANGE"); // a fraction (issue 22)
+    expect(codeOf(() => limeProductRate(2, 90, 0.85))).toBe("OUT_OF_RANGE");
+    expect(codeOf(() => limeProductRate(2, 90, 100, 0.3))).toBe("OUT_OF_RANGE");
     expect(codeOf(() => limeProductRate(2, 251))).toBe("OUT_OF_RANGE");
     expect(codeOf(() => limeProductRate(2, 90, 0))).toBe("OUT_OF_RANGE");
     expect(codeOf(() => limeProductRate(2, 90, 101))).toBe("OUT_OF_RANGE");
@@ -49,9 +52,10 @@ describe("limeProductRate", () => {
     fc.assert(
       fc.property(
         fc.double({ min: 0, max: 50, noNaN: true }),
-        fc.double({ min: 1, max: 100, noNaN: true }),
-        fc.double({ min: 1, max: 100, noNaN: true }),
-        fc.double({ min: 0, max: 90, noNaN: true }),
+        // plausible ranges (PERCENT.cce 5-250, fineness above 1, moisture 0 or 1 to below 100)
+        fc.double({ min: 5, max: 100, noNaN: true }),
+        fc.double({ min: 1.001, max: 100, noNaN: true }),
+        fc.oneof(fc.constant(0), fc.double({ min: 1, max: 90, noNaN: true })),
         (rate, cce, fine, moist) => {
           const r = limeProductRate(rate, cce, fine, moist);
           return r >= rate - 1e-12 && limeProductRate(rate, Math.min(250, cce + 10), fine, moist) <= r + 1e-12;
@@ -107,5 +111,13 @@ describe("limeFineness", () => {
         return r >= -1e-9 && r <= 100 + 1e-9;
       }),
     );
+  });
+  it("fractions typed as fractions of 1 are refused with a hint (issue 22 point 4; BC limestone A as fractions)", () => {
+    expect(codeOf(() => limeFineness([0.788, 0.1, 0.024, 0.078]))).toBe("OUT_OF_RANGE");
+    expect(messageOf(() => limeFineness([0.788, 0.1, 0.024, 0.078]))).toContain("they look like fractions");
+  });
+  it("efficiencies typed as fractions of 1 are refused, not read as 1 %, 0.6 % … (issue 22 point 4)", () => {
+    expect(codeOf(() => limeFineness([78.8, 10, 2.4, 7.8], [1, 0.6, 0.2, 0]))).toBe("OUT_OF_RANGE");
+    expect(limeFineness([78.8, 10, 2.4, 7.8], [100, 60, 20, 0])).toBeCloseTo(85.28, 10);
   });
 });

@@ -210,8 +210,9 @@ describe("nfixShootDm: grain yield ÷ harvest index", () => {
 
 describe("properties (inputs invented)", () => {
   const dm = fc.double({ min: 0, max: 30, noNaN: true });
-  const nPct = fc.double({ min: 0, max: 6, noNaN: true });
-  const ndfa = fc.double({ min: 0, max: 100, noNaN: true });
+  // plausible percent ranges (PERCENT.plantN 0.2-16 %, PERCENT.ndfa 0 or above 1 to 100 %)
+  const nPct = fc.double({ min: 0.2, max: 6, noNaN: true });
+  const ndfa = fc.oneof(fc.constant(0), fc.double({ min: 1.001, max: 100, noNaN: true }));
   const factor = fc.double({ min: 1, max: 3, noNaN: true });
   it("fixed N is linear in shoot DM", () => {
     fc.assert(

@@ -1,0 +1,160 @@
+/**
+ * SOIL.LABVALUE's core (issue 22 point 6): a lab's censored or locally formatted result becomes a
+ * number only by a policy the consultant names. The substitution policies (the limit, half of it,
+ * zero) are those compared by Floit, Mahoney, Batey & Petroff (1996) ASTM STP 1291, "Evaluation of
+ * the use of substitution methods to represent nondetect data" (abstract seen at astm.org). The
+ * cell texts are invented, in the forms lab exports use.
+ */
+import fc from "fast-check";
+import { labReading, labValue, LAB_BELOW_POLICIES, LAB_ABOVE_POLICIES, LAB_DECIMAL_MARKS } from "../../src/core/lab-value";
+import { errorCode, errorMessage } from "../helpers/errors";
+
+describe("below detection: \"<0.05\" by the policy named", () => {
+  it.each([
+    ["limit", 0.05],
+    ["half", 0.025],
+    ["zero", 0],
+  ])("%s gives %d", (policy, expected) => {
+    expect(labValue("<0.05", policy)).toBe(expected);
+  });
+  it("blank gives a blank (null), never 0", () => {
+    expect(labValue("<0.05", "blank")).toBeNull();
+  });
+  it("without a policy it is MISSING_INPUT, and the message gives what each policy would return", () => {
+    expect(errorCode(() => labValue("<0.05"))).toBe("MISSING_INPUT");
+    expect(errorMessage(() => labValue("<0.05"))).toContain("limit (0.05), half (0.025), zero or blank");
+  });
+  it.each(["< 0.05", "<=0.05", "≤0.05", " <0.05 "])("%s is read the same way", (t) => {
+    expect(labValue(t, "half")).toBe(0.025);
+  });
+  it("policy words are case-insensitive and have the usual aliases (LOD/2 is half)", () => {
+    expect(labValue("<0.05", "HALF")).toBe(0.025);
+    expect(labValue("<0.05", "lod/2")).toBe(0.025);
+    expect(labValue("<0.05", "0")).toBe(0);
+  });
+  it("an unknown policy word is UNKNOWN_NAME listing the policies", () => {
+    expect(errorCode(() => labValue("<0.05", "third"))).toBe("UNKNOWN_NAME");
+    expect(LAB_BELOW_POLICIES).toEqual(["limit", "half", "zero", "blank"]);
+  });
+  it("a limit that is not above 0 is OUT_OF_RANGE", () => {
+    expect(errorCode(() => labValue("<0", "half"))).toBe("OUT_OF_RANGE");
+    expect(errorCode(() => labValue("<-1", "half"))).toBe("OUT_OF_RANGE");
+  });
+});
+
+describe("above the range: \">300\"", () => {
+  it("limit gives the limit (the least it can be); blank a blank", () => {
+    expect(labValue(">300", undefined, "limit")).toBe(300);
+    expect(labValue("> 300", undefined, "blank")).toBeNull();
+    expect(labValue("≥300", undefined, "limit")).toBe(300);
+  });
+  it("without a policy it is MISSING_INPUT", () => {
+    expect(errorCode(() => labValue(">300", "half"))).toBe("MISSING_INPUT");
+  });
+  it("half and zero are not policies for above (UNKNOWN_NAME)", () => {
+    expect(errorCode(() => labValue(">300", undefined, "half"))).toBe("UNKNOWN_NAME");
+    expect(LAB_ABOVE_POLICIES).toEqual(["limit", "blank"]);
+  });
+});
+
+describe("words with no limit: n.d., trace", () => {
+  it.each(["n.d.", "ND", "nd", "N.D.", "not detected", "Not Detected", "BDL", "<LOD", "< LOR", "trace", "Tr", "tr."])(
+    "%s is below detection: zero gives 0, blank a blank",
+    (t) => {
+      expect(labValue(t, "zero")).toBe(0);
+      expect(labValue(t, "blank")).toBeNull();
+    },
+  );
+  it("limit and half cannot apply to a value that states no limit (NOT_APPLICABLE)", () => {
+    expect(errorCode(() => labValue("n.d.", "half"))).toBe("NOT_APPLICABLE");
+    expect(errorCode(() => labValue("trace", "limit"))).toBe("NOT_APPLICABLE");
+  });
+  it("without a policy it is MISSING_INPUT offering zero or blank", () => {
+    expect(errorCode(() => labValue("n.d."))).toBe("MISSING_INPUT");
+    expect(errorMessage(() => labValue("n.d."))).toContain("zero or blank");
+  });
+  it.each(["n.a.", "N/A", "not analysed", "Not analyzed"])("%s (not analysed) is a blank whatever the policy", (t) => {
+    expect(labValue(t)).toBeNull();
+  });
+  it("a lone dash is refused: labs use it for 'not detected' and for 'not analysed'", () => {
+    expect(errorCode(() => labValue("-", "zero"))).toBe("NOT_A_NUMBER");
+  });
+  it("other text is NOT_A_NUMBER listing the words read", () => {
+    expect(errorCode(() => labValue("high", "zero"))).toBe("NOT_A_NUMBER");
+    expect(errorMessage(() => labValue("high", "zero"))).toContain('"n.d."');
+  });
+});
+
+describe("numbers as labs format them", () => {
+  it("numbers pass unchanged, whatever the options", () => {
+    expect(labValue(7.9)).toBe(7.9);
+    expect(labValue(7.9, "half", "limit", ",")).toBe(7.9);
+    expect(labValue(-0.02)).toBe(-0.02);
+  });
+  it("numeric text with a full stop reads as without LABVALUE", () => {
+    expect(labValue("12.5")).toBe(12.5);
+    expect(labValue("0.125")).toBe(0.125);
+    expect(labValue(".5")).toBe(0.5);
+    expect(labValue("1.2E-03")).toBeCloseTo(0.0012, 15);
+  });
+  it.each([
+    ["1 250", 1250],
+    ["1\u00a0250", 1250],
+    ["1\u202f250\u202f000", 1250000],
+    ["12 345.5", 12345.5],
+  ])("%s (thousands grouped by a space) is %d", (t, v) => {
+    expect(labValue(t)).toBe(v);
+  });
+  it("a comma without a stated decimal mark is refused, never guessed (NOT_A_NUMBER)", () => {
+    expect(errorCode(() => labValue("12,5"))).toBe("NOT_A_NUMBER");
+    expect(errorCode(() => labValue("1,250"))).toBe("NOT_A_NUMBER");
+    expect(errorMessage(() => labValue("12,5"))).toContain('give decimal "," or "."');
+  });
+  it('"1.250" without a stated decimal mark is refused: 1.25 or 1250?', () => {
+    expect(errorCode(() => labValue("1.250"))).toBe("NOT_A_NUMBER");
+  });
+  it("with decimal \",\": 12,5 is 12.5; 1.250,5 and 1 250,5 are 1250.5; 1.250 is 1250", () => {
+    expect(labValue("12,5", undefined, undefined, ",")).toBe(12.5);
+    expect(labValue("1.250,5", undefined, undefined, "comma")).toBe(1250.5);
+    expect(labValue("1 250,5", undefined, undefined, ",")).toBe(1250.5);
+    expect(labValue("1.250", undefined, undefined, ",")).toBe(1250);
+  });
+  it("with decimal \".\": 1,250.5 is 1250.5 and 1.250 is 1.25", () => {
+    expect(labValue("1,250.5", undefined, undefined, ".")).toBe(1250.5);
+    expect(labValue("1.250", undefined, undefined, "point")).toBe(1.25);
+  });
+  it("a censored value with a decimal comma: \"<0,05\" half is 0.025", () => {
+    expect(labValue("<0,05", "half", undefined, ",")).toBe(0.025);
+    expect(labReading("<0,05", ",")).toEqual({ kind: "below", limit: 0.05 });
+  });
+  it.each([
+    ["12.5", ","],
+    ["1 25", undefined],
+    ["12,50,0", "."],
+    ["1,2,3", ","],
+    ["12.5 mg/kg", undefined],
+  ])("%s with decimal %s is refused (NOT_A_NUMBER)", (t, mark) => {
+    expect(errorCode(() => labValue(t, undefined, undefined, mark))).toBe("NOT_A_NUMBER");
+  });
+  it("an unknown decimal word is UNKNOWN_NAME", () => {
+    expect(errorCode(() => labValue("12,5", undefined, undefined, ";"))).toBe("UNKNOWN_NAME");
+    expect(LAB_DECIMAL_MARKS).toEqual([".", ","]);
+  });
+  it("property: any number written with a decimal comma and space-grouped thousands reads back (invented inputs)", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 99_999_999 }), fc.integer({ min: 0, max: 999 }), (whole, frac) => {
+        const grouped = whole.toString().replace(/\B(?=(\d{3})+(?!\d))/g, " ");
+        const text = `${grouped},${String(frac).padStart(3, "0")}`;
+        return labValue(text, undefined, undefined, ",") === Number(`${whole}.${String(frac).padStart(3, "0")}`);
+      }),
+    );
+  });
+  it("property: half is half of limit for every stated limit (invented inputs)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-6, max: 1e6, noNaN: true }), (x) => {
+        const t = `<${x}`;
+        return labValue(t, "half") === (labValue(t, "limit") as number) / 2;
+      }),
+    );
+  });
+});

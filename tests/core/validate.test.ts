@@ -1,0 +1,110 @@
+/**
+ * Declared bounds and the percent ranges (issue 22 point 4): every percent argument's plausible
+ * range is declared once in PERCENT, each bound is probed at the limit, just inside and just
+ * outside, and a value that looks like a fraction (Excel keeps a cell shown as 95 % as 0.95) is
+ * refused with a hint. The ranges' sources are named in validate.ts beside each range.
+ */
+import { Bound, check, PERCENT, percentListLooksFractional } from "../../src/core/validate";
+import { limeProductRate } from "../../src/core/lime/product";
+import { limeBaseSat } from "../../src/core/lime/methods";
+import { errorCode, errorMessage } from "../helpers/errors";
+
+const ok = (v: number, b: Bound) => expect(errorCode(() => check(v, b))).toBeUndefined();
+const refused = (v: number, b: Bound) => expect(errorCode(() => check(v, b))).toBe("OUT_OF_RANGE");
+const EPS = 1e-6;
+
+/** [range, accepted edges (limit and just inside), refused just outside]. */
+const EDGES: [string, Bound, number[], number[]][] = [
+  ["cce_pct 5-250", PERCENT.cce, [5, 5 + EPS, 250, 250 - EPS], [5 - EPS, 250 + EPS]],
+  ["fineness_pct above 1 to 100", PERCENT.fineness, [1 + EPS, 100, 100 - EPS], [1, 1 - EPS, 100 + EPS]],
+  ["moisture_pct 0, or 1 to below 100", PERCENT.moisture, [0, 1, 1 + EPS, 100 - EPS], [EPS, 1 - EPS, 100, -EPS]],
+  ["target_al_sat 0, or 1 to 100", PERCENT.targetAlSat, [0, 1, 1 + EPS, 100, 100 - EPS], [EPS, 1 - EPS, 100 + EPS, -EPS]],
+  ["base_sat 0, or above 1 to 100", PERCENT.baseSat, [0, 1 + EPS, 100, 100 - EPS], [EPS, 1, 1 - EPS, 100 + EPS, -EPS]],
+  ["target_base_sat 20-100", PERCENT.targetBaseSat, [20, 20 + EPS, 100, 100 - EPS], [20 - EPS, 100 + EPS]],
+  ["ndfa_pct 0, or above 1 to 100", PERCENT.ndfa, [0, 1 + EPS, 100, 100 - EPS], [EPS, 1, 1 - EPS, 100 + EPS, -EPS]],
+  ["shoot_n_pct 0, or 0.2-16", PERCENT.plantN("shoot_n_pct"), [0, 0.2, 0.2 + EPS, 16, 16 - EPS], [EPS, 0.2 - EPS, 16 + EPS, -EPS]],
+];
+
+describe("percent ranges: each bound at the limit, just inside and just outside", () => {
+  describe.each(EDGES)("%s", (_name, bound, accepted, rejected) => {
+    it.each(accepted)("accepts %d", (v) => ok(v, bound));
+    it.each(rejected)("refuses %d (OUT_OF_RANGE)", (v) => refused(v, bound));
+  });
+  it("every range says where it comes from (a source, or common practice)", () => {
+    const all = [PERCENT.cce, PERCENT.fineness, PERCENT.moisture, PERCENT.targetAlSat, PERCENT.baseSat, PERCENT.targetBaseSat, PERCENT.ndfa, PERCENT.plantN("x")];
+    for (const b of all) {
+      expect(b.unit).toBe("%");
+      expect((b.basis ?? "").length).toBeGreaterThan(30);
+    }
+  });
+});
+
+describe("a fraction typed for a percent is refused with a hint", () => {
+  it.each([
+    // [range, value, hint] : the value × 100 lies in the range
+    [PERCENT.cce, 0.95, "0.95 looks like a fraction; enter 95 for 95 %"],
+    [PERCENT.cce, 2.48, "2.48 looks like a fraction; enter 248 for 248 %"],
+    [PERCENT.fineness, 0.85, "0.85 looks like a fraction; enter 85 for 85 %"],
+    [PERCENT.fineness, 1, "1 looks like a fraction; enter 100 for 100 %"],
+    [PERCENT.moisture, 0.3, "0.3 looks like a fraction; enter 30 for 30 %"],
+    [PERCENT.targetAlSat, 0.2, "0.2 looks like a fraction; enter 20 for 20 %"],
+    [PERCENT.baseSat, 0.5, "0.5 looks like a fraction; enter 50 for 50 %"],
+    [PERCENT.targetBaseSat, 0.7, "0.7 looks like a fraction; enter 70 for 70 %"],
+    [PERCENT.ndfa, 0.82, "0.82 looks like a fraction; enter 82 for 82 %"],
+    [PERCENT.plantN("shoot_n_pct"), 0.025, "0.025 looks like a fraction; enter 2.5 for 2.5 %"],
+  ] as [Bound, number, string][])("%#: %s", (bound, v, hint) => {
+    expect(errorCode(() => check(v, bound))).toBe("OUT_OF_RANGE");
+    expect(errorMessage(() => check(v, bound))).toContain(hint);
+  });
+  it("a value in the gap just above 0 also says what to do with a real small value", () => {
+    expect(errorMessage(() => check(0.5, PERCENT.moisture))).toContain("enter 0 (it changes the rate by less than 1 %)");
+    expect(errorMessage(() => check(0.004, PERCENT.moisture))).not.toContain("looks like a fraction");
+  });
+  it("the message states the whole range, the gap included", () => {
+    expect(errorMessage(() => check(0.3, PERCENT.moisture))).toMatch(/^moisture_pct must be 0, or from 1 to below 100 %/);
+  });
+  it("a value above the range gets no fraction hint", () => {
+    expect(errorMessage(() => check(300, PERCENT.cce))).not.toContain("fraction");
+  });
+});
+
+describe("real small percentages are not refused", () => {
+  it("legume shoot or grain N of 0.5 % is accepted (below any shoot, above wheat straw's ~0.5 %: Lentz & Lindsey, OSU, seen)", () => {
+    ok(0.5, PERCENT.plantN("shoot_n_pct"));
+  });
+  it("a base saturation of 5.93 % (forest soil 10-20 cm, class data seen at trabalhosfeitos.com) is accepted", () => {
+    ok(5.93, PERCENT.baseSat);
+  });
+  it("a %Ndfa of 0 (no fixation: sub clover 0-100 %, Unkovich et al. 1994 abstract, seen) is accepted", () => {
+    ok(0, PERCENT.ndfa);
+  });
+  it("a wood-ash CCE of 22 % (ECCE 22-49 %, Commun. Soil Sci. Plant Anal. 2017 abstract, seen) is accepted", () => {
+    ok(22, PERCENT.cce);
+  });
+});
+
+describe("the cases of issue 22", () => {
+  it("LIMEPRODUCT(3, 0.95, 0.85) is refused, not 37 151.7 t/ha", () => {
+    expect(errorCode(() => limeProductRate(3, 0.95, 0.85))).toBe("OUT_OF_RANGE");
+    expect(errorMessage(() => limeProductRate(3, 0.95, 0.85))).toContain("0.95 looks like a fraction; enter 95 for 95 %");
+  });
+  it("LIMEBASESAT(8.9, 0.5, 0.7) is refused, not 0.0178 t/ha", () => {
+    expect(errorCode(() => limeBaseSat(8.9, 0.5, 0.7))).toBe("OUT_OF_RANGE");
+    expect(errorMessage(() => limeBaseSat(8.9, 0.5, 0.7))).toContain("0.5 looks like a fraction; enter 50 for 50 %");
+  });
+  it("the same in percent gives the method's answer: 3 t/ha at CCE 95 %, fineness 85 % is 3.715 t/ha (derived)", () => {
+    expect(limeProductRate(3, 95, 85)).toBeCloseTo(3 / 0.95 / 0.85, 10);
+  });
+});
+
+describe("percentListLooksFractional", () => {
+  it("true when every value is at most 1 and one is above 0", () => {
+    expect(percentListLooksFractional([0.788, 0.1, 0.024, 0.078])).toBe(true);
+    expect(percentListLooksFractional([1, 0.6, 0.2, 0])).toBe(true);
+  });
+  it("false for percentages, or for all zeros", () => {
+    expect(percentListLooksFractional([100, 60, 20, 0])).toBe(false);
+    expect(percentListLooksFractional([0, 0])).toBe(false);
+    expect(percentListLooksFractional([0.5, 2])).toBe(false);
+  });
+});
