@@ -25,7 +25,8 @@ import { toStoredFormula, toTypedFormula } from "./formula-text";
 import { Plan, Planned, planRecalc } from "./plan";
 import { CellWrite, DynamicFormula, patchSheetXml } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
-import { Tok, XmlScanner } from "./xml";
+import { Tok, XmlScanner, encodeXmlText as encodeXml } from "./xml";
+import { soilcellVersion } from "../core/about";
 import { WorkbookFileError, XlsxPackage, asFileError, dynamicArrayIndex, openPackage, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
 
 export interface CellProblem {
@@ -62,6 +63,11 @@ export interface RecalcOptions {
   readonly progress?: (line: string) => void;
   /** Largest array (in cells) one formula may build; a bound on what a hostile file can ask for. */
   readonly maxCells?: number;
+  /**
+   * Write a copy anyone can open: every SOIL formula cell becomes its plain value (other formulas
+   * stay), and the workbook's custom properties say which soilcell version computed it and when.
+   */
+  readonly values?: boolean;
 }
 
 export class RecalcRefused extends Error {
@@ -407,7 +413,8 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const host = new RecalcHost(book, plan, options.maxCells ?? 4_000_000);
   for (const p of plan.order) host.result(p);
 
-  const { writes, errors, kept, soilCells, spilled, computed } = collectWrites(book, plan, host, pkg);
+  const { writes, errors, kept, soilCells, spilled, computed } = collectWrites(book, plan, host, pkg, options.values === true);
+  if (options.values) markValuesCopy(pkg);
   say(`writing ${path.basename(output)}`);
   for (const sheet of book.sheets) {
     const w = writes.get(sheet.index);
@@ -431,7 +438,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   };
 }
 
-function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage) {
+function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage, values: boolean) {
   const writes = new Map<number, CellWrite[]>();
   const errors: CellProblem[] = [];
   const kept: CellProblem[] = [];
@@ -464,7 +471,7 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
     const value = r.noValue ? undefined : writable(top);
     if (isError(top)) problem(p.cell.row, p.cell.col, top);
     let dynamic: DynamicFormula | undefined;
-    const converts = p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array");
+    const converts = !(values && p.soil) && p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array");
     if (converts) {
       if (cm === null) cm = dynamicArrayIndex(pkg);
       dynamic = {
@@ -474,7 +481,11 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
       };
       if (f.form !== "dynamic" || !f.ref || f.ref.r2 !== area.r2 || f.ref.c2 !== area.c2 || p.soil) formsChanged = true;
     }
-    list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, ...(dynamic ? { dynamic } : {}) });
+    if (values && p.soil) {
+      // A values copy: the SOIL formula gives way to its value, so any program shows the number.
+      list.push({ kind: "value", row: p.cell.row, col: p.cell.col, value: value ?? null });
+      formsChanged = true;
+    } else list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, ...(dynamic ? { dynamic } : {}) });
     // Spilled or fixed-range elements
     if (!r.noValue) {
       for (let i = 1; i < r.grid.length; i++) {
@@ -503,6 +514,59 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
   }
   if (formsChanged) dropCalcChain(pkg);
   return { writes, errors, kept, soilCells, spilled, computed };
+}
+
+const CUSTOM_PROPS = "docProps/custom.xml";
+const CUSTOM_NS = "http://schemas.openxmlformats.org/officeDocument/2006/custom-properties";
+const VT_NS = "http://schemas.openxmlformats.org/officeDocument/2006/docPropsVTypes";
+const FMTID = "{D5CDD505-2E9C-101B-9397-08002B2CF9AE}";
+
+/** Records in the workbook's custom properties that its SOIL results are values, and what computed them. */
+function markValuesCopy(pkg: XlsxPackage): void {
+  const note = `SOIL results written as values by ${soilcellVersion()} on ${new Date().toISOString().slice(0, 19)}Z; the formulas are in the recalculated workbook.`;
+  const prop = (pid: number) => `<property fmtid="${FMTID}" pid="${pid}" name="soilcell"><vt:lpwstr>${encodeXml(note)}</vt:lpwstr></property>`;
+  const existing = pkg.text(CUSTOM_PROPS);
+  if (existing) {
+    const s = new XmlScanner(existing);
+    let pid = 1;
+    let close = -1;
+    for (let t = s.next(); t !== Tok.End; t = s.next()) {
+      if (t === Tok.Open && s.local === "property") {
+        pid = Math.max(pid, Number(s.attr("pid") ?? 1));
+        if (s.attr("name") === "soilcell") {
+          const start = s.start;
+          const end = s.skipElement();
+          pkg.write(CUSTOM_PROPS, existing.slice(0, start) + prop(Number(s.attr("pid") ?? pid)) + existing.slice(end));
+          return;
+        }
+      }
+      if (t === Tok.Close && s.local === "Properties") close = s.start;
+    }
+    if (close >= 0 && /xmlns:vt=/.test(existing)) {
+      pkg.write(CUSTOM_PROPS, existing.slice(0, close) + prop(pid + 1) + existing.slice(close));
+      return;
+    }
+    return; // a custom-properties part of a shape we do not recognise is left alone
+  }
+  pkg.write(CUSTOM_PROPS, `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Properties xmlns="${CUSTOM_NS}" xmlns:vt="${VT_NS}">${prop(2)}</Properties>`);
+  const rels = pkg.text("_rels/.rels");
+  if (rels && !rels.includes("docProps/custom.xml")) {
+    const ids = new Set(readRelationships(rels).map((r) => r.id));
+    let n = ids.size + 1;
+    while (ids.has(`rId${n}`)) n++;
+    pkg.write("_rels/.rels", insertBefore(rels, "Relationships", `<Relationship Id="rId${n}" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/custom-properties" Target="docProps/custom.xml"/>`));
+  }
+  const types = pkg.text("[Content_Types].xml");
+  if (types && !types.includes('PartName="/docProps/custom.xml"')) {
+    pkg.write("[Content_Types].xml", insertBefore(types, "Types", '<Override PartName="/docProps/custom.xml" ContentType="application/vnd.openxmlformats-officedocument.custom-properties+xml"/>'));
+  }
+}
+
+function insertBefore(xml: string, local: string, markup: string): string {
+  const s = new XmlScanner(xml);
+  let at = -1;
+  for (let t = s.next(); t !== Tok.End; t = s.next()) if (t === Tok.Close && s.local === local) at = s.start;
+  return at < 0 ? xml : xml.slice(0, at) + markup + xml.slice(at);
 }
 
 /** The value written in the file: Excel's own error codes only (a message lives in the summary). */
