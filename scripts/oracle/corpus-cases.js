@@ -200,6 +200,8 @@ const CASES = [
   {
     name: "text-lookalikes",
     what: "text cells that look like numbers, percents, currency, dates and times",
+    notes:
+      "Text converted by arithmetic (B1:B7, C8, C16, C17) is read as Excel does under the en-US locale (the oracle runs LibreOffice in en-US with locale-dependent text conversion): \"01/02/2025\" is 2 January 2025 and \"$5\" is 5. Under another locale Excel reads these differently; text inside ranges and references (C1:C7, C9, C11, C14) is never converted, whatever the locale.",
     sheets: [
       {
         name: "Lab",

@@ -93,6 +93,7 @@ async function computeExpected(corpus = CORPUS) {
       result[name] = {
         file: c.file,
         what: c.what,
+        ...(c.notes ? { notes: c.notes } : {}),
         reference: `${version}, headless, recalculated on load (scripts/oracle/libreoffice-values.js)`,
         cells,
         ...(Object.keys(fromSoilcell).length ? { fromSoilcell } : {}),

@@ -141,7 +141,7 @@ async function main() {
     const loInput = changed ? `libreoffice-input/${c.name}.xlsx` : null;
     if (loInput) fs.writeFileSync(path.join(OUT, loInput), await buildXlsx({ ...book, sheets: loSheets }));
     else fs.rmSync(path.join(OUT, `libreoffice-input/${c.name}.xlsx`), { force: true });
-    manifest[c.name] = { file: `${c.name}.xlsx`, what: c.what, libreofficeInput: loInput, soilCells };
+    manifest[c.name] = { file: `${c.name}.xlsx`, what: c.what, ...(c.notes ? { notes: c.notes } : {}), libreofficeInput: loInput, soilCells };
     process.stdout.write(`${c.name}.xlsx${loInput ? ` (+ ${loInput})` : ""}\n`);
   }
   fs.writeFileSync(path.join(OUT, "manifest.json"), `${JSON.stringify({ sentinel: SENTINEL, cases: manifest }, null, 2)}\n`);
