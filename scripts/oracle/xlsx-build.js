@@ -8,6 +8,9 @@
  * A cell (keyed by A1 address in `cells`):
  *   number | string (a shared string) | { inline: text } | { b: bool } | { e: "#N/A" } | { raw: "<c …/>" }
  *   | { n: number, s: style } | { f: formula text as stored (no "="), v?: cached value, t?: "array" | "shared", ref?, si?, cm?: true, s?: style }
+ * Extras for real-world shapes: `sheet.rels` (relationships of the sheet part), `book.parts`
+ * ({ path: { content, contentType } }, added with their content types), `book.workbookRels`
+ * (more workbook relationships) and `book.externalReferences` (their ids).
  * `sentinel`: a number cached in every formula cell (and every array element) given no value of
  * its own, so a reader can tell a recomputed value from a cached one.
  * Styles: 0 general, 1 a date (numFmtId 14), 2 percent (numFmtId 10).
@@ -75,6 +78,10 @@ function cellXml(addr, spec, p, sst, sentinel) {
   return `<${p}c r="${addr}"${s}${t}${cm}>${f}${v}</${p}c>`;
 }
 
+function relXml(r) {
+  return `<Relationship Id="${r.Id}" Type="${r.Type}" Target="${escapeXml(r.Target)}"${r.TargetMode ? ` TargetMode="${r.TargetMode}"` : ""}/>`;
+}
+
 /** Builds the workbook's bytes. */
 async function buildXlsx(book) {
   const strings = [];
@@ -123,6 +130,7 @@ async function buildXlsx(book) {
     `<workbookPr${book.date1904 ? ' date1904="1"' : ""}/>` +
     '<bookViews><workbookView xWindow="0" yWindow="0" windowWidth="16000" windowHeight="9000"/></bookViews>' +
     `<sheets>${book.sheets.map((s, i) => `<sheet name="${escapeXml(s.name)}" sheetId="${i + 1}" r:id="rId${i + 1}"/>`).join("")}</sheets>` +
+    (book.externalReferences?.length ? `<externalReferences>${book.externalReferences.map((id) => `<externalReference r:id="${id}"/>`).join("")}</externalReferences>` : "") +
     (names ? `<definedNames>${names}</definedNames>` : "") +
     '<calcPr calcId="191029"/></workbook>';
   const n = book.sheets.length;
@@ -131,7 +139,9 @@ async function buildXlsx(book) {
     `<Relationship Id="rId${n + 1}" Type="${R_NS}/styles" Target="styles.xml"/>`,
     `<Relationship Id="rId${n + 2}" Type="${R_NS}/sharedStrings" Target="sharedStrings.xml"/>`,
     ...(anyCm ? [`<Relationship Id="rId${n + 3}" Type="${R_NS}/sheetMetadata" Target="metadata.xml"/>`] : []),
+    ...(book.workbookRels ?? []).map((r) => relXml(r)),
   ];
+  const extra = Object.entries(book.parts ?? {});
   const types =
     `${HEAD}<Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types">` +
     '<Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/><Default Extension="xml" ContentType="application/xml"/>' +
@@ -140,6 +150,7 @@ async function buildXlsx(book) {
     '<Override PartName="/xl/styles.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.styles+xml"/>' +
     '<Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/>' +
     (anyCm ? '<Override PartName="/xl/metadata.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheetMetadata+xml"/>' : "") +
+    extra.filter(([, p]) => p.contentType).map(([path, p]) => `<Override PartName="/${path}" ContentType="${p.contentType}"/>`).join("") +
     "</Types>";
   const zip = new JSZip();
   const opts = { createFolders: false, date: new Date(Date.UTC(2025, 0, 1)) };
@@ -152,6 +163,12 @@ async function buildXlsx(book) {
   zip.file("xl/workbook.xml", workbook, opts);
   zip.file("xl/_rels/workbook.xml.rels", `${HEAD}<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">${rels.join("")}</Relationships>`, opts);
   sheetXml.forEach((x, i) => zip.file(`xl/worksheets/sheet${i + 1}.xml`, x, opts));
+  book.sheets.forEach((sheet, i) => {
+    if (sheet.rels?.length) {
+      zip.file(`xl/worksheets/_rels/sheet${i + 1}.xml.rels`, `${HEAD}<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">${sheet.rels.map(relXml).join("")}</Relationships>`, opts);
+    }
+  });
+  for (const [path, p] of extra) zip.file(path, p.content, opts);
   zip.file("xl/styles.xml", STYLES, opts);
   zip.file(
     "xl/sharedStrings.xml",

@@ -40,7 +40,7 @@ export interface WorkbookCells {
 
 export function readWorkbookCells(bytes: Buffer): Promise<WorkbookCells>;
 export function readSheet(xml: string, sst: string[]): { cells: Map<string, Cell>; merges: string[] };
-export function formulaAddresses(sheet: Sheet): string[];
+export function formulaAddresses(sheet: Sheet, maxArrayCells?: number): string[];
 export function stripCachedValues(bytes: Buffer): Promise<Buffer>;
 export function plain(cell: Cell | undefined): CachedValue;
 export function parseA1(ref: string): { row: number; col: number };

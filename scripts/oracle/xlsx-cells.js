@@ -204,14 +204,24 @@ async function readWorkbookCells(bytes) {
 
 /**
  * The addresses whose values formulas decide: every cell with an <f>, and every cell inside the
- * ref of an array formula (legacy CSE or dynamic). Sorted row by row.
+ * ref of an array formula (legacy CSE or dynamic); for a ref over more than `maxArrayCells`
+ * cells, only the cells the sheet holds inside it. Sorted row by row.
  */
-function formulaAddresses(sheet) {
+function formulaAddresses(sheet, maxArrayCells = 100000) {
   const out = new Set();
   for (const c of sheet.cells.values()) {
     if (!c.f) continue;
     out.add(c.r);
-    if (c.f.t === "array" && c.f.ref) for (const a of addressesOf(c.f.ref)) out.add(a);
+    if (c.f.t !== "array" || !c.f.ref) continue;
+    const r = parseRange(c.f.ref);
+    if (r.rows * r.cols <= maxArrayCells) {
+      for (const a of addressesOf(c.f.ref)) out.add(a);
+      continue;
+    }
+    // a huge ref (a hostile file): only the cells the sheet holds inside it
+    for (const d of sheet.cells.values()) {
+      if (d.row >= r.top.row && d.row < r.top.row + r.rows && d.col >= r.top.col && d.col < r.top.col + r.cols) out.add(d.r);
+    }
   }
   return [...out].sort((x, y) => {
     const p = parseA1(x);
