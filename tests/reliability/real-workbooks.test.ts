@@ -166,7 +166,9 @@ async function checkOutput(c: Case, input: string, output: string, say: (p: stri
     }
     for (const [addr, want] of Object.entries(c.values?.[sheet.name] ?? {})) {
       const got = outSheet.cells.get(addr)?.value ?? null;
-      if (!sameValue(want, got)) {
+      // { error: "*" }: any error value (a cell the engine may refuse, but must not leave stale)
+      const anyError = want !== null && typeof want === "object" && "error" in want && want.error === "*";
+      if (anyError ? !(got !== null && typeof got === "object" && "error" in got) : !sameValue(want, got)) {
         const src = c.sources?.[sheet.name]?.[addr];
         say(`${sheet.name}!${addr}: expected ${show(want)}${src ? ` (${src.slice(0, 80)})` : " (the input's cached value)"}, got ${show(got)}`);
       }
