@@ -5,47 +5,12 @@
  * File contents are invented (see hostile-files.ts); expected SOIL values as in tests/core
  * (Source: IUPAC/CIAAW atomic weights, 200.39 mg/kg Ca per cmol(+)/kg).
  */
-import { spawnSync } from "child_process";
 import fs from "fs";
 import path from "path";
 import JSZip from "jszip";
 import { HOSTILE } from "./hostile-files";
 import { tempDir } from "../helpers/workbook";
-
-const ROOT = path.join(__dirname, "../..");
-const BIN = path.join(ROOT, "bin/soilcell.js");
-const HOOK = path.join(__dirname, "rusage-hook.js");
-const PROGRESS = /^(reading|computing|writing) /;
-
-export interface Run {
-  status: number | null;
-  signal: string | null;
-  stdout: string;
-  stderr: string;
-  seconds: number;
-  /** Peak resident set size of the child, MB. */
-  rssMB: number;
-}
-
-/** Runs the soilcell command with its peak memory recorded; `heapMB` caps the child's heap. */
-export function soilcell(args: string[], heapMB?: number, timeoutMs = 120000): Run {
-  const dir = tempDir("soilcell-rusage-");
-  const usage = path.join(dir, "usage.json");
-  const started = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, [...(heapMB ? [`--max-old-space-size=${heapMB}`] : []), "-r", HOOK, BIN, ...args], {
-    encoding: "utf8",
-    timeout: timeoutMs,
-    env: { ...process.env, SOILCELL_RUSAGE_FILE: usage },
-    maxBuffer: 64 * 1024 * 1024,
-  });
-  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
-  const rssMB = fs.existsSync(usage) ? JSON.parse(fs.readFileSync(usage, "utf8")).maxRSS / 1024 : NaN;
-  fs.rmSync(dir, { recursive: true, force: true });
-  return { status: r.status, signal: r.signal, stdout: r.stdout, stderr: r.stderr, seconds, rssMB };
-}
-
-/** The stderr lines that are not progress lines. */
-const messages = (stderr: string) => stderr.split("\n").filter((l) => l.trim() && !PROGRESS.test(l));
+import { Run, messages, soilcell } from "./cli-run";
 
 interface Expectation {
   /** Exit status: 2 refused, 1 written with cells in error, 0 written clean. */

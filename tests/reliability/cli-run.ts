@@ -1,0 +1,48 @@
+/**
+ * Runs the soilcell command as a user would (node bin/soilcell.js …), with its peak memory
+ * recorded by rusage-hook.js, a time limit (a hang fails fast) and optionally a capped heap.
+ * Shared by the reliability tests.
+ */
+import { spawnSync } from "child_process";
+import fs from "fs";
+import path from "path";
+import { tempDir } from "../helpers/workbook";
+
+export const ROOT = path.join(__dirname, "../..");
+export const BIN = path.join(ROOT, "bin/soilcell.js");
+const HOOK = path.join(__dirname, "rusage-hook.js");
+const PROGRESS = /^(reading|computing|writing) /;
+
+export interface Run {
+  status: number | null;
+  signal: string | null;
+  stdout: string;
+  stderr: string;
+  seconds: number;
+  /** Peak resident set size of the child, MB (NaN when the child was killed). */
+  rssMB: number;
+  /** True when the time limit killed it. */
+  timedOut: boolean;
+}
+
+/** Runs the soilcell command with its peak memory recorded; `heapMB` caps the child's heap. */
+export function soilcell(args: string[], heapMB?: number, timeoutMs = 120000, extraNodeArgs: string[] = []): Run {
+  const dir = tempDir("soilcell-rusage-");
+  const usage = path.join(dir, "usage.json");
+  const started = process.hrtime.bigint();
+  const r = spawnSync(process.execPath, [...(heapMB ? [`--max-old-space-size=${heapMB}`] : []), "-r", HOOK, ...extraNodeArgs, BIN, ...args], {
+    encoding: "utf8",
+    timeout: timeoutMs,
+    killSignal: "SIGKILL",
+    env: { ...process.env, SOILCELL_RUSAGE_FILE: usage },
+    maxBuffer: 64 * 1024 * 1024,
+  });
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  const rssMB = fs.existsSync(usage) ? JSON.parse(fs.readFileSync(usage, "utf8")).maxRSS / 1024 : NaN;
+  fs.rmSync(dir, { recursive: true, force: true });
+  const timedOut = (r.error as NodeJS.ErrnoException | undefined)?.code === "ETIMEDOUT";
+  return { status: r.status, signal: r.signal, stdout: r.stdout ?? "", stderr: r.stderr ?? "", seconds, rssMB, timedOut };
+}
+
+/** The stderr lines that are not progress lines. */
+export const messages = (stderr: string): string[] => stderr.split("\n").filter((l) => l.trim() && !PROGRESS.test(l));
