@@ -94,6 +94,10 @@ function logicalFold(name: string, start: boolean, step: (acc: boolean, v: boole
   };
 }
 
+function isKindValue(f: (v: Scalar) => Scalar) {
+  return { min: 1, max: 1, call: ([v]: readonly (Value | undefined)[]) => f((v ?? null) as Scalar) };
+}
+
 function isKind(test: (v: Scalar) => boolean) {
   return { min: 1, max: 1, call: ([v]: readonly (Value | undefined)[]) => test((v ?? null) as Scalar) };
 }
@@ -185,6 +189,8 @@ export function addLogic(t: Table): void {
     return isError(n) ? n : Math.abs(Math.trunc(n) % 2) === 1;
   }));
   t.set("NA", scalarFn(0, 0, () => err("#N/A")));
+  const ERROR_NUMBERS: Record<string, number> = { "#NULL!": 1, "#DIV/0!": 2, "#VALUE!": 3, "#REF!": 4, "#NAME?": 5, "#NUM!": 6, "#N/A": 7, "#GETTING_DATA": 8, "#SPILL!": 9, "#CALC!": 14 };
+  t.set("ERROR.TYPE", isKindValue((v) => (isError(v) && ERROR_NUMBERS[v.code] !== undefined ? (ERROR_NUMBERS[v.code] as number) : err("#N/A", "ERROR.TYPE of a value that is no error"))));
   t.set("N", {
     min: 1,
     max: 1,

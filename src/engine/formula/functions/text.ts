@@ -29,6 +29,14 @@ function concatAll(args: readonly (Value | undefined)[], ctx: Ctx, sep?: string,
   return out.length > 32767 ? err("#VALUE!", "text longer than 32,767 characters") : out;
 }
 
+/** An ISO 8601 date (2025-01-02), which every locale reads the same, as a serial number. */
+function isoDateSerial(s: string, date1904: boolean): number | undefined {
+  const m = /^\s*(\d{4})-(\d{1,2})-(\d{1,2})\s*$/.exec(s);
+  if (!m) return undefined;
+  const v = dateSerial(Number(m[1]), Number(m[2]), Number(m[3]), date1904);
+  return isError(v) ? undefined : v;
+}
+
 // ---------------------------------------------------------------------------------------------
 // Dates: serial numbers in the 1900 system (with Excel's 29 February 1900) or the 1904 system.
 
@@ -220,6 +228,126 @@ export function addText(t: Table): void {
   t.set("YEAR", datePart("y"));
   t.set("MONTH", datePart("m"));
   t.set("DAY", datePart("d"));
+  const serialArg = (v: Scalar | undefined, ctx: Ctx): number | XlError => {
+    if (typeof v === "string") {
+      const iso = isoDateSerial(v, ctx.host.date1904);
+      if (iso !== undefined) return iso;
+      const n = numberFromText(v);
+      if (n === undefined) return new Uncomputable(`reading the date in text "${v.slice(0, 40)}" depends on the computer's locale; not computed headless`);
+      return n;
+    }
+    return num(v);
+  };
+  t.set("DATEVALUE", {
+    min: 1,
+    max: 1,
+    call: ([v], ctx) => {
+      const x = text(v as Scalar);
+      if (isError(x)) return x;
+      const iso = isoDateSerial(x, ctx.host.date1904);
+      if (iso === undefined) return new Uncomputable(`DATEVALUE("${x.slice(0, 40)}"): only ISO dates (2025-01-02) read the same in every locale; not computed headless`);
+      return Math.floor(iso);
+    },
+  });
+  t.set("TIME", scalarFn(3, 3, ([h, m, sec]) => {
+    const a = int(h);
+    if (isError(a)) return a;
+    const b = int(m);
+    if (isError(b)) return b;
+    const c = int(sec);
+    if (isError(c)) return c;
+    const total = a * 3600 + b * 60 + c;
+    if (total < 0) return err("#NUM!", "a negative time");
+    return (total % 86400) / 86400;
+  }));
+  const timePart = (div: number, mod: number) =>
+    ({
+      min: 1,
+      max: 1,
+      call: ([v]: readonly (Value | undefined)[], ctx: Ctx): Scalar => {
+        const n = serialArg(v as Scalar, ctx);
+        if (isError(n)) return n;
+        if (n < 0) return err("#NUM!", "a negative time");
+        const secs = Math.round((n - Math.floor(n)) * 86400);
+        return Math.floor(secs / div) % mod;
+      },
+    }) as const;
+  t.set("HOUR", timePart(3600, 24));
+  t.set("MINUTE", timePart(60, 60));
+  t.set("SECOND", timePart(1, 60));
+  t.set("WEEKDAY", {
+    min: 1,
+    max: 2,
+    call: ([v, type], ctx) => {
+      const n = serialArg(v as Scalar, ctx);
+      if (isError(n)) return n;
+      if (n < 0) return err("#NUM!", "a negative date");
+      const k = int(type as Scalar | undefined, 1);
+      if (isError(k)) return k;
+      // Day of the week counted as Excel counts it: serial 1 (1900-01-01 in its calendar) is a Sunday.
+      const base = ctx.host.date1904 ? 6 : 0; // serial 0 of the 1904 system, 1 January 1904, was a Friday
+      const sunday0 = (((Math.floor(n) + base - 1) % 7) + 7) % 7; // 0 = Sunday
+      const starts: Record<number, [number, number]> = { 1: [0, 1], 2: [1, 1], 3: [1, 0], 11: [1, 1], 12: [2, 1], 13: [3, 1], 14: [4, 1], 15: [5, 1], 16: [6, 1], 17: [0, 1] };
+      const s = starts[k];
+      if (!s) return err("#NUM!", `WEEKDAY type ${k} is not one Excel has`);
+      return ((sunday0 - s[0] + 7) % 7) + s[1];
+    },
+  });
+  const monthsFrom = (ctx: Ctx, start: Scalar | undefined, months: Scalar | undefined, endOfMonth: boolean): Scalar => {
+    const n = serialArg(start, ctx);
+    if (isError(n)) return n;
+    const k = int(months);
+    if (isError(k)) return k;
+    const d = serialDate(n, ctx.host.date1904);
+    if (isError(d)) return d;
+    if (endOfMonth) return dateSerial(d.y, d.m + k + 1, 0, ctx.host.date1904);
+    const last = new Date(Date.UTC(d.y, d.m - 1 + k + 1, 0)).getUTCDate();
+    return dateSerial(d.y, d.m + k, Math.min(d.d, last), ctx.host.date1904);
+  };
+  t.set("EDATE", { min: 2, max: 2, call: ([a, b], ctx) => monthsFrom(ctx, a as Scalar, b as Scalar, false) });
+  t.set("EOMONTH", { min: 2, max: 2, call: ([a, b], ctx) => monthsFrom(ctx, a as Scalar, b as Scalar, true) });
+  t.set("DAYS", {
+    min: 2,
+    max: 2,
+    call: ([e, s], ctx) => {
+      const a = serialArg(e as Scalar, ctx);
+      if (isError(a)) return a;
+      const b = serialArg(s as Scalar, ctx);
+      if (isError(b)) return b;
+      return Math.floor(a) - Math.floor(b);
+    },
+  });
+  t.set("DATEDIF", {
+    min: 3,
+    max: 3,
+    call: ([s, e, u], ctx) => {
+      const a = serialArg(s as Scalar, ctx);
+      if (isError(a)) return a;
+      const b = serialArg(e as Scalar, ctx);
+      if (isError(b)) return b;
+      const unit = text(u as Scalar);
+      if (isError(unit)) return unit;
+      if (a > b) return err("#NUM!", "DATEDIF's start date is after its end date");
+      const x = serialDate(Math.floor(a), ctx.host.date1904);
+      const y = serialDate(Math.floor(b), ctx.host.date1904);
+      if (isError(x)) return x;
+      if (isError(y)) return y;
+      let months = (y.y - x.y) * 12 + (y.m - x.m);
+      if (y.d < x.d) months -= 1;
+      switch (unit.toUpperCase()) {
+        case "D":
+          return Math.floor(b) - Math.floor(a);
+        case "M":
+          return months;
+        case "Y":
+          return Math.floor(months / 12);
+        case "YM":
+          return months % 12;
+        default:
+          return new Uncomputable(`DATEDIF with unit "${unit}" is not computed headless (Microsoft documents known problems with "MD"; "YD" is not checked)`);
+      }
+    },
+  });
   t.set("TODAY", { min: 0, max: 0, dynamic: true, call: (_a, ctx) => Math.floor(ctx.host.now()) });
   t.set("NOW", { min: 0, max: 0, dynamic: true, call: (_a, ctx) => ctx.host.now() });
 }
