@@ -18,7 +18,7 @@ import fs from "fs";
 import path from "path";
 import { Book, Cell, readBook } from "./book";
 import { a1, rangeA1 } from "./cellref";
-import { Ctx, Host, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
+import { Ctx, Host, ResourceLimit, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { toStoredFormula, toTypedFormula } from "./formula-text";
@@ -143,6 +143,8 @@ class RecalcHost implements Host {
   private touched: boolean[] = [];
   private readonly soilCache = new Map<string, ReturnType<typeof soilCall>>();
   private readonly clock = Date.now();
+  /** The cell being computed, for messages ("Sheet!A1"). */
+  current: string | undefined;
 
   constructor(
     readonly book: Book,
@@ -271,6 +273,8 @@ class RecalcHost implements Host {
     }
     this.inProgress.add(p.id);
     this.touched.push(false);
+    const outer = this.current;
+    this.current = `${this.book.sheets[p.sheet]?.name}!${a1(p.cell)}`;
     let r: Result;
     try {
       r = this.compute(p);
@@ -278,6 +282,7 @@ class RecalcHost implements Host {
       if (!(e instanceof RangeError)) throw e;
       r = { area: single(p), grid: [new Uncomputable("the formula chain is too deep to compute headless")] };
     }
+    this.current = outer;
     const touched = this.touched.pop() as boolean;
     if (this.touched.length && touched) this.touched[this.touched.length - 1] = true;
     this.inProgress.delete(p.id);
@@ -411,7 +416,12 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const plan = asFileError("the workbook's formulas cannot be planned", () => planRecalc(book, SOIL_SIGNATURES));
   say(`computing ${plan.order.length} of ${plan.formulaCells} formula cells`);
   const host = new RecalcHost(book, plan, options.maxCells ?? 4_000_000);
-  for (const p of plan.order) host.result(p);
+  try {
+    for (const p of plan.order) host.result(p);
+  } catch (e) {
+    if (e instanceof ResourceLimit) throw new WorkbookFileError(`${e.message} (in ${host.current ?? "a formula"})`);
+    throw e;
+  }
 
   const { writes, errors, kept, soilCells, spilled, computed } = collectWrites(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);

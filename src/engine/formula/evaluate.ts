@@ -26,6 +26,17 @@ export interface SoilCall {
   (args: (unknown[][] | null)[]): Value;
 }
 
+/**
+ * Thrown (not returned) when a formula asks for more cells than any workbook needs: a hostile
+ * file (a name over a whole sheet fed to a function that takes every cell). The file is refused.
+ */
+export class ResourceLimit extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "ResourceLimit";
+  }
+}
+
 /** What an evaluation reads from its workbook. */
 export interface Host {
   readonly book: Book;
@@ -113,7 +124,7 @@ export function derefArray(ref: XlRef, ctx: Ctx): XlArray | XlError {
   const rows = ref.rows;
   const cols = ref.cols;
   if (rows * cols > ctx.host.maxCells) {
-    return new Uncomputable(`the range ${rows}×${cols} is too large to compute headless (more than ${ctx.host.maxCells} cells)`);
+    throw new ResourceLimit(`a formula asks for a range of ${rows}×${cols} cells, more than the ${ctx.host.maxCells} cells soilcell takes in one formula; refused`);
   }
   const b = ctx.host.bounds(ref.sheet);
   const data: Scalar[] = new Array(rows * cols).fill(null);
@@ -205,7 +216,9 @@ export function elementAt(v: Scalar | XlArray, r: number, c: number): Scalar {
 export function lift(values: readonly (Scalar | XlArray)[], fn: (args: Scalar[]) => Scalar, ctx: Ctx): Scalar | XlArray {
   const shape = broadcastShape(values);
   if (!shape) return fn(values as Scalar[]);
-  if (shape.rows * shape.cols > ctx.host.maxCells) return new Uncomputable(`an array of ${shape.rows}×${shape.cols} is too large to compute headless`);
+  if (shape.rows * shape.cols > ctx.host.maxCells) {
+    throw new ResourceLimit(`a formula builds an array of ${shape.rows}×${shape.cols} cells, more than the ${ctx.host.maxCells} cells soilcell takes in one formula; refused`);
+  }
   const data: Scalar[] = new Array(shape.rows * shape.cols);
   const args: Scalar[] = new Array(values.length);
   for (let r = 0; r < shape.rows; r++) {

@@ -4,7 +4,7 @@
  * (">=5", "<>x", wildcards * ? and the escape ~).
  */
 import { tokenize, T } from "../lexer";
-import { Ctx, Uncomputable, eachCell, resolveRef, toArray } from "../evaluate";
+import { Ctx, ResourceLimit, Uncomputable, eachCell, resolveRef, toArray } from "../evaluate";
 import { compare, numberFromText, toBool, toNumber, toText } from "../coerce";
 import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, int, num } from "./kit";
@@ -130,6 +130,9 @@ function rangeOf(v: Value | undefined, what: string): XlRef | XlError {
 function eachMatch(ranges: XlRef[], tests: ((v: Scalar) => boolean)[], ctx: Ctx, fn: (dr: number, dc: number) => void): XlError | undefined {
   const first = ranges[0] as XlRef;
   for (const r of ranges) if (r.rows !== first.rows || r.cols !== first.cols) return err("#VALUE!", "the criteria ranges differ in size");
+  if (first.rows * first.cols > ctx.host.maxCells) {
+    throw new ResourceLimit(`a criteria range of ${first.rows}×${first.cols} cells is more than the ${ctx.host.maxCells} cells soilcell takes in one formula; refused`);
+  }
   const emptyMatches = tests.map((t) => t(null));
   // Cells beyond the used area are blank: test them once per criterion.
   for (let dr = 0; dr < first.rows; dr++) {
@@ -145,7 +148,6 @@ function eachMatch(ranges: XlRef[], tests: ((v: Scalar) => boolean)[], ctx: Ctx,
       }
       if (ok) fn(dr, dc);
     }
-    if (first.rows * first.cols > ctx.host.maxCells) return new Uncomputable("the criteria range is too large to compute headless");
   }
   return undefined;
 }
