@@ -37,6 +37,13 @@ export interface Formula {
   /** The syntax tree, or the reason the text could not be parsed. */
   node?: Node;
   syntaxError?: string;
+  /**
+   * Where the cell's markup is, for a writer that rewrites only what changes: the end of the <c>
+   * start tag, and the <f> element's start, the end of its start tag, the start of its end tag and
+   * its end. `simple` is false when the cell holds anything besides <f>, <v> and <is> (comments,
+   * extensions), which a writer must then keep.
+   */
+  readonly span: { readonly open: number; readonly f: number; readonly fOpen: number; readonly fClose: number; readonly fEnd: number; readonly simple: boolean };
 }
 
 export interface Cell {
@@ -50,6 +57,8 @@ export interface Cell {
   /** Offsets of the whole <c> element in the sheet part. */
   readonly start: number;
   readonly end: number;
+  /** The planner's index for a cell it computes, -1 otherwise (set by the planner). */
+  planId: number;
 }
 
 export interface RowSpan {
@@ -195,6 +204,12 @@ export function isoToSerial(iso: string, date1904: boolean): number | undefined 
 
 /** The parts of the cell markup the reader keeps. */
 interface RawCell {
+  open: number;
+  fStart: number;
+  fOpen: number;
+  fClose: number;
+  fEnd: number;
+  simple: boolean;
   t?: string;
   cm?: string;
   fText?: string;
@@ -205,29 +220,76 @@ interface RawCell {
   inline?: string;
 }
 
-function tokensKey(tokens: Token[], originRow: number, originCol: number): string {
-  // Relative references as offsets, so a formula filled down has one key (and one tree).
-  let key = "";
-  for (const tok of tokens) {
-    if (tok.t === T.Ref) {
-      const r = tok.ref!;
-      const rr = (v: number | undefined, abs: boolean) => (v === undefined ? "*" : abs ? `$${v}` : `${v - originRow}`);
-      const cc = (v: number | undefined, abs: boolean) => (v === undefined ? "*" : abs ? `$${v}` : `${v - originCol}`);
-      key += `\u0001${r.sheet ?? ""}!${rr(r.r1, r.ra1)},${cc(r.c1, r.ca1)}:${rr(r.r2, r.ra2)},${cc(r.c2, r.ca2)}${r.range ? "r" : ""}`;
-    } else {
-      key += `\u0002${tok.t}${tok.space ? " " : ""}${tok.sheet ?? ""}|${String(tok.value ?? "")}`;
+const isRefChar = (c: number) =>
+  (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || c > 127;
+const CELL_WORD = /^(\$?)([A-Za-z]{1,3})(\$?)([0-9]{1,7})$/;
+
+/**
+ * A formula's text with its relative cell references written as offsets from (row, col), so a
+ * formula filled down a column has one key (and one tree). It recognises a reference exactly
+ * where the lexer does (a whole word in cell form, not followed by "(", "!" or "["; text in
+ * quotes left alone); anything else stays literal, so two formulas share a key only when one is
+ * the other shifted.
+ */
+export function relativeKey(text: string, row: number, col: number): string {
+  let out = "";
+  let i = 0;
+  const n = text.length;
+  let last = 0;
+  let positional = false;
+  while (i < n) {
+    const c = text.charCodeAt(i);
+    if (c === 34 || c === 39) {
+      // a string or a quoted sheet name: skip to its closing quote ("" and '' escape)
+      let j = i + 1;
+      for (;;) {
+        const q = text.indexOf(c === 34 ? '"' : "'", j);
+        if (q < 0) return text; // malformed: no sharing
+        if (text.charCodeAt(q + 1) === c) {
+          j = q + 2;
+          continue;
+        }
+        i = q + 1;
+        break;
+      }
+      continue;
     }
+    if (!isRefChar(c)) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j < n && isRefChar(text.charCodeAt(j))) j++;
+    const next = text.charCodeAt(j);
+    const word = text.slice(i, j);
+    // Whole columns (A:B) and rows (1:3) are relative too, but not in cell form: no sharing.
+    if ((next === 58 || text.charCodeAt(i - 1) === 58) && /^\$?([A-Za-z]{1,3}|[0-9]{1,7})$/.test(word)) positional = true;
+    if (next !== 40 && next !== 33 && next !== 91) {
+      const m = CELL_WORD.exec(word);
+      if (m) {
+        let k = 0;
+        for (const ch of m[2] as string) k = k * 26 + ((ch.charCodeAt(0) | 32) - 96);
+        const colAt = k - 1;
+        const rowAt = Number(m[4]) - 1;
+        if (colAt < 16384 && rowAt >= 0 && rowAt < 1048576) {
+          out += text.slice(last, i);
+          out += `\u0001${m[1] ? `$${colAt}` : colAt - col},${m[3] ? `$${rowAt}` : rowAt - row}\u0001`;
+          last = j;
+        }
+      }
+    }
+    i = j;
   }
-  return key;
+  return out + text.slice(last) + (positional ? `\u0002${row},${col}` : "");
 }
 
 /** Parses a formula written at (row, col), sharing trees between formulas of the same relative shape. */
 export function parseShared(text: string, row: number, col: number, names: NameMap, cache: Map<string, Node>): Node {
-  const tokens = tokenize(text.startsWith("=") ? text.slice(1) : text);
-  const key = tokensKey(tokens, row, col);
+  const body = text.startsWith("=") ? text.slice(1) : text;
+  const key = relativeKey(body, row, col);
   const hit = cache.get(key);
   if (hit) return hit;
-  const node = parseTokens(tokens, row, col, names);
+  const node = parseTokens(tokenize(body), row, col, names);
   if (cache.size < 200000) cache.set(key, node);
   return node;
 }
@@ -350,7 +412,7 @@ function readSheet(
         if (col >= MAX_COLS) throw new XmlError(`cell column beyond XFD in row ${row + 1}`);
         if (col <= lastCol) throw new XmlError(`cells of row ${row + 1} are out of order`);
         lastCol = col;
-        const raw: RawCell = { t: s.attr("t"), cm: s.attr("cm") };
+        const raw: RawCell = { open: s.end, fStart: -1, fOpen: -1, fClose: -1, fEnd: -1, simple: true, t: s.attr("t"), cm: s.attr("cm") };
         if (!s.selfClosing) readCellBody(s, raw, isMain, row, col);
         const cell = makeCell(raw, row, col, cellStart, s.end, strings, dynamicCms, date1904, names, cache, masters, pendingShared);
         cells[col] = cell;
@@ -389,8 +451,12 @@ function readCellBody(s: XmlScanner, raw: RawCell, isMain: () => boolean, row: n
       if (s.text().trim() !== "") throw new XmlError(`text directly inside cell ${where()}`);
       continue;
     }
-    if (t !== Tok.Open) continue; // a comment or CDATA inside a cell is not content
+    if (t !== Tok.Open) {
+      raw.simple = false; // a comment or CDATA inside a cell is not content, but a writer keeps it
+      continue;
+    }
     if (!isMain()) {
+      raw.simple = false;
       s.skipElement();
       continue;
     }
@@ -400,7 +466,16 @@ function readCellBody(s: XmlScanner, raw: RawCell, isMain: () => boolean, row: n
         raw.fType = s.attr("t");
         raw.fRef = s.attr("ref");
         raw.fSi = s.attr("si");
-        raw.fText = s.elementText();
+        raw.fStart = s.start;
+        raw.fOpen = s.end;
+        if (s.selfClosing) {
+          raw.fText = "";
+          raw.fClose = raw.fEnd = s.end;
+        } else {
+          raw.fText = s.elementText();
+          raw.fClose = s.start;
+          raw.fEnd = s.end;
+        }
         break;
       case "v":
         if (raw.v !== undefined) throw new XmlError(`cell ${where()} has two values`);
@@ -410,6 +485,7 @@ function readCellBody(s: XmlScanner, raw: RawCell, isMain: () => boolean, row: n
         raw.inline = readInline(s);
         break;
       case "extLst":
+        raw.simple = false;
         s.skipElement();
         break;
       default:
@@ -505,7 +581,7 @@ function makeCell(
   } else if (type === "str" && raw.fText !== undefined) {
     cached = false;
   }
-  if (raw.fText === undefined) return { row, col, value, cached, start, end };
+  if (raw.fText === undefined) return { row, col, value, cached, start, end, planId: -1 };
 
   const fType = raw.fType ?? "normal";
   let form: FormulaForm;
@@ -518,8 +594,9 @@ function makeCell(
   if ((form === "array" || form === "dynamic") && (!ref || ref.r1 !== row || ref.c1 !== col)) {
     throw new XmlError(`the array formula in ${where()} covers "${raw.fRef ?? ""}", which does not start at its cell`);
   }
-  const formula: Formula = { form, text: raw.fText, originRow: row, originCol: col, ...(ref ? { ref } : {}) };
-  const cell: Cell = { row, col, value, cached, formula, start, end };
+  const span = { open: raw.open, f: raw.fStart, fOpen: raw.fOpen, fClose: raw.fClose, fEnd: raw.fEnd, simple: raw.simple };
+  const formula: Formula = { form, text: raw.fText, originRow: row, originCol: col, span, ...(ref ? { ref } : {}) };
+  const cell: Cell = { row, col, value, cached, formula, start, end, planId: -1 };
   if (form === "shared") {
     const si = raw.fSi ?? "";
     if (raw.fText.trim() !== "") {

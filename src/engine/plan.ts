@@ -11,9 +11,13 @@
  * Dynamic-array results spill; their size is predicted here from the shapes of the arguments,
  * so that cells reading a spill are ordered after it and collisions (#SPILL!) are known before
  * anything is written. A result whose size turns out to differ from the prediction is an error.
+ *
+ * Built for season-size sheets: what a formula reads is derived once per formula tree (a column
+ * filled down shares one), changed areas are kept as merged row intervals per column, and no
+ * structure per referenced cell is built unless dependency chains are long.
  */
-import type { Book, Cell, Sheet } from "./book";
-import type { Node } from "./formula/parser";
+import type { Book, Cell } from "./book";
+import type { Node, RefNode } from "./formula/parser";
 import { nativeFunction } from "./formula/evaluate";
 import { MAX_COLS, MAX_ROWS, Rect } from "./formula/values";
 
@@ -56,6 +60,11 @@ export interface Plan {
   readonly order: readonly Planned[];
   /** Cells in a circular chain (computed to an error). */
   readonly circular: ReadonlySet<number>;
+  /**
+   * Each planned cell's depth in the dependency order (0: reads no computed cell; -1: circular).
+   * Cells of one level do not read each other, so a level can be computed in any grouping.
+   */
+  readonly level: Int32Array;
   /** Planned cell by sheet and position. */
   at(sheet: number, row: number, col: number): Planned | undefined;
   /** The computed cell whose area (spill, fixed range, or the range it covered in the file) holds a position. */
@@ -64,54 +73,51 @@ export interface Plan {
   readonly formulaCells: number;
 }
 
-const key = (sheet: number, row: number, col: number) => (sheet * MAX_ROWS + row) * MAX_COLS + col;
+// ---------------------------------------------------------------------------------------------
+// What a formula tree reads (derived once per tree)
 
-interface Walk {
-  rects: { sheet: number; rect: Rect }[];
-  /** Anchors read through the spill operator. */
-  spills: { sheet: number; row: number; col: number }[];
-  soil: boolean;
-  dynamic: boolean;
+interface TreeInfo {
+  readonly refs: readonly RefNode[];
+  readonly names: readonly { readonly name: string; readonly sheet?: string }[];
+  /** Anchors read through the spill operator (A1#). */
+  readonly spills: readonly RefNode[];
+  readonly soil: boolean;
+  readonly dynamic: boolean;
+  /** A spill operator over something that is not a plain reference: reads are not known. */
+  readonly opaqueSpill: boolean;
 }
 
-/** Collects what a formula reads (a superset), evaluated at (sheet,row,col). */
-function walk(book: Book, node: Node, sheet: number, row: number, col: number, out: Walk, depth = 0): void {
-  if (depth > 64) return;
+const TREE_INFO = new WeakMap<Node, TreeInfo>();
+
+function treeInfo(node: Node): TreeInfo {
+  const known = TREE_INFO.get(node);
+  if (known) return known;
+  const refs: RefNode[] = [];
+  const names: { name: string; sheet?: string }[] = [];
+  const spills: RefNode[] = [];
+  let soil = false;
+  let dynamic = false;
+  let opaqueSpill = false;
   const stack: Node[] = [node];
   while (stack.length) {
     const n = stack.pop() as Node;
     switch (n.k) {
-      case "ref": {
-        const s = n.sheet === undefined ? sheet : book.sheetIndex(n.sheet);
-        if (s === undefined) break;
-        const r1 = n.abs & 1 ? n.r1 : n.r1 + row;
-        const c1 = n.abs & 2 ? n.c1 : n.c1 + col;
-        const r2 = n.abs & 4 ? n.r2 : n.r2 + row;
-        const c2 = n.abs & 8 ? n.c2 : n.c2 + col;
-        const rect = { r1: Math.max(0, Math.min(r1, r2)), c1: Math.max(0, Math.min(c1, c2)), r2: Math.min(MAX_ROWS - 1, Math.max(r1, r2)), c2: Math.min(MAX_COLS - 1, Math.max(c1, c2)) };
-        if (rect.r1 <= rect.r2 && rect.c1 <= rect.c2) out.rects.push({ sheet: s, rect });
+      case "ref":
+        refs.push(n);
         break;
-      }
-      case "name": {
-        const from = n.sheet === undefined ? sheet : book.sheetIndex(n.sheet);
-        if (from === undefined) break;
-        const d = book.definedName(n.name, from);
-        if (d?.node) walk(book, d.node, from === sheet ? sheet : from, row, col, out, depth + 1);
+      case "name":
+        names.push(n.sheet === undefined ? { name: n.name } : { name: n.name, sheet: n.sheet });
         break;
-      }
       case "fn":
-        if (n.name.startsWith("SOIL.")) out.soil = true;
-        else if (nativeFunction(n.name)?.dynamic) out.dynamic = true;
+        if (n.name.startsWith("SOIL.")) soil = true;
+        else if (nativeFunction(n.name)?.dynamic) dynamic = true;
         for (const a of n.args) stack.push(a);
         break;
-      case "spill": {
-        if (n.x.k === "ref") {
-          const s = n.x.sheet === undefined ? sheet : book.sheetIndex(n.x.sheet);
-          if (s !== undefined) out.spills.push({ sheet: s, row: n.x.abs & 1 ? n.x.r1 : n.x.r1 + row, col: n.x.abs & 2 ? n.x.c1 : n.x.c1 + col });
-        } else out.dynamic = true;
+      case "spill":
+        if (n.x.k === "ref") spills.push(n.x);
+        else opaqueSpill = true;
         stack.push(n.x);
         break;
-      }
       case "neg":
       case "plus":
       case "at":
@@ -130,290 +136,339 @@ function walk(book: Book, node: Node, sheet: number, row: number, col: number, o
         break;
     }
   }
+  const info: TreeInfo = { refs, names, spills, soil, dynamic: dynamic || opaqueSpill, opaqueSpill };
+  TREE_INFO.set(node, info);
+  return info;
 }
 
-function area(r: Rect): number {
-  return (r.r2 - r.r1 + 1) * (r.c2 - r.c1 + 1);
+/** A reference at a cell, written into `out`; false when it leaves the sheet or names no sheet. */
+function placeRef(book: Book, n: RefNode, sheet: number, row: number, col: number, out: { sheet: number; r1: number; c1: number; r2: number; c2: number }): boolean {
+  const s = n.sheet === undefined ? sheet : book.sheetIndex(n.sheet);
+  if (s === undefined) return false;
+  const r1 = n.abs & 1 ? n.r1 : n.r1 + row;
+  const c1 = n.abs & 2 ? n.c1 : n.c1 + col;
+  const r2 = n.abs & 4 ? n.r2 : n.r2 + row;
+  const c2 = n.abs & 8 ? n.c2 : n.c2 + col;
+  out.sheet = s;
+  out.r1 = Math.max(0, Math.min(r1, r2));
+  out.c1 = Math.max(0, Math.min(c1, c2));
+  out.r2 = Math.min(MAX_ROWS - 1, Math.max(r1, r2));
+  out.c2 = Math.min(MAX_COLS - 1, Math.max(c1, c2));
+  return out.r1 <= out.r2 && out.c1 <= out.c2;
 }
 
-function intersects(a: Rect, b: Rect): boolean {
-  return a.r1 <= b.r2 && b.r1 <= a.r2 && a.c1 <= b.c2 && b.c1 <= a.c2;
+/**
+ * Visits every rectangle a formula reads at (sheet,row,col), names followed (to a bounded depth);
+ * stops when `visit` returns true. Returns true when stopped.
+ */
+function eachRead(book: Book, info: TreeInfo, sheet: number, row: number, col: number, visit: (r: { sheet: number; r1: number; c1: number; r2: number; c2: number }) => boolean, depth = 0): boolean {
+  const scratch = { sheet: 0, r1: 0, c1: 0, r2: 0, c2: 0 };
+  for (const ref of info.refs) if (placeRef(book, ref, sheet, row, col, scratch) && visit(scratch)) return true;
+  for (const ref of info.spills) if (placeRef(book, ref, sheet, row, col, scratch) && visit(scratch)) return true;
+  if (depth < 32) {
+    for (const nm of info.names) {
+      const from = nm.sheet === undefined ? sheet : book.sheetIndex(nm.sheet);
+      if (from === undefined) continue;
+      const d = book.definedName(nm.name, from);
+      if (d?.node && eachRead(book, treeInfo(d.node), from, row, col, visit, depth + 1)) return true;
+    }
+  }
+  return false;
 }
 
-/** Per sheet and column, sorted disjoint row intervals: does a rectangle touch any of them? */
+/** Whether a formula calls SOIL or has run-time references, through its names too. */
+function callsThrough(book: Book, info: TreeInfo, sheet: number, what: "soil" | "dynamic", depth = 0): boolean {
+  if (info[what]) return true;
+  if (depth >= 32) return false;
+  for (const nm of info.names) {
+    const from = nm.sheet === undefined ? sheet : book.sheetIndex(nm.sheet);
+    if (from === undefined) continue;
+    const d = book.definedName(nm.name, from);
+    if (d?.node && callsThrough(book, treeInfo(d.node), from, what, depth + 1)) return true;
+  }
+  return false;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Changed areas: per sheet and column, merged row intervals
+
 class IntervalIndex {
-  private readonly cols = new Map<number, [number, number][]>();
-  private readonly pending = new Map<number, [number, number][]>();
+  private readonly cols = new Map<number, number[]>(); // flat [start, end, start, end, …], sorted, disjoint
+  private readonly pending = new Map<number, number[]>();
+  private readonly colsBySheet = new Map<number, Set<number>>();
   add(sheet: number, rect: Rect): void {
     for (let c = rect.c1; c <= rect.c2; c++) {
       const k = sheet * MAX_COLS + c;
       let list = this.pending.get(k);
-      if (!list) this.pending.set(k, (list = []));
-      list.push([rect.r1, rect.r2]);
+      if (!list) {
+        this.pending.set(k, (list = []));
+        let set = this.colsBySheet.get(sheet);
+        if (!set) this.colsBySheet.set(sheet, (set = new Set()));
+        set.add(c);
+      }
+      list.push(rect.r1, rect.r2);
     }
   }
-  private settle(): void {
+  settle(): void {
     if (!this.pending.size) return;
     for (const [k, add] of this.pending) {
-      const all = [...(this.cols.get(k) ?? []), ...add].sort((a, b) => a[0] - b[0]);
-      const merged: [number, number][] = [];
-      for (const iv of all) {
-        const last = merged[merged.length - 1];
-        if (last && iv[0] <= last[1] + 1) last[1] = Math.max(last[1], iv[1]);
-        else merged.push([iv[0], iv[1]]);
+      const old = this.cols.get(k) ?? [];
+      const n = (old.length + add.length) / 2;
+      const idx = new Array<number>(n);
+      const all = old.concat(add);
+      for (let i = 0; i < n; i++) idx[i] = i;
+      idx.sort((a, b) => (all[2 * a] as number) - (all[2 * b] as number));
+      const merged: number[] = [];
+      for (const i of idx) {
+        const s = all[2 * i] as number;
+        const e = all[2 * i + 1] as number;
+        const last = merged.length - 1;
+        if (last > 0 && s <= (merged[last] as number) + 1) merged[last] = Math.max(merged[last] as number, e);
+        else merged.push(s, e);
       }
       this.cols.set(k, merged);
     }
     this.pending.clear();
   }
-  touches(sheet: number, rect: Rect): boolean {
-    this.settle();
-    const width = rect.c2 - rect.c1 + 1;
-    if (width > this.cols.size) {
-      for (const [k, list] of this.cols) {
-        const s = Math.floor(k / MAX_COLS);
-        const c = k % MAX_COLS;
-        if (s === sheet && c >= rect.c1 && c <= rect.c2 && hits(list, rect)) return true;
-      }
+  /** Whether a rectangle touches a changed area (as of the last settle). */
+  touches(sheet: number, r1: number, c1: number, r2: number, c2: number): boolean {
+    const used = this.colsBySheet.get(sheet);
+    if (!used) return false;
+    if (c2 - c1 + 1 > used.size) {
+      for (const c of used) if (c >= c1 && c <= c2 && this.hits(sheet * MAX_COLS + c, r1, r2)) return true;
       return false;
     }
-    for (let c = rect.c1; c <= rect.c2; c++) {
-      const list = this.cols.get(sheet * MAX_COLS + c);
-      if (list && hits(list, rect)) return true;
-    }
+    for (let c = c1; c <= c2; c++) if (used.has(c) && this.hits(sheet * MAX_COLS + c, r1, r2)) return true;
     return false;
   }
-}
-
-function hits(list: [number, number][], rect: Rect): boolean {
-  // First interval ending at or after rect.r1.
-  let lo = 0;
-  let hi = list.length - 1;
-  let found = -1;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    if ((list[mid] as [number, number])[1] >= rect.r1) {
-      found = mid;
-      hi = mid - 1;
-    } else lo = mid + 1;
+  private hits(k: number, r1: number, r2: number): boolean {
+    const list = this.cols.get(k);
+    if (!list) return false;
+    // First interval ending at or after r1.
+    let lo = 0;
+    let hi = list.length / 2 - 1;
+    let found = -1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      if ((list[2 * mid + 1] as number) >= r1) {
+        found = mid;
+        hi = mid - 1;
+      } else lo = mid + 1;
+    }
+    return found >= 0 && (list[2 * found] as number) <= r2;
   }
-  return found >= 0 && (list[found] as [number, number])[0] <= rect.r2;
 }
 
-const SMALL = 64;
+// ---------------------------------------------------------------------------------------------
 
-interface Info {
-  readonly id: number;
+interface Formula {
   readonly sheet: number;
   readonly cell: Cell;
-  readonly walk: Walk;
+  readonly info: TreeInfo | undefined;
 }
+
+const MAX_PASSES = 12;
 
 /** Builds the plan for a workbook. */
 export function planRecalc(book: Book, soil: SoilSignatures): Plan {
-  const infos: Info[] = [];
-  const byKey = new Map<number, number>();
+  const formulas: Formula[] = [];
   for (const sheet of book.sheets) {
     for (const cell of sheet.formulaCells) {
-      const f = cell.formula!;
-      const w: Walk = { rects: [], spills: [], soil: false, dynamic: false };
-      if (f.node) walk(book, f.node, sheet.index, cell.row, cell.col, w);
-      const id = infos.length;
-      infos.push({ id, sheet: sheet.index, cell, walk: w });
-      byKey.set(key(sheet.index, cell.row, cell.col), id);
+      const node = cell.formula?.node;
+      formulas.push({ sheet: sheet.index, cell, info: node ? treeInfo(node) : undefined });
     }
   }
-  const anySoil = infos.some((i) => i.walk.soil);
-
-  // Reverse index: who reads a cell (small ranges cell by cell; large ranges checked by interval).
-  const readers = new Map<number, number[]>();
-  const large: { sheet: number; rect: Rect; id: number }[] = [];
-  for (const info of infos) {
-    for (const { sheet, rect } of info.walk.rects) {
-      if (area(rect) <= SMALL) {
-        for (let r = rect.r1; r <= rect.r2; r++) {
-          for (let c = rect.c1; c <= rect.c2; c++) {
-            const k = key(sheet, r, c);
-            const list = readers.get(k);
-            if (list) list.push(info.id);
-            else readers.set(k, [info.id]);
-          }
-        }
-      } else large.push({ sheet, rect, id: info.id });
-    }
-    for (const s of info.walk.spills) {
-      const k = key(s.sheet, s.row, s.col);
-      const list = readers.get(k);
-      if (list) list.push(info.id);
-      else readers.set(k, [info.id]);
-    }
-  }
-
-  const reason = new Map<number, Planned["reason"]>();
-  const shapes = new Map<number, { area: Rect; mode: Mode; uncertain: boolean }>();
-  const dirtyIndex = new IntervalIndex();
-  const queue: number[] = [];
-  const mark = (id: number, why: Planned["reason"]) => {
-    if (reason.has(id)) return;
-    reason.set(id, why);
-    queue.push(id);
+  const reason: (Planned["reason"] | undefined)[] = new Array(formulas.length);
+  const shapes: (Guessed | undefined)[] = new Array(formulas.length);
+  const idOf = (sheet: number, row: number, col: number): number | undefined => {
+    const c = book.sheets[sheet]?.rows[row]?.[col];
+    return c && c.formula ? formulaIndex.get(c) : undefined;
   };
-  for (const info of infos) {
-    if (info.walk.soil) mark(info.id, "soil");
-    else if (info.walk.dynamic && anySoil) mark(info.id, "dynamic");
-  }
-  const largeFired = new Array<boolean>(large.length).fill(false);
-  const shapeOf = (id: number) => {
-    let s = shapes.get(id);
-    if (!s) {
-      s = predict(book, infos[id] as Info, soil, byKey, shapes, reason);
-      shapes.set(id, s);
-    }
-    return s;
+  const formulaIndex = new Map<Cell, number>();
+  formulas.forEach((f, i) => formulaIndex.set(f.cell, i));
+  const shapeOf = (i: number): Guessed => (shapes[i] ??= predict(book, formulas[i] as Formula, soil, idOf, shapes, reason, i));
+
+  const changed = new IntervalIndex();
+  const markChanged = (i: number) => {
+    const f = formulas[i] as Formula;
+    const s = shapeOf(i);
+    changed.add(f.sheet, s.area);
+    const old = f.cell.formula?.ref;
+    if (old && (f.cell.formula?.form === "dynamic" || f.cell.formula?.form === "array")) changed.add(f.sheet, old);
   };
-  for (;;) {
-    while (queue.length) {
-      const id = queue.pop() as number;
-      const info = infos[id] as Info;
-      const s = shapeOf(id);
-      // What this cell changes: itself, its new area and the area it covered in the file.
-      const regions: Rect[] = [s.area];
-      const old = info.cell.formula?.ref;
-      if (old && (info.cell.formula?.form === "dynamic" || info.cell.formula?.form === "array")) regions.push(old);
-      for (const rect of regions) {
-        dirtyIndex.add(info.sheet, rect);
-        if (area(rect) <= 1 << 20) {
-          for (let r = rect.r1; r <= rect.r2; r++) {
-            for (let c = rect.c1; c <= rect.c2; c++) {
-              const list = readers.get(key(info.sheet, r, c));
-              if (list) for (const reader of list) mark(reader, "depends");
-            }
-          }
-        } else {
-          // A region too large to walk: every reader of its sheet is treated as depending on it.
-          for (const [k, list] of readers) if (Math.floor(k / (MAX_ROWS * MAX_COLS)) === info.sheet) for (const reader of list) mark(reader, "depends");
-        }
+  let anySoil = false;
+  const isSoil: boolean[] = new Array(formulas.length);
+  formulas.forEach((f, i) => {
+    isSoil[i] = f.info ? callsThrough(book, f.info, f.sheet, "soil") : false;
+    if (isSoil[i]) anySoil = true;
+  });
+  formulas.forEach((f, i) => {
+    if (isSoil[i]) reason[i] = "soil";
+    else if (anySoil && f.info && callsThrough(book, f.info, f.sheet, "dynamic")) reason[i] = "dynamic";
+    if (reason[i]) markChanged(i);
+  });
+
+  // Cells reading a changed area change too: pass over the formulas until none is added.
+  let passes = 0;
+  let added = true;
+  while (added && passes < MAX_PASSES) {
+    passes++;
+    added = false;
+    changed.settle();
+    for (let i = 0; i < formulas.length; i++) {
+      if (reason[i]) continue;
+      const f = formulas[i] as Formula;
+      if (!f.info) continue;
+      if (eachRead(book, f.info, f.sheet, f.cell.row, f.cell.col, (r) => changed.touches(r.sheet, r.r1, r.c1, r.r2, r.c2))) {
+        reason[i] = "depends";
+        markChanged(i);
+        added = true;
       }
     }
-    let fired = false;
-    large.forEach((l, i) => {
-      if (largeFired[i] || reason.has(l.id)) return;
-      if (dirtyIndex.touches(l.sheet, l.rect)) {
-        largeFired[i] = true;
-        mark(l.id, "depends");
-        fired = true;
-      }
-    });
-    if (!fired) break;
   }
-  for (const info of infos) if (!info.cell.cached && !reason.has(info.id)) mark(info.id, "uncached");
+  if (added) propagateByIndex(book, formulas, reason, markChanged, changed);
+  for (let i = 0; i < formulas.length; i++) if (!reason[i] && !(formulas[i] as Formula).cell.cached) reason[i] = "uncached";
 
-  // Planned cells, and who owns which positions (new area and old covered range).
-  const planned = new Map<number, Planned>();
-  const owners = new Map<number, Planned>();
-  const producers = new Map<number, number[]>(); // sheet*MAX_COLS+col → rows of single-cell producers
+  // Planned cells; positions of multi-cell areas (spills, fixed ranges, old ranges) by owner.
+  const planned: Planned[] = [];
+  const areaOwners = new Map<number, Map<number, Planned>>(); // sheet → (row*MAX_COLS+col) → owner
   const bigProducers: Planned[] = [];
-  for (const [id, why] of reason) {
-    const info = infos[id] as Info;
-    const s = shapeOf(id);
-    const p: Planned = { id, sheet: info.sheet, cell: info.cell, mode: s.mode, soil: info.walk.soil, area: s.area, uncertain: s.uncertain, reason: why };
-    planned.set(id, p);
+  const producers = new Map<number, number[]>(); // sheet*MAX_COLS+col → rows of single-cell producers
+  for (let i = 0; i < formulas.length; i++) {
+    const why = reason[i];
+    if (!why) continue;
+    const f = formulas[i] as Formula;
+    const s = shapeOf(i);
+    const p: Planned = { id: planned.length, sheet: f.sheet, cell: f.cell, mode: s.mode, soil: isSoil[i] as boolean, area: s.area, uncertain: s.uncertain, reason: why };
+    planned.push(p);
+    f.cell.planId = p.id;
+    const old = f.cell.formula?.ref;
     const regions = [s.area];
-    const old = info.cell.formula?.ref;
-    if (old && (info.cell.formula?.form === "dynamic" || info.cell.formula?.form === "array")) regions.push(old);
+    if (old && (f.cell.formula?.form === "dynamic" || f.cell.formula?.form === "array")) regions.push(old);
+    const multi = regions.some((r) => r.r2 > r.r1 || r.c2 > r.c1);
+    if (!multi) {
+      const k = f.sheet * MAX_COLS + f.cell.col;
+      let rows = producers.get(k);
+      if (!rows) producers.set(k, (rows = []));
+      rows.push(f.cell.row);
+      continue;
+    }
+    bigProducers.push(p);
+    let owners = areaOwners.get(f.sheet);
+    if (!owners) areaOwners.set(f.sheet, (owners = new Map()));
     for (const rect of regions) {
       if (area(rect) > 1 << 22) continue; // refused later as too large
       for (let r = rect.r1; r <= rect.r2; r++) {
         for (let c = rect.c1; c <= rect.c2; c++) {
-          const k = key(info.sheet, r, c);
-          const prior = owners.get(k);
-          // The anchor's own cell always belongs to it; otherwise the first claim stands.
-          if (!prior || (r === info.cell.row && c === info.cell.col)) owners.set(k, p);
+          const k = r * MAX_COLS + c;
+          // The first claim on a position stands (an anchor's own cell is its own through planId).
+          if (!owners.has(k)) owners.set(k, p);
         }
       }
     }
-    if (area(s.area) === 1 && !(old && area(old) > 1)) {
-      const k = info.sheet * MAX_COLS + info.cell.col;
-      let rows = producers.get(k);
-      if (!rows) producers.set(k, (rows = []));
-      rows.push(info.cell.row);
-    } else bigProducers.push(p);
   }
   for (const rows of producers.values()) rows.sort((a, b) => a - b);
 
   // Edges: a computed cell comes after the computed cells whose areas it reads.
-  const ids = [...planned.keys()].sort((a, b) => a - b);
+  const n = planned.length;
+  const indeg = new Int32Array(n);
   const succ = new Map<number, number[]>();
-  const indeg = new Map<number, number>(ids.map((id) => [id, 0]));
-  const edge = (from: number, to: number) => {
-    if (from === to) {
-      // A cell reading itself: circular.
-      indeg.set(to, (indeg.get(to) as number) + 1);
-      return;
-    }
-    let l = succ.get(from);
-    if (!l) succ.set(from, (l = []));
-    l.push(to);
-    indeg.set(to, (indeg.get(to) as number) + 1);
-  };
-  for (const id of ids) {
-    const info = infos[id] as Info;
-    const seen = new Set<number>();
+  const selfLoop = new Uint8Array(n);
+  const bigBySheet = new Map<number, Planned[]>();
+  for (const p of bigProducers) {
+    const l = bigBySheet.get(p.sheet);
+    if (l) l.push(p);
+    else bigBySheet.set(p.sheet, [p]);
+  }
+  for (const p of planned) {
+    const f = formulas[formulaIndex.get(p.cell) as number] as Formula;
+    if (!f.info) continue;
+    let seen: Set<number> | undefined;
     const link = (from: number) => {
+      if (from === p.id) {
+        selfLoop[p.id] = 1;
+        return;
+      }
+      seen ??= new Set();
       if (seen.has(from)) return;
       seen.add(from);
-      edge(from, id);
+      let l = succ.get(from);
+      if (!l) succ.set(from, (l = []));
+      l.push(p.id);
+      indeg[p.id] = (indeg[p.id] as number) + 1;
     };
-    const reads = [...info.walk.rects];
-    for (const s of info.walk.spills) reads.push({ sheet: s.sheet, rect: { r1: s.row, c1: s.col, r2: s.row, c2: s.col } });
-    for (const { sheet, rect } of reads) {
-      for (let c = rect.c1; c <= rect.c2; c++) {
-        const rows = producers.get(sheet * MAX_COLS + c);
-        if (!rows) {
-          if (c - rect.c1 > 16384) break;
-          continue;
-        }
-        let lo = lowerBound(rows, rect.r1);
-        for (; lo < rows.length && (rows[lo] as number) <= rect.r2; lo++) {
-          const pid = byKey.get(key(sheet, rows[lo] as number, c));
-          if (pid !== undefined && planned.has(pid)) link(pid);
+    eachRead(book, f.info, p.sheet, p.cell.row, p.cell.col, (r) => {
+      const width = r.c2 - r.c1 + 1;
+      if (width <= 64 || width * 4 < producers.size) {
+        for (let c = r.c1; c <= r.c2; c++) linkColumn(producers.get(r.sheet * MAX_COLS + c), r, c);
+      } else {
+        for (const [k, rows] of producers) {
+          if (Math.floor(k / MAX_COLS) !== r.sheet) continue;
+          const c = k % MAX_COLS;
+          if (c >= r.c1 && c <= r.c2) linkColumn(rows, r, c);
         }
       }
-      for (const p of bigProducers) {
-        if (p.sheet !== sheet) continue;
-        const old = p.cell.formula?.ref;
-        if (intersects(p.area, rect) || (old && intersects(old, rect)) || (rect.r1 <= p.cell.row && p.cell.row <= rect.r2 && rect.c1 <= p.cell.col && p.cell.col <= rect.c2)) link(p.id);
+      for (const b of bigBySheet.get(r.sheet) ?? []) {
+        const old = b.cell.formula?.ref;
+        if (overlaps(b.area, r) || (old && overlaps(old, r))) link(b.id);
+      }
+      return false;
+    });
+    function linkColumn(rows: number[] | undefined, r: Rect & { sheet: number }, c: number) {
+      if (!rows) return;
+      for (let j = lowerBound(rows, r.r1); j < rows.length && (rows[j] as number) <= r.r2; j++) {
+        const cell = book.sheets[r.sheet]?.rows[rows[j] as number]?.[c];
+        if (cell && cell.planId >= 0) link(cell.planId);
       }
     }
   }
   const order: Planned[] = [];
-  const ready = ids.filter((id) => indeg.get(id) === 0);
+  const ready: number[] = [];
+  for (let i = n - 1; i >= 0; i--) if (indeg[i] === 0 && !selfLoop[i]) ready.push(i);
+  const done = new Uint8Array(n);
+  const level = new Int32Array(n);
   while (ready.length) {
     const id = ready.pop() as number;
-    order.push(planned.get(id) as Planned);
+    done[id] = 1;
+    order.push(planned[id] as Planned);
     for (const next of succ.get(id) ?? []) {
-      const d = (indeg.get(next) as number) - 1;
-      indeg.set(next, d);
-      if (d === 0) ready.push(next);
+      const d = (indeg[next] as number) - 1;
+      indeg[next] = d;
+      if ((level[next] as number) <= (level[id] as number)) level[next] = (level[id] as number) + 1;
+      if (d === 0 && !selfLoop[next]) ready.push(next);
     }
   }
   const circular = new Set<number>();
-  for (const id of ids) {
-    if ((indeg.get(id) as number) > 0) {
-      circular.add(id);
-      order.push(planned.get(id) as Planned);
+  for (let i = 0; i < n; i++) {
+    if (!done[i]) {
+      circular.add(i);
+      order.push(planned[i] as Planned);
+      level[i] = -1;
     }
   }
   return {
     order,
     circular,
-    formulaCells: infos.length,
+    level,
+    formulaCells: formulas.length,
     at: (sheet, row, col) => {
-      const id = byKey.get(key(sheet, row, col));
-      return id === undefined ? undefined : planned.get(id);
+      const c = book.sheets[sheet]?.rows[row]?.[col];
+      return c && c.planId >= 0 ? planned[c.planId] : undefined;
     },
-    owner: (sheet, row, col) => owners.get(key(sheet, row, col)),
+    owner: (sheet, row, col) => {
+      const c = book.sheets[sheet]?.rows[row]?.[col];
+      if (c && c.planId >= 0) return planned[c.planId];
+      return areaOwners.get(sheet)?.get(row * MAX_COLS + col);
+    },
   };
+}
+
+function overlaps(a: Rect, b: Rect): boolean {
+  return a.r1 <= b.r2 && b.r1 <= a.r2 && a.c1 <= b.c2 && b.c1 <= a.c2;
+}
+
+function area(r: Rect): number {
+  return (r.r2 - r.r1 + 1) * (r.c2 - r.c1 + 1);
 }
 
 function lowerBound(rows: number[], v: number): number {
@@ -427,10 +482,77 @@ function lowerBound(rows: number[], v: number): number {
   return lo;
 }
 
+/**
+ * Long chains of dependent formulas (a running total down a column): instead of more passes, an
+ * index of who reads which cell, walked from every changed cell.
+ */
+function propagateByIndex(book: Book, formulas: Formula[], reason: (Planned["reason"] | undefined)[], markChanged: (i: number) => void, changed: IntervalIndex): void {
+  const readers = new Map<number, number[]>();
+  const large: { sheet: number; rect: Rect; id: number }[] = [];
+  const key = (sheet: number, row: number, col: number) => (sheet * MAX_ROWS + row) * MAX_COLS + col;
+  formulas.forEach((f, i) => {
+    if (reason[i] || !f.info) return;
+    eachRead(book, f.info, f.sheet, f.cell.row, f.cell.col, (r) => {
+      if (area(r) <= 64) {
+        for (let row = r.r1; row <= r.r2; row++) {
+          for (let col = r.c1; col <= r.c2; col++) {
+            const k = key(r.sheet, row, col);
+            const l = readers.get(k);
+            if (l) l.push(i);
+            else readers.set(k, [i]);
+          }
+        }
+      } else large.push({ sheet: r.sheet, rect: { r1: r.r1, c1: r.c1, r2: r.r2, c2: r.c2 }, id: i });
+      return false;
+    });
+  });
+  const queue: number[] = [];
+  formulas.forEach((_, i) => {
+    if (reason[i]) queue.push(i);
+  });
+  const mark = (i: number) => {
+    if (reason[i]) return;
+    reason[i] = "depends";
+    markChanged(i);
+    queue.push(i);
+  };
+  for (;;) {
+    while (queue.length) {
+      const i = queue.pop() as number;
+      const f = formulas[i] as Formula;
+      const rects: Rect[] = [{ r1: f.cell.row, c1: f.cell.col, r2: f.cell.row, c2: f.cell.col }];
+      const old = f.cell.formula?.ref;
+      if (old) rects.push(old);
+      for (const rect of rects) {
+        if (area(rect) > 1 << 20) {
+          for (const [k, l] of readers) if (Math.floor(k / (MAX_ROWS * MAX_COLS)) === f.sheet) for (const x of l) mark(x);
+          continue;
+        }
+        for (let row = rect.r1; row <= rect.r2; row++) for (let col = rect.c1; col <= rect.c2; col++) for (const x of readers.get(key(f.sheet, row, col)) ?? []) mark(x);
+      }
+    }
+    changed.settle();
+    let fired = false;
+    for (const l of large) {
+      if (reason[l.id]) continue;
+      if (changed.touches(l.sheet, l.rect.r1, l.rect.c1, l.rect.r2, l.rect.c2)) {
+        mark(l.id);
+        fired = true;
+      }
+    }
+    if (!fired) break;
+  }
+}
+
 // ---------------------------------------------------------------------------------------------
 // Shapes
 
 type Guess = { shape: Shape; uncertain: boolean };
+interface Guessed {
+  readonly area: Rect;
+  readonly mode: Mode;
+  readonly uncertain: boolean;
+}
 const ONE: Guess = { shape: { rows: 1, cols: 1 }, uncertain: false };
 
 function broadcast(gs: Guess[]): Guess {
@@ -557,35 +679,56 @@ function shapeOfCall(name: string, args: readonly Node[], c: ShapeCtx, sub: (x: 
   return broadcast(args.map((a, i) => (cls(i) === "V" && a.k !== "miss" ? sub(a) : ONE)));
 }
 
-function predict(book: Book, info: Info, soil: SoilSignatures, byKey: Map<number, number>, shapes: Map<number, { area: Rect; mode: Mode; uncertain: boolean }>, reason: Map<number, unknown>): { area: Rect; mode: Mode; uncertain: boolean } {
-  const f = info.cell.formula!;
-  const at = { r1: info.cell.row, c1: info.cell.col, r2: info.cell.row, c2: info.cell.col };
+/** Trees whose predicted size does not depend on where they sit (no spill operator), by sheet. */
+const SHAPE_CACHE = new WeakMap<Node, Map<number, Guess>>();
+
+function predict(
+  book: Book,
+  f: Formula,
+  soil: SoilSignatures,
+  idOf: (sheet: number, row: number, col: number) => number | undefined,
+  shapes: (Guessed | undefined)[],
+  reason: (Planned["reason"] | undefined)[],
+  self: number,
+): Guessed {
+  const formula = f.cell.formula!;
+  const at = { r1: f.cell.row, c1: f.cell.col, r2: f.cell.row, c2: f.cell.col };
+  const isSoil = f.info ? callsThrough(book, f.info, f.sheet, "soil") : false;
   // A SOIL formula is written as Excel stores add-in formulas, a dynamic array, whether the file
   // had it plain (typed without the add-in) or as a fixed array (LibreOffice drops the marks).
-  if (f.form === "array" && !info.walk.soil) return { area: f.ref ?? at, mode: "fixed", uncertain: false };
-  const spills = f.form === "dynamic" || (info.walk.soil && (f.form === "plain" || f.form === "array"));
-  if (!spills || !f.node) return { area: at, mode: "single", uncertain: false };
-  const visiting = new Set<number>([info.id]);
-  const spillShape = (sheet: number, row: number, col: number): Guess => {
-    const id = byKey.get(key(sheet, row, col));
-    if (id === undefined) return ONE;
-    const known = shapes.get(id);
-    if (known) return { shape: { rows: known.area.r2 - known.area.r1 + 1, cols: known.area.c2 - known.area.c1 + 1 }, uncertain: known.uncertain };
-    const target = book.sheets[sheet]?.rows[row]?.[col];
-    if (!reason.has(id) || visiting.has(id) || !target?.formula?.node) {
-      // Not recomputed: the spill the file records.
-      const ref = target?.formula?.ref;
-      return ref ? { shape: { rows: ref.r2 - ref.r1 + 1, cols: ref.c2 - ref.c1 + 1 }, uncertain: false } : ONE;
+  if (formula.form === "array" && !isSoil) return { area: formula.ref ?? at, mode: "fixed", uncertain: false };
+  const spills = formula.form === "dynamic" || (isSoil && (formula.form === "plain" || formula.form === "array"));
+  if (!spills || !formula.node) return { area: at, mode: "single", uncertain: false };
+  const node = formula.node;
+  const cacheable = f.info !== undefined && f.info.spills.length === 0 && !f.info.opaqueSpill && !f.info.dynamic;
+  let g = cacheable ? SHAPE_CACHE.get(node)?.get(f.sheet) : undefined;
+  if (!g) {
+    const visiting = new Set<number>([self]);
+    const spillShape = (sheet: number, row: number, col: number): Guess => {
+      const id = idOf(sheet, row, col);
+      if (id === undefined) return ONE;
+      const known = shapes[id];
+      if (known) return { shape: { rows: known.area.r2 - known.area.r1 + 1, cols: known.area.c2 - known.area.c1 + 1 }, uncertain: known.uncertain };
+      const target = book.sheets[sheet]?.rows[row]?.[col];
+      if (!reason[id] || visiting.has(id) || !target?.formula?.node) {
+        // Not recomputed: the spill the file records.
+        const ref = target?.formula?.ref;
+        return ref ? { shape: { rows: ref.r2 - ref.r1 + 1, cols: ref.c2 - ref.c1 + 1 }, uncertain: false } : ONE;
+      }
+      visiting.add(id);
+      const inner = shapeOfNode(target.formula.node, { book, sheet, row, col, arrays: true, soil, spillShape, depth: 0 });
+      visiting.delete(id);
+      return inner;
+    };
+    g = shapeOfNode(node, { book, sheet: f.sheet, row: f.cell.row, col: f.cell.col, arrays: true, soil, spillShape, depth: 0 });
+    if (cacheable) {
+      let m = SHAPE_CACHE.get(node);
+      if (!m) SHAPE_CACHE.set(node, (m = new Map()));
+      m.set(f.sheet, g);
     }
-    visiting.add(id);
-    const g = shapeOfNode(target.formula.node, { book, sheet, row, col, arrays: true, soil, spillShape, depth: 0 });
-    visiting.delete(id);
-    return g;
-  };
-  const g = shapeOfNode(f.node, { book, sheet: info.sheet, row: info.cell.row, col: info.cell.col, arrays: true, soil, spillShape, depth: 0 });
-  const r2 = info.cell.row + g.shape.rows - 1;
-  const c2 = info.cell.col + g.shape.cols - 1;
-  return { area: { r1: info.cell.row, c1: info.cell.col, r2: Math.min(r2, MAX_ROWS - 1), c2: Math.min(c2, MAX_COLS - 1) }, mode: "spill", uncertain: g.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS };
+  }
+  if (g.shape.rows === 1 && g.shape.cols === 1 && !g.uncertain) return { area: at, mode: "spill", uncertain: false };
+  const r2 = f.cell.row + g.shape.rows - 1;
+  const c2 = f.cell.col + g.shape.cols - 1;
+  return { area: { r1: f.cell.row, c1: f.cell.col, r2: Math.min(r2, MAX_ROWS - 1), c2: Math.min(c2, MAX_COLS - 1) }, mode: "spill", uncertain: g.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS };
 }
-
-export type { Sheet };

@@ -23,6 +23,7 @@ import "./formula/functions";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { toStoredFormula, toTypedFormula } from "./formula-text";
 import { Plan, Planned, planRecalc } from "./plan";
+import { Circular, RecalcHost } from "./host";
 import { CellWrite, DynamicFormula, patchSheetXml } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
 import { Tok, XmlScanner, encodeXmlText as encodeXml } from "./xml";
@@ -113,286 +114,6 @@ function checkPaths(input: string, output: string): void {
   if (path.resolve(input) === path.resolve(output)) throw new RecalcRefused(`refusing to write over the input ${input}; choose another output with -o`);
 }
 
-/** What one computed cell came to. */
-interface Result {
-  /** The final area it fills (the anchor alone for a single value or a spill error). */
-  readonly area: Rect;
-  /** Values over the area, row-major (a single value has one). */
-  readonly grid: Scalar[];
-  /** No value to write (a circular reference, or an uncomputable cell kept as cached). */
-  readonly noValue?: boolean;
-  /** Keep the file's cached value (a formula with dynamic references that read nothing recomputed). */
-  readonly keep?: boolean;
-}
-
-class Circular extends XlError {
-  constructor() {
-    super("#VALUE!", "circular reference: the cell depends on itself; no value written, Excel reports it when the file is opened");
-  }
-}
-
-const single = (p: Planned): Rect => ({ r1: p.cell.row, c1: p.cell.col, r2: p.cell.row, c2: p.cell.col });
-
-class RecalcHost implements Host {
-  readonly date1904: boolean;
-  readonly maxCells: number;
-  private readonly results = new Map<number, Result>();
-  private readonly inProgress = new Set<number>();
-  private readonly bound: { rows: number; cols: number }[];
-  /** Set when an evaluation reads a recomputed cell (per evaluation frame). */
-  private touched: boolean[] = [];
-  private readonly soilCache = new Map<string, ReturnType<typeof soilCall>>();
-  private readonly clock = Date.now();
-  /** The cell being computed, for messages ("Sheet!A1"). */
-  current: string | undefined;
-
-  constructor(
-    readonly book: Book,
-    private readonly plan: Plan,
-    maxCells: number,
-  ) {
-    this.date1904 = book.date1904;
-    this.maxCells = maxCells;
-    this.bound = book.sheets.map((s) => {
-      let cols = -1;
-      for (const r of s.rows) if (r && r.length - 1 > cols) cols = r.length - 1;
-      return { rows: s.rows.length - 1, cols };
-    });
-    this.areas = book.sheets.map(() => []);
-    for (const p of plan.order) {
-      // Areas too large for any formula to fill (a hostile ref) do not widen what ranges visit.
-      if ((p.area.r2 - p.area.r1 + 1) * (p.area.c2 - p.area.c1 + 1) > maxCells) continue;
-      const b = this.bound[p.sheet] as { rows: number; cols: number };
-      b.rows = Math.max(b.rows, p.area.r2);
-      b.cols = Math.max(b.cols, p.area.c2);
-      if (p.area.r2 > p.area.r1 || p.area.c2 > p.area.c1) (this.areas[p.sheet] as Rect[]).push(p.area);
-    }
-  }
-
-  /** Multi-cell areas computed formulas may fill, per sheet (cells a file may not have yet). */
-  private readonly areas: Rect[][];
-
-  forEach(ref: XlRef, fn: (v: Scalar, r: number, c: number) => void): void {
-    const sheet = this.book.sheets[ref.sheet];
-    if (!sheet) return;
-    const extra = (this.areas[ref.sheet] ?? []).filter((a) => a.r1 <= ref.r2 && ref.r1 <= a.r2 && a.c1 <= ref.c2 && ref.c1 <= a.c2);
-    const rows = sheet.rows;
-    const rEnd = Math.min(ref.r2, rows.length - 1);
-    if (!extra.length) {
-      for (let r = ref.r1; r <= rEnd; r++) {
-        const row = rows[r];
-        if (!row) continue;
-        const cEnd = Math.min(ref.c2, row.length - 1);
-        for (let c = ref.c1; c <= cEnd; c++) if (row[c]) fn(this.value(ref.sheet, r, c), r, c);
-      }
-      return;
-    }
-    // Spilled cells the file does not have yet are visited too, in row order.
-    const seen = new Set<number>();
-    const positions: [number, number][] = [];
-    for (let r = ref.r1; r <= rEnd; r++) {
-      const row = rows[r];
-      if (!row) continue;
-      const cEnd = Math.min(ref.c2, row.length - 1);
-      for (let c = ref.c1; c <= cEnd; c++) {
-        if (!row[c]) continue;
-        positions.push([r, c]);
-        seen.add(r * 16384 + c);
-      }
-    }
-    for (const a of extra) {
-      for (let r = Math.max(a.r1, ref.r1); r <= Math.min(a.r2, ref.r2); r++) {
-        for (let c = Math.max(a.c1, ref.c1); c <= Math.min(a.c2, ref.c2); c++) {
-          const k = r * 16384 + c;
-          if (seen.has(k)) continue;
-          seen.add(k);
-          positions.push([r, c]);
-        }
-      }
-    }
-    positions.sort((x, y) => x[0] - y[0] || x[1] - y[1]);
-    for (const [r, c] of positions) fn(this.value(ref.sheet, r, c), r, c);
-  }
-
-  bounds(sheet: number) {
-    return this.bound[sheet] ?? { rows: -1, cols: -1 };
-  }
-
-  value(sheet: number, row: number, col: number): Scalar {
-    const owner = this.plan.owner(sheet, row, col);
-    if (owner) {
-      const r = this.result(owner);
-      if (r.keep) return this.book.cell(sheet, row, col)?.value ?? null;
-      if (this.touched.length) this.touched[this.touched.length - 1] = true;
-      const a = r.area;
-      if (row < a.r1 || row > a.r2 || col < a.c1 || col > a.c2) return null;
-      if (r.noValue) return owner.cell.row === row && owner.cell.col === col ? (r.grid[0] as Scalar) : null;
-      return r.grid[(row - a.r1) * (a.c2 - a.c1 + 1) + (col - a.c1)] as Scalar;
-    }
-    const cell = this.book.sheets[sheet]?.rows[row]?.[col];
-    return cell ? cell.value : null;
-  }
-
-  spill(sheet: number, row: number, col: number): XlRef | XlError {
-    const p = this.plan.at(sheet, row, col);
-    if (p) {
-      if (p.mode !== "spill") return err("#REF!", `${a1({ row, col })} holds no spilling formula`);
-      const r = this.result(p);
-      if (r.keep) return cachedSpill(this.book.cell(sheet, row, col), sheet);
-      const v = r.grid[0];
-      if (isError(v) && v.code === "#SPILL!") return v;
-      return new XlRef(sheet, r.area.r1, r.area.c1, r.area.r2, r.area.c2);
-    }
-    return cachedSpill(this.book.cell(sheet, row, col), sheet);
-  }
-
-  soil(name: string) {
-    if (!name.startsWith("SOIL.")) return undefined;
-    let c = this.soilCache.get(name);
-    if (c === undefined && !this.soilCache.has(name)) {
-      c = soilCall(name);
-      this.soilCache.set(name, c);
-    }
-    return c;
-  }
-
-  now(): number {
-    const ms = this.clock - new Date(this.clock).getTimezoneOffset() * 60000;
-    const epoch = this.date1904 ? Date.UTC(1904, 0, 1) : Date.UTC(1899, 11, 30);
-    return (ms - epoch) / 86400000;
-  }
-
-  /** The result of a computed cell, computing it (and what it reads) when not yet done. */
-  result(p: Planned): Result {
-    const done = this.results.get(p.id);
-    if (done) return done;
-    if (this.inProgress.has(p.id) || this.plan.circular.has(p.id)) {
-      const r: Result = { area: single(p), grid: [new Circular()], noValue: true };
-      if (!this.inProgress.has(p.id)) this.results.set(p.id, r);
-      return r;
-    }
-    this.inProgress.add(p.id);
-    this.touched.push(false);
-    const outer = this.current;
-    this.current = `${this.book.sheets[p.sheet]?.name}!${a1(p.cell)}`;
-    let r: Result;
-    try {
-      r = this.compute(p);
-    } catch (e) {
-      if (!(e instanceof RangeError)) throw e;
-      r = { area: single(p), grid: [new Uncomputable("the formula chain is too deep to compute headless")] };
-    }
-    this.current = outer;
-    const touched = this.touched.pop() as boolean;
-    if (this.touched.length && touched) this.touched[this.touched.length - 1] = true;
-    this.inProgress.delete(p.id);
-    // A formula with dynamic references that read nothing recomputed keeps its cached value.
-    if (p.reason === "dynamic" && !touched && p.cell.cached) r = { ...r, keep: true };
-    // A formula without a cached value that cannot be computed, fed by nothing recomputed, stays without one.
-    if (p.reason === "uncached" && r.grid[0] instanceof Uncomputable && !touched) r = { ...r, noValue: true };
-    this.results.set(p.id, r);
-    return r;
-  }
-
-  private compute(p: Planned): Result {
-    const f = p.cell.formula!;
-    const at = single(p);
-    if (!f.node) {
-      const why = f.form === "table" ? "a what-if data table is not computed headless" : `the formula cannot be read headless (${f.syntaxError ?? "unknown"})`;
-      return { area: at, grid: [new Uncomputable(why)] };
-    }
-    const ctx: Ctx = { host: this, sheet: p.sheet, row: p.cell.row, col: p.cell.col, arrays: p.mode !== "single", depth: 0 };
-    const v = ev(f.node, ctx, true);
-    if (p.mode === "single") return { area: at, grid: [finalScalar(v, ctx)] };
-    const arr = v instanceof XlRef ? toArray(v, ctx) : v;
-    if (p.mode === "fixed") return { area: p.area, grid: fillFixed(arr, p.area, ctx) };
-    // A dynamic array: spills to its size, if the cells it needs are free.
-    if (isError(arr) || !(arr instanceof XlArray)) return { area: at, grid: [finalScalar(arr as Value, ctx)] };
-    const rows = arr.rows;
-    const cols = arr.cols;
-    if (rows === 1 && cols === 1) return { area: at, grid: [zeroBlank(arr.at(0, 0))] };
-    const area = { r1: p.cell.row, c1: p.cell.col, r2: p.cell.row + rows - 1, c2: p.cell.col + cols - 1 };
-    if (area.r2 !== p.area.r2 || area.c2 !== p.area.c2) {
-      return {
-        area: at,
-        grid: [new Uncomputable(`the result's size (${rows}×${cols}) depends on the data and differs from the size read from the formula; not computed headless`)],
-      };
-    }
-    const blocked = this.spillBlocked(p, area);
-    if (blocked) return { area: at, grid: [err("#SPILL!", blocked)] };
-    const grid = arr.data.map(zeroBlank);
-    return { area, grid };
-  }
-
-  /** Why a spill cannot go where it needs to, or undefined when the cells are free. */
-  private spillBlocked(p: Planned, area: Rect): string | undefined {
-    const sheet = this.book.sheets[p.sheet]!;
-    const old = p.cell.formula?.ref;
-    for (const m of sheet.merges) {
-      if (m.r1 <= area.r2 && area.r1 <= m.r2 && m.c1 <= area.c2 && area.c1 <= m.c2) {
-        return `the spill range ${rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, area.c2 - area.c1 + 1)} holds merged cells`;
-      }
-    }
-    for (let r = area.r1; r <= area.r2; r++) {
-      const row = sheet.rows[r];
-      for (let c = area.c1; c <= area.c2; c++) {
-        if (r === p.cell.row && c === p.cell.col) continue;
-        const owner = this.plan.owner(p.sheet, r, c);
-        if (owner && owner !== p && (owner.mode !== "single" || (owner.cell.row === r && owner.cell.col === c))) {
-          const oa = owner.area;
-          if (r >= oa.r1 && r <= oa.r2 && c >= oa.c1 && c <= oa.c2) return `the spill range would cover ${a1({ row: r, col: c })}, which another formula fills`;
-        }
-        const cell = row?.[c];
-        if (!cell) continue;
-        if (cell.formula) return `the spill range would cover ${a1({ row: r, col: c })}, which holds a formula`;
-        if (cell.value === null) continue;
-        const inOld = old && r >= old.r1 && r <= old.r2 && c >= old.c1 && c <= old.c2;
-        const freed = owner && owner !== p && !(r >= owner.area.r1 && r <= owner.area.r2 && c >= owner.area.c1 && c <= owner.area.c2);
-        if (!inOld && !freed) return `the spill range would cover ${a1({ row: r, col: c })}, which is not empty`;
-      }
-    }
-    return undefined;
-  }
-}
-
-function cachedSpill(cell: Cell | undefined, sheet: number): XlRef | XlError {
-  const f = cell?.formula;
-  if (!cell || !f || (f.form !== "dynamic" && f.form !== "array")) return err("#REF!", "the spill operator # needs a cell that holds a spilling formula");
-  const ref = f.ref ?? { r1: cell.row, c1: cell.col, r2: cell.row, c2: cell.col };
-  return new XlRef(sheet, ref.r1, ref.c1, ref.r2, ref.c2);
-}
-
-/** A formula's displayed value: an empty cell it refers to shows 0. */
-function zeroBlank(v: Scalar): Scalar {
-  return v === null ? 0 : v;
-}
-
-function finalScalar(v: Value, ctx: Ctx): Scalar {
-  if (v instanceof XlRef) return zeroBlank(ctx.arrays ? firstScalar(v, ctx) : intersect(v, ctx));
-  return zeroBlank(firstScalar(v, ctx));
-}
-
-/** A legacy array formula's fixed range: a single value fills it, a row or column repeats, beyond the result is #N/A. */
-function fillFixed(v: Value | XlError, area: Rect, ctx: Ctx): Scalar[] {
-  const rows = area.r2 - area.r1 + 1;
-  const cols = area.c2 - area.c1 + 1;
-  const arr = v instanceof XlArray ? v : null;
-  const out: Scalar[] = new Array(rows * cols);
-  for (let r = 0; r < rows; r++) {
-    for (let c = 0; c < cols; c++) {
-      let x: Scalar;
-      if (!arr) x = zeroBlank(firstScalar(v as Value, ctx));
-      else {
-        const rr = arr.rows === 1 ? 0 : r;
-        const cc = arr.cols === 1 ? 0 : c;
-        x = rr < arr.rows && cc < arr.cols ? zeroBlank(arr.at(rr, cc)) : err("#N/A", "outside the array formula's result");
-      }
-      out[r * cols + c] = x;
-    }
-  }
-  return out;
-}
-
 const EXCEL_ERRORS = new Set(["#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#SPILL!", "#CALC!", "#GETTING_DATA"]);
 
 /**
@@ -417,7 +138,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   say(`computing ${plan.order.length} of ${plan.formulaCells} formula cells`);
   const host = new RecalcHost(book, plan, options.maxCells ?? 4_000_000);
   try {
-    for (const p of plan.order) host.result(p);
+    host.computeAll();
   } catch (e) {
     if (e instanceof ResourceLimit) throw new WorkbookFileError(`${e.message} (in ${host.current ?? "a formula"})`);
     throw e;
@@ -485,7 +206,8 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
     if (converts) {
       if (cm === null) cm = dynamicArrayIndex(pkg);
       dynamic = {
-        text: p.soil ? toStoredFormula(f.text) : undefined,
+        // Only our own names are rewritten, and only when the file has them another way (typed, or lower-cased).
+        text: p.soil && needsStoredForm(f.text) ? toStoredFormula(f.text) : undefined,
         ref: rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, width),
         ...(cm !== undefined ? { cm } : {}),
       };
@@ -495,7 +217,7 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
       // A values copy: the SOIL formula gives way to its value, so any program shows the number.
       list.push({ kind: "value", row: p.cell.row, col: p.cell.col, value: value ?? null });
       formsChanged = true;
-    } else list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, ...(dynamic ? { dynamic } : {}) });
+    } else list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, cell: p.cell, ...(dynamic ? { dynamic } : {}) });
     // Spilled or fixed-range elements
     if (!r.noValue) {
       for (let i = 1; i < r.grid.length; i++) {
@@ -613,11 +335,16 @@ function removeElement(xml: string, local: string, match: (attrs: Map<string, st
   return xml;
 }
 
+/** True when a formula's text holds our names in a form other than Excel's stored form. */
+function needsStoredForm(text: string): boolean {
+  return /soil\./i.test(text) || /_xldudf_(?!SOIL_)[sS][oO][iI][lL]_/.test(text) || /_xldudf_SOIL_[A-Z0-9_]*[a-z]/.test(text) || text.includes("#");
+}
+
 /** When two writes name one cell, the formula wins. */
 function dedupe(writes: CellWrite[]): CellWrite[] {
-  const byCell = new Map<string, CellWrite>();
+  const byCell = new Map<number, CellWrite>();
   for (const w of writes) {
-    const k = `${w.row}:${w.col}`;
+    const k = w.row * 16384 + w.col;
     const prior = byCell.get(k);
     if (!prior || (prior.kind !== "formula" && w.kind === "formula") || (prior.kind === "clear" && w.kind === "value")) byCell.set(k, w);
   }

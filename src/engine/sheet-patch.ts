@@ -4,7 +4,7 @@
  * re-serialised (from their own markup, re-read with the tokenizer), new cells and rows are
  * inserted where they belong, and every other byte of the part is kept as it was.
  */
-import type { Sheet } from "./book";
+import type { Cell, Sheet } from "./book";
 import { a1 } from "./cellref";
 import { Scalar, XlError } from "./formula/values";
 import { Tok, XmlScanner, encodeXmlText } from "./xml";
@@ -25,6 +25,8 @@ export type CellWrite =
       readonly value: Scalar | undefined;
       /** Rewrite the <f> as a dynamic-array formula (text in stored form; undefined keeps the file's text). */
       readonly dynamic?: DynamicFormula;
+      /** The cell as read, when the file has it (its markup's offsets make the rewrite cheap). */
+      readonly cell?: Cell;
     }
   | { readonly kind: "value"; readonly row: number; readonly col: number; readonly value: Scalar }
   | { readonly kind: "clear"; readonly row: number; readonly col: number };
@@ -90,11 +92,59 @@ function typeAndValue(v: Scalar, p: string, formula: boolean): { t?: string; bod
   return { t: "str", body: `<${p}v>${encodeXmlText(v)}</${p}v>` };
 }
 
+/**
+ * A start tag with some attributes dropped and others added; the kept ones exactly as written.
+ * The tag was delimited by the tokenizer, so its attribute values are quoted and hold no '<'.
+ */
+function rewriteStartTag(tag: string, drop: (name: string) => boolean, add: string): string {
+  let i = 1;
+  while (i < tag.length && !/[\s/>]/.test(tag[i] as string)) i++;
+  let out = tag.slice(0, i);
+  for (;;) {
+    while (i < tag.length && /\s/.test(tag[i] as string)) i++;
+    if (i >= tag.length || tag[i] === ">" || tag[i] === "/") break;
+    const a = i;
+    while (i < tag.length && tag[i] !== "=" && !/\s/.test(tag[i] as string)) i++;
+    const name = tag.slice(a, i);
+    while (tag[i] !== '"' && tag[i] !== "'") i++;
+    const q = tag[i] as string;
+    const close = tag.indexOf(q, i + 1);
+    i = close + 1;
+    if (!drop(name)) out += ` ${tag.slice(a, i)}`;
+  }
+  return `${out}${add}>`;
+}
+
+const TYPE_ATTRS = (name: string) => name === "t" || name === "cm" || name === "vm";
+
+/** A formula cell rewritten from its own markup's offsets: start tag, <f> kept or rewritten, new value. */
+function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, xml: string, cell: Cell, p: string): string {
+  const span = cell.formula!.span;
+  let add = "";
+  let f: string;
+  if (w.dynamic) {
+    const inner = w.dynamic.text !== undefined ? encodeXmlText(w.dynamic.text) : xml.slice(span.fOpen, span.fClose);
+    f = `<${p}f t="array" ref="${w.dynamic.ref}">${inner}</${p}f>`;
+    if (w.dynamic.cm !== undefined) add += ` cm="${w.dynamic.cm}"`;
+  } else {
+    f = xml.slice(span.f, span.fEnd);
+  }
+  const tag = xml.slice(cell.start, span.open);
+  const keepCm = !w.dynamic ? /\scm=/.test(tag) : false;
+  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
+  if ("t" in tv && tv.t) add += ` t="${tv.t}"`;
+  const start = rewriteStartTag(tag.endsWith("/>") ? `${tag.slice(0, -2)}>` : tag, (n) => n === "t" || n === "vm" || (n === "cm" && !keepCm), add);
+  return `${start}${f}${tv.body}</${p}c>`;
+}
+
 /** Serialises one cell: its own attributes kept (type, cm and vm recomputed), its formula kept or rewritten. */
-export function cellXml(w: CellWrite, old: string | undefined, prefix: string): string {
+export function cellXml(w: CellWrite, old: string | undefined, prefix: string, xml?: string): string {
+  if (w.kind === "formula" && w.cell && xml !== undefined && w.cell.formula?.span.simple && w.cell.formula.span.f >= 0) {
+    return formulaCellFast(w, xml, w.cell, prefix ? `${prefix}:` : "");
+  }
   const p = prefix ? `${prefix}:` : "";
   const parts = old ? cellParts(old) : { attrs: [["r", a1({ row: w.row, col: w.col })]] as [string, string][], keep: [] as string[] };
-  const attrs = new Map(parts.attrs.filter(([k]) => k !== "t" && k !== "cm" && k !== "vm"));
+  const attrs = new Map(parts.attrs.filter(([k]) => !TYPE_ATTRS(k)));
   if (!attrs.has("r")) attrs.set("r", a1({ row: w.row, col: w.col }));
   if (w.kind === "clear") {
     return `<${p}c${attrText(attrs)}/>`;
@@ -133,9 +183,9 @@ function rowOpen(xml: string, start: number, openEnd: number): { open: string; n
   return { open: `<${s.name}${attrText(attrs)}>`, name: s.name };
 }
 
-/** Applies `writes` to a worksheet part's XML. */
-export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): string {
-  if (writes.length === 0) return sheet.xml;
+/** Applies `writes` to a worksheet part's XML, as UTF-8 bytes. */
+export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): Buffer {
+  if (writes.length === 0) return Buffer.from(sheet.xml, "utf8");
   const xml = sheet.xml;
   const sd = sheet.sheetData;
   if (!sd) throw new Error("worksheet has no sheetData");
@@ -166,7 +216,7 @@ export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): strin
     for (const w of ws) {
       const cell = existing[w.col];
       if (cell) {
-        edits.push({ start: cell.start, end: cell.end, text: cellXml(w, xml.slice(cell.start, cell.end), sd.prefix) });
+        edits.push({ start: cell.start, end: cell.end, text: cellXml(w, xml.slice(cell.start, cell.end), sd.prefix, xml) });
         continue;
       }
       if (w.kind === "clear") continue;
@@ -206,12 +256,37 @@ export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): strin
   }
   // Insertions at an offset go before a replacement starting there.
   edits.sort((a, b) => a.start - b.start || a.end - a.start - (b.end - b.start));
-  let out = "";
+  const out = new Utf8Writer();
   let at = 0;
   for (const e of edits) {
     if (e.start < at) throw new Error("overlapping edits to the sheet");
-    out += xml.slice(at, e.start) + e.text;
+    out.add(xml.slice(at, e.start));
+    out.add(e.text);
     at = e.end;
   }
-  return out + xml.slice(at);
+  out.add(xml.slice(at));
+  return out.toBuffer();
+}
+
+/** Collects text as UTF-8 bytes in blocks, so a part larger than a JavaScript string can hold can still be written. */
+export class Utf8Writer {
+  private readonly blocks: Buffer[] = [];
+  private pending: string[] = [];
+  private pendingLength = 0;
+  add(s: string): void {
+    if (!s) return;
+    this.pending.push(s);
+    this.pendingLength += s.length;
+    if (this.pendingLength > 1 << 22) this.flush();
+  }
+  private flush(): void {
+    if (!this.pending.length) return;
+    this.blocks.push(Buffer.from(this.pending.join(""), "utf8"));
+    this.pending = [];
+    this.pendingLength = 0;
+  }
+  toBuffer(): Buffer {
+    this.flush();
+    return this.blocks.length === 1 ? (this.blocks[0] as Buffer) : Buffer.concat(this.blocks);
+  }
 }

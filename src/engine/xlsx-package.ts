@@ -62,8 +62,8 @@ export interface XlsxPackage {
   /** A part's text (UTF-8), or undefined when the package has no such part. */
   text(path: string): string | undefined;
   has(path: string): boolean;
-  /** Replaces (or adds) a part. */
-  write(path: string, text: string): void;
+  /** Replaces (or adds) a part (text, or UTF-8 bytes). */
+  write(path: string, text: string | Buffer): void;
   /** Leaves a part out of the written package. */
   remove(path: string): void;
   toBuffer(): Buffer;
@@ -154,9 +154,14 @@ export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
     }
     if (XML_PART.test(e.name) || e.name === "[Content_Types].xml") texts.set(e.name, decodeUtf8(data, e.name));
   }
-  const replaced = new Map<string, string>();
+  const replaced = new Map<string, string | Buffer>();
   const removed = new Set<string>();
-  const text = (p: string) => (removed.has(p) ? undefined : (replaced.get(p) ?? texts.get(p)));
+  const text = (p: string) => {
+    if (removed.has(p)) return undefined;
+    const r = replaced.get(p);
+    if (r === undefined) return texts.get(p);
+    return typeof r === "string" ? r : r.toString("utf8");
+  };
 
   const root = readRelationships(text("_rels/.rels"));
   const office = root.find((r) => r.type.endsWith("/officeDocument") && !r.external);
@@ -214,12 +219,14 @@ export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
     toBuffer() {
       const out: ZipOut[] = entries
         .filter((e) => !removed.has(e.name))
-        .map((e) => (replaced.has(e.name) ? { name: e.name, data: Buffer.from(replaced.get(e.name) as string, "utf8") } : { name: e.name, copy: e }));
-      for (const [p, t] of replaced) if (!byName.has(p)) out.push({ name: p, data: Buffer.from(t, "utf8") });
+        .map((e) => (replaced.has(e.name) ? { name: e.name, data: asBytes(replaced.get(e.name) as string | Buffer) } : { name: e.name, copy: e }));
+      for (const [p, t] of replaced) if (!byName.has(p)) out.push({ name: p, data: asBytes(t) });
       return writeZip(out);
     },
   };
 }
+
+const asBytes = (t: string | Buffer) => (typeof t === "string" ? Buffer.from(t, "utf8") : t);
 
 function decodeUtf8(data: Buffer, name: string): string {
   // A byte-order mark is allowed; UTF-16 parts are not something Excel writes.
