@@ -16,7 +16,7 @@
 import crypto from "crypto";
 import fs from "fs";
 import path from "path";
-import { Book, Cell, readBook } from "./book";
+import { Book, Cell, Sheet, readBook } from "./book";
 import { a1, rangeA1 } from "./cellref";
 import { Ctx, Host, ResourceLimit, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
 import "./formula/functions";
@@ -24,7 +24,7 @@ import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./fo
 import { toStoredFormula, toTypedFormula } from "./formula-text";
 import { Plan, Planned, planRecalc } from "./plan";
 import { Circular, RecalcHost } from "./host";
-import { CellWrite, DynamicFormula, patchSheetXml } from "./sheet-patch";
+import { CellWrite, DynamicFormula, cellXml, rewriteSheet } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
 import { Tok, XmlScanner, encodeXmlText as encodeXml } from "./xml";
 import { soilcellVersion } from "../core/about";
@@ -144,14 +144,9 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     throw e;
   }
 
-  const { writes, errors, kept, soilCells, spilled, computed } = collectWrites(book, plan, host, pkg, options.values === true);
-  if (options.values) markValuesCopy(pkg);
   say(`writing ${path.basename(output)}`);
-  for (const sheet of book.sheets) {
-    const w = writes.get(sheet.index);
-    if (!w || w.length === 0) continue;
-    pkg.write(sheet.path, asFileError(`sheet "${sheet.name}" cannot be updated`, () => patchSheetXml(sheet, dedupe(w))));
-  }
+  const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
+  if (options.values) markValuesCopy(pkg);
   writeAtomically(output, pkg.toBuffer());
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
@@ -169,68 +164,42 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   };
 }
 
-function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage, values: boolean) {
-  const writes = new Map<number, CellWrite[]>();
-  const errors: CellProblem[] = [];
+/**
+ * Writes every computed cell into its sheet, one sheet at a time: each planned cell's markup is
+ * made as the sheet is walked (nothing per cell is kept for the whole workbook), spilled elements
+ * and cleared cells beside it; everything else is copied as it was.
+ */
+function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage, values: boolean) {
+  const problems: { sheet: number; row: number; col: number; p: CellProblem }[] = [];
   const kept: CellProblem[] = [];
   let soilCells = 0;
   let spilled = 0;
   let computed = 0;
   let cm: number | undefined | null = null;
   let formsChanged = false;
-  const ordered = [...plan.order].sort((a, b) => a.sheet - b.sheet || a.cell.row - b.cell.row || a.cell.col - b.cell.col);
-  for (const p of ordered) {
-    const sheet = book.sheets[p.sheet]!;
-    const list = writes.get(p.sheet) ?? [];
-    writes.set(p.sheet, list);
+
+  // Spilled elements, fixed-range elements and cleared cells: few; collected per sheet.
+  const extras = new Map<number, CellWrite[]>();
+  for (const p of plan.order) {
     const r = host.result(p);
+    if (r.keep || r.noValue) continue;
     const f = p.cell.formula!;
-    const typed = () => cut(`=${toTypedFormula(f.text)}`, MAX_FORMULA);
-    const problem = (row: number, col: number, v: XlError) =>
-      errors.push({ sheet: sheet.name, cell: a1({ row, col }), formula: typed(), error: v instanceof Circular ? "#CYCLE!" : v.code, message: cut(v.message, MAX_MESSAGE) });
-    if (r.keep) continue;
-    const top = r.grid[0] as Scalar;
-    if (r.noValue && !(top instanceof Circular)) {
-      kept.push({ sheet: sheet.name, cell: a1(p.cell), formula: typed(), error: (top as XlError).code, message: cut((top as XlError).message, MAX_MESSAGE) });
-      continue;
-    }
-    computed++;
-    if (p.soil) soilCells++;
+    const old = f.ref;
+    if (r.grid.length === 1 && !(old && (f.form === "dynamic" || f.form === "array") && (old.r2 > old.r1 || old.c2 > old.c1))) continue;
+    const sheet = book.sheets[p.sheet]!;
+    const list = extras.get(p.sheet) ?? [];
+    extras.set(p.sheet, list);
     const area = r.area;
     const width = area.c2 - area.c1 + 1;
-    // The anchor
-    const value = r.noValue ? undefined : writable(top);
-    if (isError(top)) problem(p.cell.row, p.cell.col, top);
-    let dynamic: DynamicFormula | undefined;
-    const converts = !(values && p.soil) && p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array");
-    if (converts) {
-      if (cm === null) cm = dynamicArrayIndex(pkg);
-      dynamic = {
-        // Only our own names are rewritten, and only when the file has them another way (typed, or lower-cased).
-        text: p.soil && needsStoredForm(f.text) ? toStoredFormula(f.text) : undefined,
-        ref: rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, width),
-        ...(cm !== undefined ? { cm } : {}),
-      };
-      if (f.form !== "dynamic" || !f.ref || f.ref.r2 !== area.r2 || f.ref.c2 !== area.c2 || p.soil) formsChanged = true;
-    }
-    if (values && p.soil) {
-      // A values copy: the SOIL formula gives way to its value, so any program shows the number.
-      list.push({ kind: "value", row: p.cell.row, col: p.cell.col, value: value ?? null });
-      formsChanged = true;
-    } else list.push({ kind: "formula", row: p.cell.row, col: p.cell.col, value, cell: p.cell, ...(dynamic ? { dynamic } : {}) });
-    // Spilled or fixed-range elements
-    if (!r.noValue) {
-      for (let i = 1; i < r.grid.length; i++) {
-        const row = area.r1 + Math.floor(i / width);
-        const col = area.c1 + (i % width);
-        const v = r.grid[i] as Scalar;
-        if (isError(v)) problem(row, col, v);
-        list.push({ kind: "value", row, col, value: writable(v) ?? null });
-        if (p.soil) spilled++;
-      }
+    for (let i = 1; i < r.grid.length; i++) {
+      const row = area.r1 + Math.floor(i / width);
+      const col = area.c1 + (i % width);
+      const v = r.grid[i] as Scalar;
+      if (isError(v)) problems.push({ sheet: p.sheet, row, col, p: problemOf(sheet.name, row, col, f.text, v) });
+      list.push({ kind: "value", row, col, value: writable(v) ?? null });
+      if (p.soil) spilled++;
     }
     // Cells the formula covered in the file but no longer fills are cleared.
-    const old = f.ref;
     if (old && (f.form === "dynamic" || f.form === "array")) {
       for (let row = old.r1; row <= Math.min(old.r2, sheet.rows.length - 1); row++) {
         const cells = sheet.rows[row];
@@ -244,8 +213,67 @@ function collectWrites(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackag
       }
     }
   }
+
+  /** The new markup of a planned cell, or undefined to keep it as it is. */
+  const anchor = (sheet: Sheet, p: Planned, xml: string, prefix: string): string | undefined => {
+    const r = host.result(p);
+    const f = p.cell.formula!;
+    if (r.keep) return undefined;
+    const top = r.grid[0] as Scalar;
+    if (r.noValue && !(top instanceof Circular)) {
+      kept.push({ sheet: sheet.name, cell: a1(p.cell), formula: typedOf(f.text), error: (top as XlError).code, message: cut((top as XlError).message, MAX_MESSAGE) });
+      return undefined;
+    }
+    computed++;
+    if (p.soil) soilCells++;
+    const area = r.area;
+    const value = r.noValue ? undefined : writable(top);
+    if (isError(top)) problems.push({ sheet: p.sheet, row: p.cell.row, col: p.cell.col, p: problemOf(sheet.name, p.cell.row, p.cell.col, f.text, top) });
+    if (values && p.soil) {
+      // A values copy: the SOIL formula gives way to its value, so any program shows the number.
+      formsChanged = true;
+      return cellXml({ kind: "value", row: p.cell.row, col: p.cell.col, value: value ?? null }, xml.slice(p.cell.start, p.cell.end), prefix);
+    }
+    let dynamic: DynamicFormula | undefined;
+    if (p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array")) {
+      if (cm === null) cm = dynamicArrayIndex(pkg);
+      dynamic = {
+        // Only our own names are rewritten, and only when the file has them another way (typed, or lower-cased).
+        text: p.soil && needsStoredForm(f.text) ? toStoredFormula(f.text) : undefined,
+        ref: rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, area.c2 - area.c1 + 1),
+        ...(cm !== undefined ? { cm } : {}),
+      };
+      if (f.form !== "dynamic" || !f.ref || f.ref.r2 !== area.r2 || f.ref.c2 !== area.c2 || dynamic.text !== undefined) formsChanged = true;
+    }
+    const w: CellWrite = { kind: "formula", row: p.cell.row, col: p.cell.col, value, cell: p.cell, ...(dynamic ? { dynamic } : {}) };
+    return cellXml(w, xml.slice(p.cell.start, p.cell.end), prefix, xml);
+  };
+
+  for (const sheet of book.sheets) {
+    if (!sheet.isWorksheet) continue;
+    const list = extras.get(sheet.index) ?? [];
+    const hasPlanned = sheet.formulaCells.some((c) => c.planId >= 0);
+    if (!hasPlanned && !list.length) continue;
+    const bytes = asFileError(`sheet "${sheet.name}" cannot be updated`, () =>
+      rewriteSheet(sheet, (cell, xml, prefix) => anchor(sheet, planOf(plan, sheet.index, cell) as Planned, xml, prefix), dedupe(list)),
+    );
+    pkg.write(sheet.path, bytes);
+  }
   if (formsChanged) dropCalcChain(pkg);
-  return { writes, errors, kept, soilCells, spilled, computed };
+  problems.sort((x, y) => x.sheet - y.sheet || x.row - y.row || x.col - y.col);
+  return { errors: problems.map((x) => x.p), kept, soilCells, spilled, computed };
+}
+
+function planOf(plan: Plan, sheet: number, cell: Cell): Planned | undefined {
+  return plan.at(sheet, cell.row, cell.col);
+}
+
+function typedOf(text: string): string {
+  return cut(`=${toTypedFormula(text)}`, MAX_FORMULA);
+}
+
+function problemOf(sheet: string, row: number, col: number, text: string, v: XlError): CellProblem {
+  return { sheet, cell: a1({ row, col }), formula: typedOf(text), error: v instanceof Circular ? "#CYCLE!" : v.code, message: cut(v.message, MAX_MESSAGE) };
 }
 
 const CUSTOM_PROPS = "docProps/custom.xml";

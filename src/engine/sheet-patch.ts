@@ -131,6 +131,7 @@ function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, xml: string
   }
   const tag = xml.slice(cell.start, span.open);
   const keepCm = !w.dynamic ? /\scm=/.test(tag) : false;
+  if (!/\sr=/.test(tag)) add = ` r="${a1({ row: w.row, col: w.col })}"${add}`; // the position, written out
   const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
   if ("t" in tv && tv.t) add += ` t="${tv.t}"`;
   const start = rewriteStartTag(tag.endsWith("/>") ? `${tag.slice(0, -2)}>` : tag, (n) => n === "t" || n === "vm" || (n === "cm" && !keepCm), add);
@@ -186,6 +187,41 @@ function rowOpen(xml: string, start: number, openEnd: number): { open: string; n
 /** Applies `writes` to a worksheet part's XML, as UTF-8 bytes. */
 export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): Buffer {
   if (writes.length === 0) return Buffer.from(sheet.xml, "utf8");
+  return applyEdits(sheet.xml, sheetEdits(sheet, writes));
+}
+
+/**
+ * Rewrites a worksheet: each planned cell (planId ≥ 0) gets the markup `replace` makes for it,
+ * as the sheet is walked in order (nothing per cell is kept for the whole sheet); `extras`
+ * (spilled elements, cleared cells) are applied beside them; every other byte is copied.
+ */
+export function rewriteSheet(sheet: Sheet, replace: (cell: Cell, xml: string, prefix: string) => string | undefined, extras: readonly CellWrite[]): Buffer {
+  const xml = sheet.xml;
+  const sd = sheet.sheetData;
+  if (!sd) throw new Error("worksheet has no sheetData");
+  const edits = extras.length ? sheetEdits(sheet, extras.filter((w) => !((sheet.rows[w.row]?.[w.col]?.planId ?? -1) >= 0))) : [];
+  const out = new Utf8Writer();
+  let at = 0;
+  let ei = 0;
+  const take = (e: Edit) => {
+    if (e.start < at) throw new Error("overlapping edits to the sheet");
+    out.add(xml.slice(at, e.start));
+    out.add(e.text);
+    at = e.end;
+  };
+  for (const cell of sheet.formulaCells) {
+    if (cell.planId < 0) continue;
+    // Edits before this cell (an insertion at its very start goes first).
+    while (ei < edits.length && ((edits[ei] as Edit).start < cell.start || ((edits[ei] as Edit).start === cell.start && (edits[ei] as Edit).end === cell.start))) take(edits[ei++] as Edit);
+    const text = replace(cell, xml, sd.prefix);
+    if (text !== undefined) take({ start: cell.start, end: cell.end, text });
+  }
+  while (ei < edits.length) take(edits[ei++] as Edit);
+  out.add(xml.slice(at));
+  return out.toBuffer();
+}
+
+function sheetEdits(sheet: Sheet, writes: readonly CellWrite[]): Edit[] {
   const xml = sheet.xml;
   const sd = sheet.sheetData;
   if (!sd) throw new Error("worksheet has no sheetData");
@@ -256,6 +292,10 @@ export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): Buffe
   }
   // Insertions at an offset go before a replacement starting there.
   edits.sort((a, b) => a.start - b.start || a.end - a.start - (b.end - b.start));
+  return edits;
+}
+
+function applyEdits(xml: string, edits: readonly Edit[]): Buffer {
   const out = new Utf8Writer();
   let at = 0;
   for (const e of edits) {
