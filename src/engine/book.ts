@@ -595,7 +595,8 @@ function makeCell(
     throw new XmlError(`the array formula in ${where()} covers "${raw.fRef ?? ""}", which does not start at its cell`);
   }
   const span = { open: raw.open, f: raw.fStart, fOpen: raw.fOpen, fClose: raw.fClose, fEnd: raw.fEnd, simple: raw.simple };
-  const formula: Formula = { form, text: raw.fText, originRow: row, originCol: col, span, ...(ref ? { ref } : {}) };
+  // One shape for every formula (no optional fields added later), so the engine's objects stay compact.
+  const formula: Formula = { form, text: raw.fText, originRow: row, originCol: col, span, ref, node: undefined, syntaxError: undefined };
   const cell: Cell = { row, col, value, cached, formula, start, end, planId: -1 };
   if (form === "shared") {
     const si = raw.fSi ?? "";
