@@ -6,71 +6,14 @@
  * a shared-string index that does not exist) is refused, never guessed.
  */
 import { a1, parseA1 } from "./cellref";
+import { CellStore, Form, FormulaStore, RowStore } from "./store";
 import { FormulaSyntaxError, T, Token, tokenize } from "./formula/lexer";
 import { NameMap, Node, parseFormula, parseTokens } from "./formula/parser";
 import { ErrorCode, Rect, Scalar, XlError, isErrorCode, MAX_COLS, MAX_ROWS } from "./formula/values";
-import { MAIN_NS, Tok, XmlError, XmlScanner, prefixFor } from "./xml";
+import { MAIN_NS, Tok, XmlError, XmlScanner, decodeXmlText, prefixFor } from "./xml";
 import { WorkbookFileError, XlsxPackage, asFileError, dynamicArrayCms, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
 
-/** How a formula is stored, which decides how Excel evaluates it. */
-export type FormulaForm =
-  /** A plain <f>: a legacy formula (implicit intersection where legacy Excel applied it). */
-  | "plain"
-  /** A member of a shared formula (filled down or across): legacy, like plain. */
-  | "shared"
-  /** A legacy array (CSE) formula over a fixed range. */
-  | "array"
-  /** An Excel 365 dynamic-array formula (cm pointing at XLDAPR metadata): spills to fit. */
-  | "dynamic"
-  /** A what-if data table: not computed headless. */
-  | "table";
-
-export interface Formula {
-  readonly form: FormulaForm;
-  /** The formula text as stored (for a shared member, its master's text). */
-  readonly text: string;
-  /** Where `text` was written (a shared member's master); the tree's relative references are from here. */
-  readonly originRow: number;
-  readonly originCol: number;
-  /** The range an array, dynamic or shared-master formula covers in the file. */
-  readonly ref?: Rect;
-  /** The syntax tree, or the reason the text could not be parsed. */
-  node?: Node;
-  syntaxError?: string;
-  /**
-   * Where the cell's markup is, for a writer that rewrites only what changes: the end of the <c>
-   * start tag, and the <f> element's start, the end of its start tag, the start of its end tag and
-   * its end. `simple` is false when the cell holds anything besides <f>, <v> and <is> (comments,
-   * extensions), which a writer must then keep.
-   */
-  readonly span: { readonly open: number; readonly f: number; readonly fOpen: number; readonly fClose: number; readonly fEnd: number; readonly simple: boolean };
-}
-
-export interface Cell {
-  readonly row: number;
-  readonly col: number;
-  /** The value the file caches (a formula's last result); null when none. */
-  readonly value: Scalar;
-  /** True when the file caches a value (a formula without one is computed). */
-  readonly cached: boolean;
-  readonly formula?: Formula;
-  /** Offsets of the whole <c> element in the sheet part. */
-  readonly start: number;
-  readonly end: number;
-  /** The planner's index for a cell it computes, -1 otherwise (set by the planner). */
-  planId: number;
-}
-
-export interface RowSpan {
-  readonly row: number;
-  readonly start: number;
-  /** End of the <row …> start tag. */
-  readonly openEnd: number;
-  /** Start of </row> (equal to `end` for a self-closing row). */
-  readonly closeStart: number;
-  readonly end: number;
-  readonly selfClosing: boolean;
-}
+export { Form, Kind } from "./store";
 
 export interface Sheet {
   readonly name: string;
@@ -78,13 +21,12 @@ export interface Sheet {
   readonly path: string;
   readonly isWorksheet: boolean;
   readonly xml: string;
-  /** Rows of cells, sparse: rows[r]?.[c]. */
-  readonly rows: (Cell | undefined)[][];
-  readonly rowSpans: RowSpan[];
+  readonly cells: CellStore;
+  readonly formulas: FormulaStore;
+  readonly rowSpans: RowStore;
   /** The sheetData element: where rows go when a sheet has none yet. */
   readonly sheetData?: { readonly start: number; readonly openEnd: number; readonly closeStart: number; readonly selfClosing: boolean; readonly prefix: string };
   readonly merges: Rect[];
-  readonly formulaCells: Cell[];
 }
 
 export interface DefinedName {
@@ -104,7 +46,14 @@ export interface Book {
   sheetIndex(name: string): number | undefined;
   /** A defined name visible from a sheet (its own scope first, then the workbook's). */
   definedName(name: string, fromSheet: number): DefinedName | undefined;
-  cell(sheet: number, row: number, col: number): Cell | undefined;
+}
+
+/** A formula's text, decoded (a shared member's is its master's). */
+export function formulaText(sheet: Sheet, i: number): string {
+  const fs = sheet.formulas;
+  const m = fs.master[i] as number;
+  const j = m >= 0 ? m : i;
+  return decodeXmlText(sheet.xml.slice(fs.fOpen[j] as number, fs.fClose[j] as number));
 }
 
 /** Reads every worksheet of a package. */
@@ -117,7 +66,9 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
   const cache = new Map<string, Node>();
   const sheets: Sheet[] = pkg.sheets.map((part) => {
     if (part.kind !== "worksheet") {
-      return { name: part.name, index: part.index, path: part.path, isWorksheet: false, xml: "", rows: [], rowSpans: [], merges: [], formulaCells: [] };
+      const cells = new CellStore();
+      cells.finish();
+      return { name: part.name, index: part.index, path: part.path, isWorksheet: false, xml: "", cells, formulas: new FormulaStore(), rowSpans: new RowStore(), merges: [] };
     }
     const xml = pkg.text(part.path) as string;
     return asFileError(`sheet "${part.name}" cannot be read`, () => readSheet(part.name, part.index, part.path, xml, strings, dynamicCms, pkg.date1904, names, cache));
@@ -143,7 +94,6 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
     date1904: pkg.date1904,
     sheetIndex: (name) => byName.get(name.toUpperCase()),
     definedName: (name, from) => nameIndex.get(`${from}|${name.toUpperCase()}`) ?? nameIndex.get(`|${name.toUpperCase()}`),
-    cell: (sheet, row, col) => sheets[sheet]?.rows[row]?.[col],
   };
 }
 
@@ -319,14 +269,14 @@ function readSheet(
   cache: Map<string, Node>,
 ): Sheet {
   const s = new XmlScanner(xml);
-  const rows: (Cell | undefined)[][] = [];
-  const rowSpans: RowSpan[] = [];
+  const cells = new CellStore();
+  const formulas = new FormulaStore();
+  const rowSpans = new RowStore();
   const merges: Rect[] = [];
-  const formulaCells: Cell[] = [];
   let sheetData: Sheet["sheetData"];
   // Shared formula masters by si, and members waiting for theirs.
-  const masters = new Map<string, { text: string; row: number; col: number }>();
-  const pendingShared: { cell: Cell; si: string }[] = [];
+  const masters = new Map<string, number>();
+  const pendingShared: { formula: number; si: string }[] = [];
 
   let main: string | undefined;
   let t = s.next();
@@ -335,6 +285,7 @@ function readSheet(
   main = prefixFor(s.attrs(), MAIN_NS);
   if (main === undefined) throw new XmlError("the worksheet is not in the SpreadsheetML namespace");
   const isMain = () => s.prefix === main;
+  const raw: RawCell = { open: 0, fStart: -1, fOpen: -1, fClose: -1, fEnd: -1, simple: true };
 
   let lastRow = -1;
   for (t = s.next(); t !== Tok.End; t = s.next()) {
@@ -380,11 +331,10 @@ function readSheet(
       lastRow = row;
       const openEnd = s.end;
       if (s.selfClosing) {
-        rowSpans.push({ row, start: rowStart, openEnd, closeStart: openEnd, end: openEnd, selfClosing: true });
+        rowSpans.add(row, rowStart, openEnd, openEnd, openEnd, true);
         continue;
       }
       let lastCol = -1;
-      const cells: (Cell | undefined)[] = [];
       for (t = s.next(); ; t = s.next()) {
         if (t === Tok.End) throw new XmlError("a row is not closed");
         if (t === Tok.Close) break;
@@ -403,43 +353,64 @@ function readSheet(
         let col: number;
         if (r === undefined) col = lastCol + 1;
         else {
-          const at = /^([A-Za-z]{1,3})(\d+)$/.exec(r);
-          if (!at) throw new XmlError(`cell reference "${r}" is not a cell`);
-          const p = parseA1(r);
+          const p = cellRefIn(r);
+          if (!p) throw new XmlError(`cell reference "${r}" is not a cell`);
           if (p.row !== row) throw new XmlError(`cell ${r} is inside row ${row + 1}`);
           col = p.col;
         }
         if (col >= MAX_COLS) throw new XmlError(`cell column beyond XFD in row ${row + 1}`);
         if (col <= lastCol) throw new XmlError(`cells of row ${row + 1} are out of order`);
         lastCol = col;
-        const raw: RawCell = { open: s.end, fStart: -1, fOpen: -1, fClose: -1, fEnd: -1, simple: true, t: s.attr("t"), cm: s.attr("cm") };
+        raw.open = s.end;
+        raw.fStart = raw.fOpen = raw.fClose = raw.fEnd = -1;
+        raw.simple = true;
+        raw.t = s.attr("t");
+        raw.cm = s.attr("cm");
+        raw.fText = raw.fType = raw.fRef = raw.fSi = raw.v = raw.inline = undefined;
         if (!s.selfClosing) readCellBody(s, raw, isMain, row, col);
-        const cell = makeCell(raw, row, col, cellStart, s.end, strings, dynamicCms, date1904, names, cache, masters, pendingShared);
-        cells[col] = cell;
-        if (cell.formula) formulaCells.push(cell);
+        const k = cells.add(row, col, cellStart, s.end);
+        storeCell(cells, formulas, k, raw, row, col, strings, dynamicCms, date1904, names, cache, masters, pendingShared);
       }
-      rows[row] = cells;
-      rowSpans.push({ row, start: rowStart, openEnd, closeStart: s.start, end: s.end, selfClosing: false });
+      rowSpans.add(row, rowStart, openEnd, s.start, s.end, false);
     }
   }
+  cells.finish();
   // Shared members take their master's text; the master's tree serves them all.
   for (const p of pendingShared) {
     const m = masters.get(p.si);
-    const f = p.cell.formula as Formula & { text: string; originRow: number; originCol: number };
-    if (!m) {
-      f.syntaxError = `shared formula ${p.si} has no master cell`;
+    if (m === undefined) {
+      formulas.syntaxError.set(p.formula, `shared formula ${p.si} has no master cell`);
       continue;
     }
-    (f as { text: string }).text = m.text;
-    (f as { originRow: number }).originRow = m.row;
-    (f as { originCol: number }).originCol = m.col;
-    try {
-      f.node = parseShared(m.text, m.row, m.col, names, cache);
-    } catch (e) {
-      f.syntaxError = (e as Error).message;
-    }
+    formulas.master[p.formula] = m;
+    formulas.originRow[p.formula] = formulas.originRow[m] as number;
+    formulas.originCol[p.formula] = formulas.originCol[m] as number;
+    const node = formulas.node[m];
+    if (node) formulas.node[p.formula] = node;
+    else formulas.syntaxError.set(p.formula, formulas.syntaxError.get(m) ?? "its shared formula cannot be read");
   }
-  return { name, index, path, isWorksheet: true, xml, rows, rowSpans, sheetData, merges, formulaCells };
+  return { name, index, path, isWorksheet: true, xml, cells, formulas, rowSpans, sheetData, merges };
+}
+
+/** "B12" → its position, or undefined (no regular expression per cell: this runs for every cell). */
+function cellRefIn(r: string): { row: number; col: number } | undefined {
+  let i = 0;
+  let col = 0;
+  while (i < r.length) {
+    const c = r.charCodeAt(i) | 32;
+    if (c < 97 || c > 122) break;
+    col = col * 26 + (c - 96);
+    i++;
+  }
+  if (i === 0 || i > 3 || i === r.length) return undefined;
+  let row = 0;
+  for (; i < r.length; i++) {
+    const c = r.charCodeAt(i);
+    if (c < 48 || c > 57) return undefined;
+    row = row * 10 + (c - 48);
+  }
+  if (row < 1) return undefined;
+  return { row: row - 1, col: col - 1 };
 }
 
 function readCellBody(s: XmlScanner, raw: RawCell, isMain: () => boolean, row: number, col: number): void {
@@ -514,109 +485,102 @@ function readInline(s: XmlScanner): string {
   }
 }
 
-function makeCell(
+function storeCell(
+  cells: CellStore,
+  formulas: FormulaStore,
+  k: number,
   raw: RawCell,
   row: number,
   col: number,
-  start: number,
-  end: number,
   strings: readonly string[],
   dynamicCms: Set<number>,
   date1904: boolean,
   names: NameMap,
   cache: Map<string, Node>,
-  masters: Map<string, { text: string; row: number; col: number }>,
-  pendingShared: { cell: Cell; si: string }[],
-): Cell {
+  masters: Map<string, number>,
+  pendingShared: { formula: number; si: string }[],
+): void {
   const where = () => a1({ row, col });
-  let value: Scalar = null;
-  let cached = false;
   const type = raw.t ?? "n";
   if (type === "inlineStr") {
-    if (raw.inline !== undefined) {
-      value = raw.inline;
-      cached = true;
-    }
+    if (raw.inline !== undefined) cells.setText(k, raw.inline);
   } else if (raw.v !== undefined) {
-    cached = true;
     switch (type) {
       case "n": {
         const text = raw.v.trim();
-        if (text === "") {
-          value = null;
-          cached = false;
-          break;
-        }
+        if (text === "") break; // no cached value
         const n = Number(text);
         if (!Number.isFinite(n)) throw new XmlError(`cell ${where()} holds "${raw.v}", which is not a number`);
-        value = n;
+        cells.setNumber(k, n);
         break;
       }
       case "s": {
         const i = Number(raw.v.trim());
         if (!Number.isInteger(i) || i < 0 || i >= strings.length) throw new XmlError(`cell ${where()} points at shared string ${raw.v}, which does not exist`);
-        value = strings[i] as string;
+        cells.setText(k, strings[i] as string);
         break;
       }
       case "str":
-        value = raw.v;
+        cells.setText(k, raw.v);
         break;
       case "b":
-        value = raw.v.trim() === "1" || raw.v.trim().toLowerCase() === "true";
+        cells.setBool(k, raw.v.trim() === "1" || raw.v.trim().toLowerCase() === "true");
         break;
       case "e": {
         const code = raw.v.trim().toUpperCase();
-        value = new XlError(isErrorCode(code) ? (code as ErrorCode) : "#VALUE!");
+        cells.setError(k, isErrorCode(code) ? (code as ErrorCode) : "#VALUE!");
         break;
       }
       case "d": {
         const serial = isoToSerial(raw.v, date1904);
         if (serial === undefined) throw new XmlError(`cell ${where()} holds the date "${raw.v}", which is not ISO 8601`);
-        value = serial;
+        cells.setNumber(k, serial);
         break;
       }
       default:
         throw new XmlError(`cell ${where()} has an unknown type "${type}"`);
     }
-  } else if (type === "str" && raw.fText !== undefined) {
-    cached = false;
   }
-  if (raw.fText === undefined) return { row, col, value, cached, start, end, planId: -1 };
+  if (raw.fText === undefined) return;
 
   const fType = raw.fType ?? "normal";
-  let form: FormulaForm;
-  if (fType === "shared") form = "shared";
-  else if (fType === "array") form = raw.cm !== undefined && dynamicCms.has(Number(raw.cm)) ? "dynamic" : "array";
-  else if (fType === "dataTable") form = "table";
-  else if (fType === "normal") form = "plain";
+  let form: Form;
+  if (fType === "shared") form = Form.Shared;
+  else if (fType === "array") form = raw.cm !== undefined && dynamicCms.has(Number(raw.cm)) ? Form.Dynamic : Form.Array;
+  else if (fType === "dataTable") form = Form.Table;
+  else if (fType === "normal") form = Form.Plain;
   else throw new XmlError(`cell ${where()} has a formula of unknown type "${fType}"`);
   const ref = parseRef(raw.fRef);
-  if ((form === "array" || form === "dynamic") && (!ref || ref.r1 !== row || ref.c1 !== col)) {
+  if ((form === Form.Array || form === Form.Dynamic) && (!ref || ref.r1 !== row || ref.c1 !== col)) {
     throw new XmlError(`the array formula in ${where()} covers "${raw.fRef ?? ""}", which does not start at its cell`);
   }
-  const span = { open: raw.open, f: raw.fStart, fOpen: raw.fOpen, fClose: raw.fClose, fEnd: raw.fEnd, simple: raw.simple };
-  // One shape for every formula (no optional fields added later), so the engine's objects stay compact.
-  const formula: Formula = { form, text: raw.fText, originRow: row, originCol: col, span, ref, node: undefined, syntaxError: undefined };
-  const cell: Cell = { row, col, value, cached, formula, start, end, planId: -1 };
-  if (form === "shared") {
+  const i = formulas.add(k, form, row, col);
+  cells.formula[k] = i;
+  formulas.open[i] = raw.open;
+  formulas.f[i] = raw.fStart;
+  formulas.fOpen[i] = raw.fOpen;
+  formulas.fClose[i] = raw.fClose;
+  formulas.fEnd[i] = raw.fEnd;
+  formulas.simple[i] = raw.simple ? 1 : 0;
+  if (ref) formulas.ref.set(i, ref);
+  if (form === Form.Shared) {
     const si = raw.fSi ?? "";
     if (raw.fText.trim() !== "") {
       if (masters.has(si)) throw new XmlError(`shared formula ${si} has two masters`);
-      masters.set(si, { text: raw.fText, row, col });
+      masters.set(si, i);
     } else {
-      pendingShared.push({ cell, si });
-      return cell;
+      pendingShared.push({ formula: i, si });
+      return;
     }
   }
-  if (form !== "table") {
+  if (form !== Form.Table) {
     try {
-      formula.node = parseShared(raw.fText, row, col, names, cache);
+      formulas.node[i] = parseShared(raw.fText, row, col, names, cache);
     } catch (e) {
       if (!(e instanceof FormulaSyntaxError)) throw e;
-      formula.syntaxError = e.message;
+      formulas.syntaxError.set(i, e.message);
     }
   }
-  return cell;
 }
 
 export { WorkbookFileError };

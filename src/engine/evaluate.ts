@@ -28,7 +28,6 @@ const EMPTY_BOOK: Book = {
   date1904: false,
   sheetIndex: () => undefined,
   definedName: () => undefined,
-  cell: () => undefined,
 };
 
 const HOST: Host = {

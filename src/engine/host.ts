@@ -4,26 +4,26 @@
  * in. Cells of one dependency level whose formula is one SOIL call over single cells and
  * constants (a column filled down) are computed a column at a time: one binding call for the
  * whole run of cells instead of one per cell, with the same arguments each cell would pass.
+ *
+ * Results of single cells are kept in column arrays (a number costs 8 bytes, not an object);
+ * only spills and fixed ranges have a result object.
  */
-import { Book, Cell } from "./book";
+import { Book, Form } from "./book";
 import { a1, rangeA1 } from "./cellref";
 import { Ctx, Host, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
 import type { Node } from "./formula/parser";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
-import { Plan, Planned } from "./plan";
+import { ModeCode, Plan, Reason } from "./plan";
 import { soilCall } from "./soil";
 import { REGISTRY } from "./registry";
+import { Kind } from "./store";
 
-/** What one computed cell came to. */
-export interface Result {
-  /** The final area it fills (the anchor alone for a single value or a spill error). */
+/** What a spilling or fixed-range cell came to. */
+export interface AreaResult {
+  /** The area it fills. */
   readonly area: Rect;
-  /** Values over the area, row-major (a single value has one). */
+  /** Values over the area, row-major. */
   readonly grid: Scalar[];
-  /** No value to write (a circular reference, or an uncomputable cell kept as cached). */
-  readonly noValue?: boolean;
-  /** Keep the file's cached value (a formula with dynamic references that read nothing recomputed). */
-  readonly keep?: boolean;
 }
 
 export class Circular extends XlError {
@@ -32,25 +32,33 @@ export class Circular extends XlError {
   }
 }
 
-const single = (p: Planned): Rect => ({ r1: p.cell.row, c1: p.cell.col, r2: p.cell.row, c2: p.cell.col });
+/** Flags of a result. */
+const DONE = 1;
+/** No value to write (a circular reference, or an uncomputable cell without a cached value). */
+const NO_VALUE = 2;
+/** Keep the file's cached value (a formula with run-time references that read nothing recomputed). */
+const KEEP = 4;
+const IN_PROGRESS = 8;
 
 export class RecalcHost implements Host {
   readonly date1904: boolean;
   readonly maxCells: number;
-  private readonly results: (Result | undefined)[];
-  private readonly inProgress: Uint8Array;
+  /** Per planned cell: DONE, NO_VALUE, KEEP, IN_PROGRESS flags. */
+  private readonly state: Uint8Array;
+  /** The value of a single-cell result (or the anchor of an area result). */
+  private readonly kind: Uint8Array;
+  private readonly num: Float64Array;
+  private readonly obj: (string | XlError | undefined)[] = [];
+  private readonly areas = new Map<number, AreaResult>();
   private readonly bound: { rows: number; cols: number }[];
+  /** Multi-cell areas computed formulas may fill, per sheet (cells a file may not have yet). */
+  private readonly fill: Rect[][];
   /** Set when an evaluation reads a recomputed cell (per evaluation frame). */
   private touched: boolean[] = [];
   private readonly soilCache = new Map<string, ReturnType<typeof soilCall>>();
   private readonly clock = Date.now();
-  /** The cell being computed, for messages. */
-  private currentCell: Planned | undefined;
-  /** The cell being computed, as "Sheet!A1". */
-  get current(): string | undefined {
-    const p = this.currentCell;
-    return p ? `${this.book.sheets[p.sheet]?.name}!${a1(p.cell)}` : undefined;
-  }
+  /** The planned cell being computed, for messages. */
+  private currentId = -1;
 
   constructor(
     readonly book: Book,
@@ -59,39 +67,142 @@ export class RecalcHost implements Host {
   ) {
     this.date1904 = book.date1904;
     this.maxCells = maxCells;
-    this.results = new Array(plan.order.length);
-    this.inProgress = new Uint8Array(plan.order.length);
-    this.bound = book.sheets.map((s) => {
-      let cols = -1;
-      for (const r of s.rows) if (r && r.length - 1 > cols) cols = r.length - 1;
-      return { rows: s.rows.length - 1, cols };
-    });
-    this.areas = book.sheets.map(() => []);
-    for (const p of plan.order) {
+    this.state = new Uint8Array(plan.n);
+    this.kind = new Uint8Array(plan.n);
+    this.num = new Float64Array(plan.n);
+    this.bound = book.sheets.map((s) => ({ rows: s.cells.maxRow, cols: s.cells.maxCol }));
+    this.fill = book.sheets.map(() => []);
+    for (let i = 0; i < plan.n; i++) {
+      if (plan.mode[i] === ModeCode.Single) continue;
+      const a = plan.area(i);
       // Areas too large for any formula to fill (a hostile ref) do not widen what ranges visit.
-      if ((p.area.r2 - p.area.r1 + 1) * (p.area.c2 - p.area.c1 + 1) > maxCells) continue;
-      const b = this.bound[p.sheet] as { rows: number; cols: number };
-      b.rows = Math.max(b.rows, p.area.r2);
-      b.cols = Math.max(b.cols, p.area.c2);
-      if (p.area.r2 > p.area.r1 || p.area.c2 > p.area.c1) (this.areas[p.sheet] as Rect[]).push(p.area);
+      if ((a.r2 - a.r1 + 1) * (a.c2 - a.c1 + 1) > maxCells) continue;
+      const b = this.bound[plan.sheet[i] as number] as { rows: number; cols: number };
+      b.rows = Math.max(b.rows, a.r2);
+      b.cols = Math.max(b.cols, a.c2);
+      if (a.r2 > a.r1 || a.c2 > a.c1) (this.fill[plan.sheet[i] as number] as Rect[]).push(a);
     }
   }
 
-  /** Multi-cell areas computed formulas may fill, per sheet (cells a file may not have yet). */
-  private readonly areas: Rect[][];
+  /** The planned cell being computed, as "Sheet!A1". */
+  get current(): string | undefined {
+    const i = this.currentId;
+    if (i < 0) return undefined;
+    return `${this.book.sheets[this.plan.sheet[i] as number]?.name}!${a1(this.position(i))}`;
+  }
+
+  position(i: number): { row: number; col: number } {
+    const cells = this.book.sheets[this.plan.sheet[i] as number]!.cells;
+    const k = this.plan.cell[i] as number;
+    return { row: cells.row[k] as number, col: cells.col[k] as number };
+  }
+
+  // -------------------------------------------------------------------------------------------
+  // Results
+
+  private setScalar(i: number, v: Scalar): void {
+    if (typeof v === "number") {
+      this.kind[i] = Kind.Number;
+      this.num[i] = v;
+    } else if (typeof v === "boolean") {
+      this.kind[i] = Kind.Bool;
+      this.num[i] = v ? 1 : 0;
+    } else if (v === null) {
+      this.kind[i] = Kind.Blank;
+    } else {
+      this.kind[i] = typeof v === "string" ? Kind.Text : Kind.Error;
+      this.obj[i] = v;
+    }
+  }
+
+  /** A planned cell's own value (the anchor's, for an area). */
+  scalar(i: number): Scalar {
+    switch (this.kind[i]) {
+      case Kind.Number:
+        return this.num[i] as number;
+      case Kind.Bool:
+        return this.num[i] === 1;
+      case Kind.Text:
+      case Kind.Error:
+        return this.obj[i] as string | XlError;
+      default:
+        return null;
+    }
+  }
+
+  /** The area a planned cell fills (its own cell for a single value or an error). */
+  filled(i: number): Rect {
+    const a = this.areas.get(i);
+    if (a) return a.area;
+    const p = this.position(i);
+    return { r1: p.row, c1: p.col, r2: p.row, c2: p.col };
+  }
+
+  areaResult(i: number): AreaResult | undefined {
+    return this.areas.get(i);
+  }
+
+  noValue(i: number): boolean {
+    return ((this.state[i] as number) & NO_VALUE) !== 0;
+  }
+
+  keep(i: number): boolean {
+    return ((this.state[i] as number) & KEEP) !== 0;
+  }
+
+  /** Computes a planned cell (and what it reads) if not yet done. */
+  ensure(i: number): void {
+    const st = this.state[i] as number;
+    if (st & DONE) return;
+    if (st & IN_PROGRESS || this.plan.circular[i]) {
+      if (!(st & IN_PROGRESS)) {
+        this.setScalar(i, new Circular());
+        this.state[i] = DONE | NO_VALUE;
+      }
+      return;
+    }
+    this.state[i] = IN_PROGRESS;
+    this.touched.push(false);
+    const outer = this.currentId;
+    this.currentId = i;
+    try {
+      this.compute(i);
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+      this.areas.delete(i);
+      this.setScalar(i, new Uncomputable("the formula chain is too deep to compute headless"));
+    }
+    this.currentId = outer;
+    const touched = this.touched.pop() as boolean;
+    if (this.touched.length && touched) this.touched[this.touched.length - 1] = true;
+    let flags = DONE;
+    const reason = this.plan.reason[i];
+    const sheet = this.book.sheets[this.plan.sheet[i] as number]!;
+    // A formula with run-time references that read nothing recomputed keeps its cached value.
+    if (reason === Reason.Dynamic && !touched && sheet.cells.cached(this.plan.cell[i] as number)) flags |= KEEP;
+    // A formula without a cached value that cannot be computed, fed by nothing recomputed, stays without one.
+    if (reason === Reason.Uncached && this.scalar(i) instanceof Uncomputable && !touched) flags |= NO_VALUE;
+    this.state[i] = flags;
+  }
+
+  // -------------------------------------------------------------------------------------------
+  // What formulas read
 
   forEach(ref: XlRef, fn: (v: Scalar, r: number, c: number) => void): void {
     const sheet = this.book.sheets[ref.sheet];
     if (!sheet) return;
-    const extra = (this.areas[ref.sheet] ?? []).filter((a) => a.r1 <= ref.r2 && ref.r1 <= a.r2 && a.c1 <= ref.c2 && ref.c1 <= a.c2);
-    const rows = sheet.rows;
-    const rEnd = Math.min(ref.r2, rows.length - 1);
+    const cells = sheet.cells;
+    const extra = (this.fill[ref.sheet] ?? []).filter((a) => a.r1 <= ref.r2 && ref.r1 <= a.r2 && a.c1 <= ref.c2 && ref.c1 <= a.c2);
+    const rEnd = Math.min(ref.r2, cells.maxRow);
     if (!extra.length) {
       for (let r = ref.r1; r <= rEnd; r++) {
-        const row = rows[r];
-        if (!row) continue;
-        const cEnd = Math.min(ref.c2, row.length - 1);
-        for (let c = ref.c1; c <= cEnd; c++) if (row[c]) fn(this.value(ref.sheet, r, c), r, c);
+        const [a, b] = cells.rowRange(r);
+        for (let k = a; k < b; k++) {
+          const c = cells.col[k] as number;
+          if (c < ref.c1) continue;
+          if (c > ref.c2) break;
+          fn(this.value(ref.sheet, r, c), r, c);
+        }
       }
       return;
     }
@@ -99,11 +210,10 @@ export class RecalcHost implements Host {
     const seen = new Set<number>();
     const positions: [number, number][] = [];
     for (let r = ref.r1; r <= rEnd; r++) {
-      const row = rows[r];
-      if (!row) continue;
-      const cEnd = Math.min(ref.c2, row.length - 1);
-      for (let c = ref.c1; c <= cEnd; c++) {
-        if (!row[c]) continue;
+      const [a, b] = cells.rowRange(r);
+      for (let k = a; k < b; k++) {
+        const c = cells.col[k] as number;
+        if (c < ref.c1 || c > ref.c2) continue;
         positions.push([r, c]);
         seen.add(r * 16384 + c);
       }
@@ -127,31 +237,50 @@ export class RecalcHost implements Host {
   }
 
   value(sheet: number, row: number, col: number): Scalar {
-    const owner = this.plan.owner(sheet, row, col);
-    if (owner) {
-      const r = this.result(owner);
-      if (r.keep) return this.book.cell(sheet, row, col)?.value ?? null;
+    const sh = this.book.sheets[sheet];
+    if (!sh) return null;
+    const cells = sh.cells;
+    const k = cells.find(row, col);
+    const own = k >= 0 ? (cells.planId[k] as number) : -1;
+    const owner = own >= 0 ? own : this.plan.areaOwner(sheet, row, col);
+    if (owner >= 0) {
+      this.ensure(owner);
+      if (this.keep(owner)) return k >= 0 ? cells.value(k) : null;
       if (this.touched.length) this.touched[this.touched.length - 1] = true;
-      const a = r.area;
+      const area = this.areas.get(owner);
+      if (!area) {
+        const p = this.position(owner);
+        return p.row === row && p.col === col ? this.scalar(owner) : null;
+      }
+      const a = area.area;
       if (row < a.r1 || row > a.r2 || col < a.c1 || col > a.c2) return null;
-      if (r.noValue) return owner.cell.row === row && owner.cell.col === col ? (r.grid[0] as Scalar) : null;
-      return r.grid[(row - a.r1) * (a.c2 - a.c1 + 1) + (col - a.c1)] as Scalar;
+      return area.grid[(row - a.r1) * (a.c2 - a.c1 + 1) + (col - a.c1)] as Scalar;
     }
-    const cell = this.book.sheets[sheet]?.rows[row]?.[col];
-    return cell ? cell.value : null;
+    return k >= 0 ? cells.value(k) : null;
   }
 
   spill(sheet: number, row: number, col: number): XlRef | XlError {
-    const p = this.plan.at(sheet, row, col);
-    if (p) {
-      if (p.mode !== "spill") return err("#REF!", `${a1({ row, col })} holds no spilling formula`);
-      const r = this.result(p);
-      if (r.keep) return cachedSpill(this.book.cell(sheet, row, col), sheet);
-      const v = r.grid[0];
+    const i = this.plan.at(sheet, row, col);
+    if (i >= 0) {
+      if (this.plan.mode[i] !== ModeCode.Spill) return err("#REF!", `${a1({ row, col })} holds no spilling formula`);
+      this.ensure(i);
+      if (this.keep(i)) return this.cachedSpill(sheet, row, col);
+      const v = this.scalar(i);
       if (isError(v) && v.code === "#SPILL!") return v;
-      return new XlRef(sheet, r.area.r1, r.area.c1, r.area.r2, r.area.c2);
+      const a = this.filled(i);
+      return new XlRef(sheet, a.r1, a.c1, a.r2, a.c2);
     }
-    return cachedSpill(this.book.cell(sheet, row, col), sheet);
+    return this.cachedSpill(sheet, row, col);
+  }
+
+  private cachedSpill(sheet: number, row: number, col: number): XlRef | XlError {
+    const sh = this.book.sheets[sheet];
+    const k = sh ? sh.cells.find(row, col) : -1;
+    const f = k >= 0 ? (sh!.cells.formula[k] as number) : -1;
+    const form = f >= 0 ? sh!.formulas.form[f] : -1;
+    if (f < 0 || (form !== Form.Dynamic && form !== Form.Array)) return err("#REF!", "the spill operator # needs a cell that holds a spilling formula");
+    const ref = sh!.formulas.ref.get(f) ?? { r1: row, c1: col, r2: row, c2: col };
+    return new XlRef(sheet, ref.r1, ref.c1, ref.r2, ref.c2);
   }
 
   soil(name: string) {
@@ -170,37 +299,8 @@ export class RecalcHost implements Host {
     return (ms - epoch) / 86400000;
   }
 
-  /** The result of a computed cell, computing it (and what it reads) when not yet done. */
-  result(p: Planned): Result {
-    const done = this.results[p.id];
-    if (done) return done;
-    if (this.inProgress[p.id] || this.plan.circular.has(p.id)) {
-      const r: Result = { area: single(p), grid: [new Circular()], noValue: true };
-      if (!this.inProgress[p.id]) this.results[p.id] = r;
-      return r;
-    }
-    this.inProgress[p.id] = 1;
-    this.touched.push(false);
-    const outer = this.currentCell;
-    this.currentCell = p;
-    let r: Result;
-    try {
-      r = this.compute(p);
-    } catch (e) {
-      if (!(e instanceof RangeError)) throw e;
-      r = { area: single(p), grid: [new Uncomputable("the formula chain is too deep to compute headless")] };
-    }
-    this.currentCell = outer;
-    const touched = this.touched.pop() as boolean;
-    if (this.touched.length && touched) this.touched[this.touched.length - 1] = true;
-    this.inProgress[p.id] = 0;
-    // A formula with dynamic references that read nothing recomputed keeps its cached value.
-    if (p.reason === "dynamic" && !touched && p.cell.cached) r = { ...r, keep: true };
-    // A formula without a cached value that cannot be computed, fed by nothing recomputed, stays without one.
-    if (p.reason === "uncached" && r.grid[0] instanceof Uncomputable && !touched) r = { ...r, noValue: true };
-    this.results[p.id] = r;
-    return r;
-  }
+  // -------------------------------------------------------------------------------------------
+  // Computing
 
   /**
    * Computes every planned cell: level by level, cells of one level that share a column-friendly
@@ -208,37 +308,50 @@ export class RecalcHost implements Host {
    */
   computeAll(): void {
     const plan = this.plan;
-    const byLevel = new Map<number, Planned[]>();
-    for (const p of plan.order) {
-      const l = plan.level[p.id] as number;
-      const list = byLevel.get(l);
-      if (list) list.push(p);
-      else byLevel.set(l, [p]);
+    let maxLevel = 0;
+    for (let i = 0; i < plan.n; i++) if ((plan.level[i] as number) > maxLevel) maxLevel = plan.level[i] as number;
+    const byLevel: number[][] = Array.from({ length: maxLevel + 1 }, () => []);
+    const circular: number[] = [];
+    for (let o = 0; o < plan.n; o++) {
+      const i = plan.order[o] as number;
+      const l = plan.level[i] as number;
+      if (l < 0) circular.push(i);
+      else (byLevel[l] as number[]).push(i);
     }
-    const levels = [...byLevel.keys()].filter((l) => l >= 0).sort((a, b) => a - b);
-    for (const l of levels) {
-      const cells = byLevel.get(l) as Planned[];
-      const groups = new Map<Node, Planned[]>();
-      for (const p of cells) {
-        const node = p.cell.formula?.node;
-        if (!node || p.reason === "dynamic" || p.reason === "uncached" || !(p.mode === "single" || (p.mode === "spill" && !p.uncertain && p.area.r1 === p.area.r2 && p.area.c1 === p.area.c2))) continue;
+    for (const cells of byLevel) {
+      const groups = new Map<Node, number[]>();
+      for (const i of cells) {
+        const node = this.nodeOf(i);
+        if (!node || plan.reason[i] === Reason.Dynamic || plan.reason[i] === Reason.Uncached) continue;
+        const mode = plan.mode[i];
+        if (!(mode === ModeCode.Single || (mode === ModeCode.Spill && !plan.uncertain[i] && this.isOneCell(i)))) continue;
         if (!columnCall(node)) continue;
         const g = groups.get(node);
-        if (g) g.push(p);
-        else groups.set(node, [p]);
+        if (g) g.push(i);
+        else groups.set(node, [i]);
       }
       for (const [node, members] of groups) if (members.length >= 8) this.computeColumn(node, members);
-      for (const p of cells) this.result(p);
+      for (const i of cells) this.ensure(i);
     }
-    for (const p of byLevel.get(-1) ?? []) this.result(p);
+    for (const i of circular) this.ensure(i);
+  }
+
+  private isOneCell(i: number): boolean {
+    const p = this.position(i);
+    return this.plan.r2[i] === p.row && this.plan.c2[i] === p.col;
+  }
+
+  private nodeOf(i: number): Node | undefined {
+    return this.book.sheets[this.plan.sheet[i] as number]!.formulas.node[this.plan.formula[i] as number];
   }
 
   /** One SOIL call over single cells and constants, for many cells at once (same arguments each would pass). */
-  private computeColumn(node: Node, members: Planned[]): void {
+  private computeColumn(node: Node, members: number[]): void {
     const call = columnCall(node) as ColumnCall;
     const soil = this.soil(call.name);
     if (!soil) return;
     const n = members.length;
+    const plan = this.plan;
     const args: (unknown[][] | null)[] = [];
     for (const a of call.args) {
       if (a.kind === "omitted") {
@@ -248,83 +361,113 @@ export class RecalcHost implements Host {
       } else {
         const col: unknown[][] = new Array(n);
         const ref = a.ref;
-        const sheetOf = (p: Planned) => (ref.sheet === undefined ? p.sheet : this.book.sheetIndex(ref.sheet));
-        for (let i = 0; i < n; i++) {
-          const p = members[i] as Planned;
-          const s = sheetOf(p);
-          const r = ref.abs & 1 ? ref.r1 : ref.r1 + p.cell.row;
-          const c = ref.abs & 2 ? ref.c1 : ref.c1 + p.cell.col;
+        const named = ref.sheet === undefined ? undefined : this.book.sheetIndex(ref.sheet);
+        for (let j = 0; j < n; j++) {
+          const i = members[j] as number;
+          const s = ref.sheet === undefined ? (plan.sheet[i] as number) : named;
+          const p = this.position(i);
+          const r = ref.abs & 1 ? ref.r1 : ref.r1 + p.row;
+          const c = ref.abs & 2 ? ref.c1 : ref.c1 + p.col;
           let v: Scalar;
           if (s === undefined) v = err("#REF!", `there is no sheet named "${ref.sheet}"`);
           else if (r < 0 || c < 0 || r >= 1048576 || c >= 16384) v = err("#REF!", "the reference moves off the sheet");
           else v = this.value(s, r, c);
-          col[i] = [v === null ? "" : v]; // Excel passes an empty cell to a custom function as ""
+          col[j] = [v === null ? "" : v]; // Excel passes an empty cell to a custom function as ""
         }
         args.push(col);
       }
     }
     const out = soil(args);
-    for (let i = 0; i < n; i++) {
-      const p = members[i] as Planned;
-      const v = out instanceof XlArray ? (out.rows === n ? out.at(i, 0) : out.at(0, 0)) : (out as Scalar);
-      this.results[p.id] = { area: p.area, grid: [zeroBlank(v)] };
+    for (let j = 0; j < n; j++) {
+      const i = members[j] as number;
+      const v = out instanceof XlArray ? (out.rows === n ? out.at(j, 0) : out.at(0, 0)) : (out as Scalar);
+      this.setScalar(i, zeroBlank(v));
+      this.state[i] = DONE;
     }
   }
 
-  private compute(p: Planned): Result {
-    const f = p.cell.formula!;
-    const at = single(p);
-    if (!f.node) {
-      const why = f.form === "table" ? "a what-if data table is not computed headless" : `the formula cannot be read headless (${f.syntaxError ?? "unknown"})`;
-      return { area: at, grid: [new Uncomputable(why)] };
+  private compute(i: number): void {
+    const plan = this.plan;
+    const sheet = this.book.sheets[plan.sheet[i] as number]!;
+    const f = plan.formula[i] as number;
+    const node = sheet.formulas.node[f];
+    const pos = this.position(i);
+    if (!node) {
+      const why =
+        sheet.formulas.form[f] === Form.Table ? "a what-if data table is not computed headless" : `the formula cannot be read headless (${sheet.formulas.syntaxError.get(f) ?? "unknown"})`;
+      this.setScalar(i, new Uncomputable(why));
+      return;
     }
-    const ctx: Ctx = { host: this, sheet: p.sheet, row: p.cell.row, col: p.cell.col, arrays: p.mode !== "single", depth: 0 };
-    const v = ev(f.node, ctx, true);
-    if (p.mode === "single") return { area: at, grid: [finalScalar(v, ctx)] };
+    const mode = plan.mode[i];
+    const ctx: Ctx = { host: this, sheet: plan.sheet[i] as number, row: pos.row, col: pos.col, arrays: mode !== ModeCode.Single, depth: 0 };
+    const v = ev(node, ctx, true);
+    if (mode === ModeCode.Single) {
+      this.setScalar(i, finalScalar(v, ctx));
+      return;
+    }
     const arr = v instanceof XlRef ? toArray(v, ctx) : v;
-    if (p.mode === "fixed") return { area: p.area, grid: fillFixed(arr, p.area, ctx) };
+    const predicted = plan.area(i);
+    if (mode === ModeCode.Fixed) {
+      const grid = fillFixed(arr, predicted, ctx);
+      this.areas.set(i, { area: predicted, grid });
+      this.setScalar(i, grid[0] as Scalar);
+      return;
+    }
     // A dynamic array: spills to its size, if the cells it needs are free.
-    if (isError(arr) || !(arr instanceof XlArray)) return { area: at, grid: [finalScalar(arr as Value, ctx)] };
+    if (isError(arr) || !(arr instanceof XlArray)) {
+      this.setScalar(i, finalScalar(arr as Value, ctx));
+      return;
+    }
     const rows = arr.rows;
     const cols = arr.cols;
-    if (rows === 1 && cols === 1) return { area: at, grid: [zeroBlank(arr.at(0, 0))] };
-    const area = { r1: p.cell.row, c1: p.cell.col, r2: p.cell.row + rows - 1, c2: p.cell.col + cols - 1 };
-    if (area.r2 !== p.area.r2 || area.c2 !== p.area.c2) {
-      return {
-        area: at,
-        grid: [new Uncomputable(`the result's size (${rows}×${cols}) depends on the data and differs from the size read from the formula; not computed headless`)],
-      };
+    if (rows === 1 && cols === 1) {
+      this.setScalar(i, zeroBlank(arr.at(0, 0)));
+      return;
     }
-    const blocked = this.spillBlocked(p, area);
-    if (blocked) return { area: at, grid: [err("#SPILL!", blocked)] };
+    const area = { r1: pos.row, c1: pos.col, r2: pos.row + rows - 1, c2: pos.col + cols - 1 };
+    if (area.r2 !== predicted.r2 || area.c2 !== predicted.c2) {
+      this.setScalar(i, new Uncomputable(`the result's size (${rows}×${cols}) depends on the data and differs from the size read from the formula; not computed headless`));
+      return;
+    }
+    const blocked = this.spillBlocked(i, area);
+    if (blocked) {
+      this.setScalar(i, err("#SPILL!", blocked));
+      return;
+    }
     const grid = arr.data.map(zeroBlank);
-    return { area, grid };
+    this.areas.set(i, { area, grid });
+    this.setScalar(i, grid[0] as Scalar);
   }
 
   /** Why a spill cannot go where it needs to, or undefined when the cells are free. */
-  private spillBlocked(p: Planned, area: Rect): string | undefined {
-    const sheet = this.book.sheets[p.sheet]!;
-    const old = p.cell.formula?.ref;
+  private spillBlocked(i: number, area: Rect): string | undefined {
+    const plan = this.plan;
+    const sheetIdx = plan.sheet[i] as number;
+    const sheet = this.book.sheets[sheetIdx]!;
+    const pos = this.position(i);
+    const old = sheet.formulas.ref.get(plan.formula[i] as number);
     for (const m of sheet.merges) {
       if (m.r1 <= area.r2 && area.r1 <= m.r2 && m.c1 <= area.c2 && area.c1 <= m.c2) {
         return `the spill range ${rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, area.c2 - area.c1 + 1)} holds merged cells`;
       }
     }
+    const cells = sheet.cells;
     for (let r = area.r1; r <= area.r2; r++) {
-      const row = sheet.rows[r];
       for (let c = area.c1; c <= area.c2; c++) {
-        if (r === p.cell.row && c === p.cell.col) continue;
-        const owner = this.plan.owner(p.sheet, r, c);
-        if (owner && owner !== p && (owner.mode !== "single" || (owner.cell.row === r && owner.cell.col === c))) {
-          const oa = owner.area;
-          if (r >= oa.r1 && r <= oa.r2 && c >= oa.c1 && c <= oa.c2) return `the spill range would cover ${a1({ row: r, col: c })}, which another formula fills`;
+        if (r === pos.row && c === pos.col) continue;
+        const owner = plan.owner(sheetIdx, r, c);
+        const ownerArea = owner >= 0 && owner !== i ? plan.area(owner) : undefined;
+        if (ownerArea) {
+          const ownerPos = this.position(owner);
+          const fills = plan.mode[owner] !== ModeCode.Single || (ownerPos.row === r && ownerPos.col === c);
+          if (fills && r >= ownerArea.r1 && r <= ownerArea.r2 && c >= ownerArea.c1 && c <= ownerArea.c2) return `the spill range would cover ${a1({ row: r, col: c })}, which another formula fills`;
         }
-        const cell = row?.[c];
-        if (!cell) continue;
-        if (cell.formula) return `the spill range would cover ${a1({ row: r, col: c })}, which holds a formula`;
-        if (cell.value === null) continue;
+        const k = cells.find(r, c);
+        if (k < 0) continue;
+        if ((cells.formula[k] as number) >= 0) return `the spill range would cover ${a1({ row: r, col: c })}, which holds a formula`;
+        if (cells.value(k) === null) continue;
         const inOld = old && r >= old.r1 && r <= old.r2 && c >= old.c1 && c <= old.c2;
-        const freed = owner && owner !== p && !(r >= owner.area.r1 && r <= owner.area.r2 && c >= owner.area.c1 && c <= owner.area.c2);
+        const freed = ownerArea && !(r >= ownerArea.r1 && r <= ownerArea.r2 && c >= ownerArea.c1 && c <= ownerArea.c2);
         if (!inOld && !freed) return `the spill range would cover ${a1({ row: r, col: c })}, which is not empty`;
       }
     }
@@ -373,13 +516,6 @@ function columnCall(node: Node): ColumnCall | null {
   return out;
 }
 
-function cachedSpill(cell: Cell | undefined, sheet: number): XlRef | XlError {
-  const f = cell?.formula;
-  if (!cell || !f || (f.form !== "dynamic" && f.form !== "array")) return err("#REF!", "the spill operator # needs a cell that holds a spilling formula");
-  const ref = f.ref ?? { r1: cell.row, c1: cell.col, r2: cell.row, c2: cell.col };
-  return new XlRef(sheet, ref.r1, ref.c1, ref.r2, ref.c2);
-}
-
 /** A formula's displayed value: an empty cell it refers to shows 0. */
 function zeroBlank(v: Scalar): Scalar {
   return v === null ? 0 : v;
@@ -410,4 +546,3 @@ function fillFixed(v: Value | XlError, area: Rect, ctx: Ctx): Scalar[] {
   }
   return out;
 }
-

@@ -16,7 +16,7 @@
  * filled down shares one), changed areas are kept as merged row intervals per column, and no
  * structure per referenced cell is built unless dependency chains are long.
  */
-import type { Book, Cell } from "./book";
+import { Book, Form } from "./book";
 import type { Node, RefNode } from "./formula/parser";
 import { nativeFunction } from "./formula/evaluate";
 import { MAX_COLS, MAX_ROWS, Rect } from "./formula/values";
@@ -41,36 +41,56 @@ export type Mode =
   /** Legacy array (CSE) formula: fills its fixed range. */
   | "fixed";
 
-export interface Planned {
-  readonly id: number;
-  readonly sheet: number;
-  readonly cell: Cell;
-  readonly mode: Mode;
-  readonly soil: boolean;
-  /** Predicted spill (mode "spill") or the fixed range (mode "fixed"), absolute. */
-  readonly area: Rect;
-  /** The prediction could not be certain (the result's size depends on data). */
-  readonly uncertain: boolean;
-  /** Why this cell is computed. */
-  readonly reason: "soil" | "depends" | "uncached" | "dynamic";
+export const enum Reason {
+  Soil = 1,
+  Depends = 2,
+  Uncached = 3,
+  Dynamic = 4,
 }
 
+export const enum ModeCode {
+  Single = 0,
+  Spill = 1,
+  Fixed = 2,
+}
+
+/**
+ * The plan, as column arrays indexed by a planned cell's number (0 … n-1): which sheet and cell,
+ * how it is evaluated, why it is computed, and the area it is predicted to fill (from its own
+ * cell to r2, c2: spills and fixed ranges start at their anchor).
+ */
 export interface Plan {
-  /** Computed cells in an order where each comes after what it reads (cycles last). */
-  readonly order: readonly Planned[];
-  /** Cells in a circular chain (computed to an error). */
-  readonly circular: ReadonlySet<number>;
+  readonly n: number;
+  readonly sheet: Int32Array;
+  /** The cell number in its sheet's store. */
+  readonly cell: Int32Array;
+  /** The formula number in its sheet's store. */
+  readonly formula: Int32Array;
+  readonly mode: Uint8Array;
+  readonly soil: Uint8Array;
+  readonly reason: Uint8Array;
+  /** The predicted size could not be certain (it depends on data). */
+  readonly uncertain: Uint8Array;
+  readonly r2: Int32Array;
+  readonly c2: Int32Array;
+  /** Planned cells in an order where each comes after what it reads (cycles last). */
+  readonly order: Int32Array;
   /**
    * Each planned cell's depth in the dependency order (0: reads no computed cell; -1: circular).
    * Cells of one level do not read each other, so a level can be computed in any grouping.
    */
   readonly level: Int32Array;
-  /** Planned cell by sheet and position. */
-  at(sheet: number, row: number, col: number): Planned | undefined;
-  /** The computed cell whose area (spill, fixed range, or the range it covered in the file) holds a position. */
-  owner(sheet: number, row: number, col: number): Planned | undefined;
-  /** Formula cells the file holds, and how many are computed. */
+  readonly circular: Uint8Array;
+  /** Formula cells in the workbook. */
   readonly formulaCells: number;
+  /** The planned cell at a position, or -1. */
+  at(sheet: number, row: number, col: number): number;
+  /** The planned cell whose area (spill, fixed range, or the range it covered in the file) holds a position, or -1. */
+  owner(sheet: number, row: number, col: number): number;
+  /** The planned cell whose multi-cell area (or range it covered in the file) holds a position, or -1. */
+  areaOwner(sheet: number, row: number, col: number): number;
+  /** The predicted area of a planned cell. */
+  area(id: number): Rect;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -261,132 +281,206 @@ class IntervalIndex {
 
 // ---------------------------------------------------------------------------------------------
 
-interface Formula {
-  readonly sheet: number;
-  readonly cell: Cell;
-  readonly info: TreeInfo | undefined;
+const MAX_PASSES = 12;
+
+/** Every formula of the workbook, numbered across sheets. */
+interface Formulas {
+  readonly n: number;
+  readonly sheet: Int32Array;
+  /** Formula number within its sheet. */
+  readonly local: Int32Array;
+  /** First global number of each sheet's formulas. */
+  readonly base: Int32Array;
 }
 
-const MAX_PASSES = 12;
+function numberFormulas(book: Book): Formulas {
+  const base = new Int32Array(book.sheets.length + 1);
+  let n = 0;
+  book.sheets.forEach((s, i) => {
+    base[i] = n;
+    n += s.formulas.n;
+  });
+  base[book.sheets.length] = n;
+  const sheet = new Int32Array(n);
+  const local = new Int32Array(n);
+  let g = 0;
+  book.sheets.forEach((s, i) => {
+    for (let f = 0; f < s.formulas.n; f++) {
+      sheet[g] = i;
+      local[g] = f;
+      g++;
+    }
+  });
+  return { n, sheet, local, base };
+}
 
 /** Builds the plan for a workbook. */
 export function planRecalc(book: Book, soil: SoilSignatures): Plan {
-  const formulas: Formula[] = [];
-  for (const sheet of book.sheets) {
-    for (const cell of sheet.formulaCells) {
-      const node = cell.formula?.node;
-      formulas.push({ sheet: sheet.index, cell, info: node ? treeInfo(node) : undefined });
-    }
-  }
-  const reason: (Planned["reason"] | undefined)[] = new Array(formulas.length);
-  const shapes: (Guessed | undefined)[] = new Array(formulas.length);
-  const idOf = (sheet: number, row: number, col: number): number | undefined => {
-    const c = book.sheets[sheet]?.rows[row]?.[col];
-    return c && c.formula ? formulaIndex.get(c) : undefined;
+  const F = numberFormulas(book);
+  const nodeOf = (g: number) => book.sheets[F.sheet[g] as number]!.formulas.node[F.local[g] as number];
+  const infoOf = (g: number): TreeInfo | undefined => {
+    const node = nodeOf(g);
+    return node ? treeInfo(node) : undefined;
   };
-  const formulaIndex = new Map<Cell, number>();
-  formulas.forEach((f, i) => formulaIndex.set(f.cell, i));
-  const shapeOf = (i: number): Guessed => (shapes[i] ??= predict(book, formulas[i] as Formula, soil, idOf, shapes, reason, i));
+  const posOf = (g: number) => {
+    const sh = book.sheets[F.sheet[g] as number]!;
+    const k = sh.formulas.cell[F.local[g] as number] as number;
+    return { row: sh.cells.row[k] as number, col: sh.cells.col[k] as number, k };
+  };
+  const formOf = (g: number) => book.sheets[F.sheet[g] as number]!.formulas.form[F.local[g] as number] as Form;
+  const refOf = (g: number) => book.sheets[F.sheet[g] as number]!.formulas.ref.get(F.local[g] as number);
+  const cachedOf = (g: number) => {
+    const sh = book.sheets[F.sheet[g] as number]!;
+    return sh.cells.cached(sh.formulas.cell[F.local[g] as number] as number);
+  };
+  /** Global formula number at a position, or undefined. */
+  const idOf = (sheet: number, row: number, col: number): number | undefined => {
+    const sh = book.sheets[sheet];
+    if (!sh) return undefined;
+    const k = sh.cells.find(row, col);
+    if (k < 0) return undefined;
+    const f = sh.cells.formula[k] as number;
+    return f < 0 ? undefined : (F.base[sheet] as number) + f;
+  };
+  const reason = new Uint8Array(F.n);
+  const shapes: (Guessed | undefined)[] = new Array(F.n);
+  const isSoil = new Uint8Array(F.n);
+  const shapeOf = (g: number): Guessed => (shapes[g] ??= predict(book, F, g, soil, idOf, shapes, reason, isSoil, infoOf, posOf, formOf, refOf));
+  const oldRange = (g: number): Rect | undefined => {
+    const form = formOf(g);
+    return form === Form.Dynamic || form === Form.Array ? refOf(g) : undefined;
+  };
 
   const changed = new IntervalIndex();
-  const markChanged = (i: number) => {
-    const f = formulas[i] as Formula;
-    const s = shapeOf(i);
-    changed.add(f.sheet, s.area);
-    const old = f.cell.formula?.ref;
-    if (old && (f.cell.formula?.form === "dynamic" || f.cell.formula?.form === "array")) changed.add(f.sheet, old);
+  const markChanged = (g: number) => {
+    const sheet = F.sheet[g] as number;
+    changed.add(sheet, shapeOf(g).area);
+    const old = oldRange(g);
+    if (old) changed.add(sheet, old);
   };
   let anySoil = false;
-  const isSoil: boolean[] = new Array(formulas.length);
-  formulas.forEach((f, i) => {
-    isSoil[i] = f.info ? callsThrough(book, f.info, f.sheet, "soil") : false;
-    if (isSoil[i]) anySoil = true;
-  });
-  formulas.forEach((f, i) => {
-    if (isSoil[i]) reason[i] = "soil";
-    else if (anySoil && f.info && callsThrough(book, f.info, f.sheet, "dynamic")) reason[i] = "dynamic";
-    if (reason[i]) markChanged(i);
-  });
+  for (let g = 0; g < F.n; g++) {
+    const info = infoOf(g);
+    if (info && callsThrough(book, info, F.sheet[g] as number, "soil")) {
+      isSoil[g] = 1;
+      anySoil = true;
+    }
+  }
+  for (let g = 0; g < F.n; g++) {
+    const info = infoOf(g);
+    if (isSoil[g]) reason[g] = Reason.Soil;
+    else if (anySoil && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
+    if (reason[g]) markChanged(g);
+  }
 
   // Cells reading a changed area change too: pass over the formulas until none is added.
   let passes = 0;
   let added = true;
+  const touches = (r: { sheet: number; r1: number; c1: number; r2: number; c2: number }) => changed.touches(r.sheet, r.r1, r.c1, r.r2, r.c2);
   while (added && passes < MAX_PASSES) {
     passes++;
     added = false;
     changed.settle();
-    for (let i = 0; i < formulas.length; i++) {
-      if (reason[i]) continue;
-      const f = formulas[i] as Formula;
-      if (!f.info) continue;
-      if (eachRead(book, f.info, f.sheet, f.cell.row, f.cell.col, (r) => changed.touches(r.sheet, r.r1, r.c1, r.r2, r.c2))) {
-        reason[i] = "depends";
-        markChanged(i);
+    for (let g = 0; g < F.n; g++) {
+      if (reason[g]) continue;
+      const info = infoOf(g);
+      if (!info) continue;
+      const p = posOf(g);
+      if (eachRead(book, info, F.sheet[g] as number, p.row, p.col, touches)) {
+        reason[g] = Reason.Depends;
+        markChanged(g);
         added = true;
       }
     }
   }
-  if (added) propagateByIndex(book, formulas, reason, markChanged, changed);
-  for (let i = 0; i < formulas.length; i++) if (!reason[i] && !(formulas[i] as Formula).cell.cached) reason[i] = "uncached";
+  if (added) propagateByIndex(book, F, reason, infoOf, posOf, oldRange, markChanged, changed);
+  for (let g = 0; g < F.n; g++) if (!reason[g] && !cachedOf(g)) reason[g] = Reason.Uncached;
 
-  // Planned cells; positions of multi-cell areas (spills, fixed ranges, old ranges) by owner.
-  const planned: Planned[] = [];
-  const areaOwners = new Map<number, Map<number, Planned>>(); // sheet → (row*MAX_COLS+col) → owner
-  const bigProducers: Planned[] = [];
+  // Planned cells, numbered in formula order.
+  let n = 0;
+  for (let g = 0; g < F.n; g++) if (reason[g]) n++;
+  const P = {
+    sheet: new Int32Array(n),
+    cell: new Int32Array(n),
+    formula: new Int32Array(n),
+    mode: new Uint8Array(n),
+    soil: new Uint8Array(n),
+    reason: new Uint8Array(n),
+    uncertain: new Uint8Array(n),
+    r2: new Int32Array(n),
+    c2: new Int32Array(n),
+  };
+  const areaOwners = new Map<number, Map<number, number>>(); // sheet → (row*MAX_COLS+col) → planned id
+  const bigProducers: number[] = [];
   const producers = new Map<number, number[]>(); // sheet*MAX_COLS+col → rows of single-cell producers
-  for (let i = 0; i < formulas.length; i++) {
-    const why = reason[i];
-    if (!why) continue;
-    const f = formulas[i] as Formula;
-    const s = shapeOf(i);
-    const p: Planned = { id: planned.length, sheet: f.sheet, cell: f.cell, mode: s.mode, soil: isSoil[i] as boolean, area: s.area, uncertain: s.uncertain, reason: why };
-    planned.push(p);
-    f.cell.planId = p.id;
-    const old = f.cell.formula?.ref;
+  let id = 0;
+  for (let g = 0; g < F.n; g++) {
+    if (!reason[g]) continue;
+    const sheet = F.sheet[g] as number;
+    const sh = book.sheets[sheet]!;
+    const s = shapeOf(g);
+    const pos = posOf(g);
+    P.sheet[id] = sheet;
+    P.cell[id] = pos.k;
+    P.formula[id] = F.local[g] as number;
+    P.mode[id] = s.mode === "single" ? ModeCode.Single : s.mode === "spill" ? ModeCode.Spill : ModeCode.Fixed;
+    P.soil[id] = isSoil[g] as number;
+    P.reason[id] = reason[g] as number;
+    P.uncertain[id] = s.uncertain ? 1 : 0;
+    P.r2[id] = s.area.r2;
+    P.c2[id] = s.area.c2;
+    sh.cells.planId[pos.k] = id;
+    const old = oldRange(g);
     const regions = [s.area];
-    if (old && (f.cell.formula?.form === "dynamic" || f.cell.formula?.form === "array")) regions.push(old);
+    if (old) regions.push(old);
     const multi = regions.some((r) => r.r2 > r.r1 || r.c2 > r.c1);
     if (!multi) {
-      const k = f.sheet * MAX_COLS + f.cell.col;
-      let rows = producers.get(k);
-      if (!rows) producers.set(k, (rows = []));
-      rows.push(f.cell.row);
-      continue;
-    }
-    bigProducers.push(p);
-    let owners = areaOwners.get(f.sheet);
-    if (!owners) areaOwners.set(f.sheet, (owners = new Map()));
-    for (const rect of regions) {
-      if (area(rect) > 1 << 22) continue; // refused later as too large
-      for (let r = rect.r1; r <= rect.r2; r++) {
-        for (let c = rect.c1; c <= rect.c2; c++) {
-          const k = r * MAX_COLS + c;
-          // The first claim on a position stands (an anchor's own cell is its own through planId).
-          if (!owners.has(k)) owners.set(k, p);
+      const key = sheet * MAX_COLS + pos.col;
+      let rows = producers.get(key);
+      if (!rows) producers.set(key, (rows = []));
+      rows.push(pos.row);
+    } else {
+      bigProducers.push(id);
+      let owners = areaOwners.get(sheet);
+      if (!owners) areaOwners.set(sheet, (owners = new Map()));
+      for (const rect of regions) {
+        if (area(rect) > 1 << 22) continue; // refused later as too large
+        for (let r = rect.r1; r <= rect.r2; r++) {
+          for (let c = rect.c1; c <= rect.c2; c++) {
+            const key = r * MAX_COLS + c;
+            // The first claim on a position stands (an anchor's own cell is its own through planId).
+            if (!owners.has(key)) owners.set(key, id);
+          }
         }
       }
     }
+    id++;
   }
   for (const rows of producers.values()) rows.sort((a, b) => a - b);
+  const rowOf = (i: number) => book.sheets[P.sheet[i] as number]!.cells.row[P.cell[i] as number] as number;
+  const colOf = (i: number) => book.sheets[P.sheet[i] as number]!.cells.col[P.cell[i] as number] as number;
+  const areaOf = (i: number): Rect => ({ r1: rowOf(i), c1: colOf(i), r2: P.r2[i] as number, c2: P.c2[i] as number });
 
   // Edges: a computed cell comes after the computed cells whose areas it reads.
-  const n = planned.length;
   const indeg = new Int32Array(n);
   const succ = new Map<number, number[]>();
   const selfLoop = new Uint8Array(n);
-  const bigBySheet = new Map<number, Planned[]>();
-  for (const p of bigProducers) {
-    const l = bigBySheet.get(p.sheet);
-    if (l) l.push(p);
-    else bigBySheet.set(p.sheet, [p]);
+  const bigBySheet = new Map<number, { id: number; area: Rect; old: Rect | undefined }[]>();
+  for (const b of bigProducers) {
+    const sheet = P.sheet[b] as number;
+    const entry = { id: b, area: areaOf(b), old: oldRange((F.base[sheet] as number) + (P.formula[b] as number)) };
+    const l = bigBySheet.get(sheet);
+    if (l) l.push(entry);
+    else bigBySheet.set(sheet, [entry]);
   }
-  for (const p of planned) {
-    const f = formulas[formulaIndex.get(p.cell) as number] as Formula;
-    if (!f.info) continue;
+  for (let i = 0; i < n; i++) {
+    const sheet = P.sheet[i] as number;
+    const info = infoOf((F.base[sheet] as number) + (P.formula[i] as number));
+    if (!info) continue;
     let seen: Set<number> | undefined;
     const link = (from: number) => {
-      if (from === p.id) {
-        selfLoop[p.id] = 1;
+      if (from === i) {
+        selfLoop[i] = 1;
         return;
       }
       seen ??= new Set();
@@ -394,72 +488,79 @@ export function planRecalc(book: Book, soil: SoilSignatures): Plan {
       seen.add(from);
       let l = succ.get(from);
       if (!l) succ.set(from, (l = []));
-      l.push(p.id);
-      indeg[p.id] = (indeg[p.id] as number) + 1;
+      l.push(i);
+      indeg[i] = (indeg[i] as number) + 1;
     };
-    eachRead(book, f.info, p.sheet, p.cell.row, p.cell.col, (r) => {
+    const linkColumn = (rows: number[] | undefined, r: Rect & { sheet: number }, c: number) => {
+      if (!rows) return;
+      const cells = book.sheets[r.sheet]!.cells;
+      for (let j = lowerBound(rows, r.r1); j < rows.length && (rows[j] as number) <= r.r2; j++) {
+        const k = cells.find(rows[j] as number, c);
+        if (k >= 0 && (cells.planId[k] as number) >= 0) link(cells.planId[k] as number);
+      }
+    };
+    eachRead(book, info, sheet, rowOf(i), colOf(i), (r) => {
       const width = r.c2 - r.c1 + 1;
       if (width <= 64 || width * 4 < producers.size) {
         for (let c = r.c1; c <= r.c2; c++) linkColumn(producers.get(r.sheet * MAX_COLS + c), r, c);
       } else {
-        for (const [k, rows] of producers) {
-          if (Math.floor(k / MAX_COLS) !== r.sheet) continue;
-          const c = k % MAX_COLS;
+        for (const [key, rows] of producers) {
+          if (Math.floor(key / MAX_COLS) !== r.sheet) continue;
+          const c = key % MAX_COLS;
           if (c >= r.c1 && c <= r.c2) linkColumn(rows, r, c);
         }
       }
-      for (const b of bigBySheet.get(r.sheet) ?? []) {
-        const old = b.cell.formula?.ref;
-        if (overlaps(b.area, r) || (old && overlaps(old, r))) link(b.id);
-      }
+      for (const b of bigBySheet.get(r.sheet) ?? []) if (overlaps(b.area, r) || (b.old && overlaps(b.old, r))) link(b.id);
       return false;
     });
-    function linkColumn(rows: number[] | undefined, r: Rect & { sheet: number }, c: number) {
-      if (!rows) return;
-      for (let j = lowerBound(rows, r.r1); j < rows.length && (rows[j] as number) <= r.r2; j++) {
-        const cell = book.sheets[r.sheet]?.rows[rows[j] as number]?.[c];
-        if (cell && cell.planId >= 0) link(cell.planId);
-      }
-    }
   }
-  const order: Planned[] = [];
+  const order = new Int32Array(n);
+  let o = 0;
   const ready: number[] = [];
   for (let i = n - 1; i >= 0; i--) if (indeg[i] === 0 && !selfLoop[i]) ready.push(i);
   const done = new Uint8Array(n);
   const level = new Int32Array(n);
   while (ready.length) {
-    const id = ready.pop() as number;
-    done[id] = 1;
-    order.push(planned[id] as Planned);
-    for (const next of succ.get(id) ?? []) {
+    const i = ready.pop() as number;
+    done[i] = 1;
+    order[o++] = i;
+    for (const next of succ.get(i) ?? []) {
       const d = (indeg[next] as number) - 1;
       indeg[next] = d;
-      if ((level[next] as number) <= (level[id] as number)) level[next] = (level[id] as number) + 1;
+      if ((level[next] as number) <= (level[i] as number)) level[next] = (level[i] as number) + 1;
       if (d === 0 && !selfLoop[next]) ready.push(next);
     }
   }
-  const circular = new Set<number>();
+  const circular = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     if (!done[i]) {
-      circular.add(i);
-      order.push(planned[i] as Planned);
+      circular[i] = 1;
+      order[o++] = i;
       level[i] = -1;
     }
   }
   return {
+    n,
+    ...P,
     order,
-    circular,
     level,
-    formulaCells: formulas.length,
+    circular,
+    formulaCells: F.n,
     at: (sheet, row, col) => {
-      const c = book.sheets[sheet]?.rows[row]?.[col];
-      return c && c.planId >= 0 ? planned[c.planId] : undefined;
+      const sh = book.sheets[sheet];
+      if (!sh) return -1;
+      const k = sh.cells.find(row, col);
+      return k < 0 ? -1 : (sh.cells.planId[k] as number);
     },
     owner: (sheet, row, col) => {
-      const c = book.sheets[sheet]?.rows[row]?.[col];
-      if (c && c.planId >= 0) return planned[c.planId];
-      return areaOwners.get(sheet)?.get(row * MAX_COLS + col);
+      const sh = book.sheets[sheet];
+      if (!sh) return -1;
+      const k = sh.cells.find(row, col);
+      if (k >= 0 && (sh.cells.planId[k] as number) >= 0) return sh.cells.planId[k] as number;
+      return areaOwners.get(sheet)?.get(row * MAX_COLS + col) ?? -1;
     },
+    areaOwner: (sheet, row, col) => areaOwners.get(sheet)?.get(row * MAX_COLS + col) ?? -1,
+    area: areaOf,
   };
 }
 
@@ -486,57 +587,67 @@ function lowerBound(rows: number[], v: number): number {
  * Long chains of dependent formulas (a running total down a column): instead of more passes, an
  * index of who reads which cell, walked from every changed cell.
  */
-function propagateByIndex(book: Book, formulas: Formula[], reason: (Planned["reason"] | undefined)[], markChanged: (i: number) => void, changed: IntervalIndex): void {
+function propagateByIndex(
+  book: Book,
+  F: Formulas,
+  reason: Uint8Array,
+  infoOf: (g: number) => TreeInfo | undefined,
+  posOf: (g: number) => { row: number; col: number },
+  oldRange: (g: number) => Rect | undefined,
+  markChanged: (g: number) => void,
+  changed: IntervalIndex,
+): void {
   const readers = new Map<number, number[]>();
-  const large: { sheet: number; rect: Rect; id: number }[] = [];
+  const large: { sheet: number; rect: Rect; g: number }[] = [];
   const key = (sheet: number, row: number, col: number) => (sheet * MAX_ROWS + row) * MAX_COLS + col;
-  formulas.forEach((f, i) => {
-    if (reason[i] || !f.info) return;
-    eachRead(book, f.info, f.sheet, f.cell.row, f.cell.col, (r) => {
+  for (let g = 0; g < F.n; g++) {
+    const info = infoOf(g);
+    if (reason[g] || !info) continue;
+    const p = posOf(g);
+    eachRead(book, info, F.sheet[g] as number, p.row, p.col, (r) => {
       if (area(r) <= 64) {
         for (let row = r.r1; row <= r.r2; row++) {
           for (let col = r.c1; col <= r.c2; col++) {
             const k = key(r.sheet, row, col);
             const l = readers.get(k);
-            if (l) l.push(i);
-            else readers.set(k, [i]);
+            if (l) l.push(g);
+            else readers.set(k, [g]);
           }
         }
-      } else large.push({ sheet: r.sheet, rect: { r1: r.r1, c1: r.c1, r2: r.r2, c2: r.c2 }, id: i });
+      } else large.push({ sheet: r.sheet, rect: { r1: r.r1, c1: r.c1, r2: r.r2, c2: r.c2 }, g });
       return false;
     });
-  });
+  }
   const queue: number[] = [];
-  formulas.forEach((_, i) => {
-    if (reason[i]) queue.push(i);
-  });
-  const mark = (i: number) => {
-    if (reason[i]) return;
-    reason[i] = "depends";
-    markChanged(i);
-    queue.push(i);
+  for (let g = 0; g < F.n; g++) if (reason[g]) queue.push(g);
+  const mark = (g: number) => {
+    if (reason[g]) return;
+    reason[g] = Reason.Depends;
+    markChanged(g);
+    queue.push(g);
   };
   for (;;) {
     while (queue.length) {
-      const i = queue.pop() as number;
-      const f = formulas[i] as Formula;
-      const rects: Rect[] = [{ r1: f.cell.row, c1: f.cell.col, r2: f.cell.row, c2: f.cell.col }];
-      const old = f.cell.formula?.ref;
+      const g = queue.pop() as number;
+      const sheet = F.sheet[g] as number;
+      const p = posOf(g);
+      const rects: Rect[] = [{ r1: p.row, c1: p.col, r2: p.row, c2: p.col }];
+      const old = oldRange(g);
       if (old) rects.push(old);
       for (const rect of rects) {
         if (area(rect) > 1 << 20) {
-          for (const [k, l] of readers) if (Math.floor(k / (MAX_ROWS * MAX_COLS)) === f.sheet) for (const x of l) mark(x);
+          for (const [k, l] of readers) if (Math.floor(k / (MAX_ROWS * MAX_COLS)) === sheet) for (const x of l) mark(x);
           continue;
         }
-        for (let row = rect.r1; row <= rect.r2; row++) for (let col = rect.c1; col <= rect.c2; col++) for (const x of readers.get(key(f.sheet, row, col)) ?? []) mark(x);
+        for (let row = rect.r1; row <= rect.r2; row++) for (let col = rect.c1; col <= rect.c2; col++) for (const x of readers.get(key(sheet, row, col)) ?? []) mark(x);
       }
     }
     changed.settle();
     let fired = false;
     for (const l of large) {
-      if (reason[l.id]) continue;
+      if (reason[l.g]) continue;
       if (changed.touches(l.sheet, l.rect.r1, l.rect.c1, l.rect.r2, l.rect.c2)) {
-        mark(l.id);
+        mark(l.g);
         fired = true;
       }
     }
@@ -684,51 +795,61 @@ const SHAPE_CACHE = new WeakMap<Node, Map<number, Guess>>();
 
 function predict(
   book: Book,
-  f: Formula,
+  F: Formulas,
+  g: number,
   soil: SoilSignatures,
   idOf: (sheet: number, row: number, col: number) => number | undefined,
   shapes: (Guessed | undefined)[],
-  reason: (Planned["reason"] | undefined)[],
-  self: number,
+  reason: Uint8Array,
+  isSoil: Uint8Array,
+  infoOf: (g: number) => TreeInfo | undefined,
+  posOf: (g: number) => { row: number; col: number },
+  formOf: (g: number) => Form,
+  refOf: (g: number) => Rect | undefined,
 ): Guessed {
-  const formula = f.cell.formula!;
-  const at = { r1: f.cell.row, c1: f.cell.col, r2: f.cell.row, c2: f.cell.col };
-  const isSoil = f.info ? callsThrough(book, f.info, f.sheet, "soil") : false;
+  const pos = posOf(g);
+  const sheetIdx = F.sheet[g] as number;
+  const at = { r1: pos.row, c1: pos.col, r2: pos.row, c2: pos.col };
+  const form = formOf(g);
+  const soilFormula = isSoil[g] === 1;
   // A SOIL formula is written as Excel stores add-in formulas, a dynamic array, whether the file
   // had it plain (typed without the add-in) or as a fixed array (LibreOffice drops the marks).
-  if (formula.form === "array" && !isSoil) return { area: formula.ref ?? at, mode: "fixed", uncertain: false };
-  const spills = formula.form === "dynamic" || (isSoil && (formula.form === "plain" || formula.form === "array"));
-  if (!spills || !formula.node) return { area: at, mode: "single", uncertain: false };
-  const node = formula.node;
-  const cacheable = f.info !== undefined && f.info.spills.length === 0 && !f.info.opaqueSpill && !f.info.dynamic;
-  let g = cacheable ? SHAPE_CACHE.get(node)?.get(f.sheet) : undefined;
-  if (!g) {
-    const visiting = new Set<number>([self]);
+  if (form === Form.Array && !soilFormula) return { area: refOf(g) ?? at, mode: "fixed", uncertain: false };
+  const spills = form === Form.Dynamic || (soilFormula && (form === Form.Plain || form === Form.Array));
+  const node = book.sheets[sheetIdx]!.formulas.node[F.local[g] as number];
+  if (!spills || !node) return { area: at, mode: "single", uncertain: false };
+  const info = infoOf(g);
+  const cacheable = info !== undefined && info.spills.length === 0 && !info.opaqueSpill && !info.dynamic;
+  let guess = cacheable ? SHAPE_CACHE.get(node)?.get(sheetIdx) : undefined;
+  if (!guess) {
+    const visiting = new Set<number>([g]);
     const spillShape = (sheet: number, row: number, col: number): Guess => {
       const id = idOf(sheet, row, col);
       if (id === undefined) return ONE;
       const known = shapes[id];
       if (known) return { shape: { rows: known.area.r2 - known.area.r1 + 1, cols: known.area.c2 - known.area.c1 + 1 }, uncertain: known.uncertain };
-      const target = book.sheets[sheet]?.rows[row]?.[col];
-      if (!reason[id] || visiting.has(id) || !target?.formula?.node) {
+      const sh = book.sheets[sheet]!;
+      const local = F.local[id] as number;
+      const targetNode = sh.formulas.node[local];
+      if (!reason[id] || visiting.has(id) || !targetNode) {
         // Not recomputed: the spill the file records.
-        const ref = target?.formula?.ref;
+        const ref = sh.formulas.ref.get(local);
         return ref ? { shape: { rows: ref.r2 - ref.r1 + 1, cols: ref.c2 - ref.c1 + 1 }, uncertain: false } : ONE;
       }
       visiting.add(id);
-      const inner = shapeOfNode(target.formula.node, { book, sheet, row, col, arrays: true, soil, spillShape, depth: 0 });
+      const inner = shapeOfNode(targetNode, { book, sheet, row, col, arrays: true, soil, spillShape, depth: 0 });
       visiting.delete(id);
       return inner;
     };
-    g = shapeOfNode(node, { book, sheet: f.sheet, row: f.cell.row, col: f.cell.col, arrays: true, soil, spillShape, depth: 0 });
+    guess = shapeOfNode(node, { book, sheet: sheetIdx, row: pos.row, col: pos.col, arrays: true, soil, spillShape, depth: 0 });
     if (cacheable) {
       let m = SHAPE_CACHE.get(node);
       if (!m) SHAPE_CACHE.set(node, (m = new Map()));
-      m.set(f.sheet, g);
+      m.set(sheetIdx, guess);
     }
   }
-  if (g.shape.rows === 1 && g.shape.cols === 1 && !g.uncertain) return { area: at, mode: "spill", uncertain: false };
-  const r2 = f.cell.row + g.shape.rows - 1;
-  const c2 = f.cell.col + g.shape.cols - 1;
-  return { area: { r1: f.cell.row, c1: f.cell.col, r2: Math.min(r2, MAX_ROWS - 1), c2: Math.min(c2, MAX_COLS - 1) }, mode: "spill", uncertain: g.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS };
+  if (guess.shape.rows === 1 && guess.shape.cols === 1 && !guess.uncertain) return { area: at, mode: "spill", uncertain: false };
+  const r2 = pos.row + guess.shape.rows - 1;
+  const c2 = pos.col + guess.shape.cols - 1;
+  return { area: { r1: pos.row, c1: pos.col, r2: Math.min(r2, MAX_ROWS - 1), c2: Math.min(c2, MAX_COLS - 1) }, mode: "spill", uncertain: guess.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS };
 }

@@ -16,13 +16,13 @@
 import crypto from "crypto";
 import fs from "fs";
 import path from "path";
-import { Book, Cell, Sheet, readBook } from "./book";
+import { Book, Form, Sheet, formulaText, readBook } from "./book";
 import { a1, rangeA1 } from "./cellref";
 import { Ctx, Host, ResourceLimit, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { toStoredFormula, toTypedFormula } from "./formula-text";
-import { Plan, Planned, planRecalc } from "./plan";
+import { ModeCode, Plan, planRecalc } from "./plan";
 import { Circular, RecalcHost } from "./host";
 import { CellWrite, DynamicFormula, cellXml, rewriteSheet } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
@@ -177,37 +177,45 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
   let computed = 0;
   let cm: number | undefined | null = null;
   let formsChanged = false;
+  const oldRange = (i: number) => {
+    const sh = book.sheets[plan.sheet[i] as number]!;
+    const f = plan.formula[i] as number;
+    const form = sh.formulas.form[f];
+    return form === Form.Dynamic || form === Form.Array ? sh.formulas.ref.get(f) : undefined;
+  };
 
   // Spilled elements, fixed-range elements and cleared cells: few; collected per sheet.
   const extras = new Map<number, CellWrite[]>();
-  for (const p of plan.order) {
-    const r = host.result(p);
-    if (r.keep || r.noValue) continue;
-    const f = p.cell.formula!;
-    const old = f.ref;
-    if (r.grid.length === 1 && !(old && (f.form === "dynamic" || f.form === "array") && (old.r2 > old.r1 || old.c2 > old.c1))) continue;
-    const sheet = book.sheets[p.sheet]!;
-    const list = extras.get(p.sheet) ?? [];
-    extras.set(p.sheet, list);
-    const area = r.area;
+  for (let i = 0; i < plan.n; i++) {
+    if (host.keep(i) || host.noValue(i)) continue;
+    const res = host.areaResult(i);
+    const old = oldRange(i);
+    if (!res && !(old && (old.r2 > old.r1 || old.c2 > old.c1))) continue;
+    const sheet = book.sheets[plan.sheet[i] as number]!;
+    const list = extras.get(plan.sheet[i] as number) ?? [];
+    extras.set(plan.sheet[i] as number, list);
+    const area = host.filled(i);
     const width = area.c2 - area.c1 + 1;
-    for (let i = 1; i < r.grid.length; i++) {
-      const row = area.r1 + Math.floor(i / width);
-      const col = area.c1 + (i % width);
-      const v = r.grid[i] as Scalar;
-      if (isError(v)) problems.push({ sheet: p.sheet, row, col, p: problemOf(sheet.name, row, col, f.text, v) });
-      list.push({ kind: "value", row, col, value: writable(v) ?? null });
-      if (p.soil) spilled++;
+    if (res) {
+      for (let j = 1; j < res.grid.length; j++) {
+        const row = area.r1 + Math.floor(j / width);
+        const col = area.c1 + (j % width);
+        const v = res.grid[j] as Scalar;
+        if (isError(v)) problems.push({ sheet: plan.sheet[i] as number, row, col, p: problemOf(sheet.name, row, col, formulaText(sheet, plan.formula[i] as number), v) });
+        list.push({ kind: "value", row, col, value: writable(v) ?? null });
+        if (plan.soil[i]) spilled++;
+      }
     }
     // Cells the formula covered in the file but no longer fills are cleared.
-    if (old && (f.form === "dynamic" || f.form === "array")) {
-      for (let row = old.r1; row <= Math.min(old.r2, sheet.rows.length - 1); row++) {
-        const cells = sheet.rows[row];
-        if (!cells) continue;
-        for (let col = old.c1; col <= Math.min(old.c2, cells.length - 1); col++) {
-          if (!cells[col] || (row >= area.r1 && row <= area.r2 && col >= area.c1 && col <= area.c2)) continue;
-          const owner = plan.owner(p.sheet, row, col);
-          if (owner !== undefined && owner !== p) continue;
+    if (old) {
+      const cells = sheet.cells;
+      for (let row = old.r1; row <= Math.min(old.r2, cells.maxRow); row++) {
+        const [a, b] = cells.rowRange(row);
+        for (let k = a; k < b; k++) {
+          const col = cells.col[k] as number;
+          if (col < old.c1 || col > old.c2 || (row >= area.r1 && row <= area.r2 && col >= area.c1 && col <= area.c2)) continue;
+          const owner = plan.owner(plan.sheet[i] as number, row, col);
+          if (owner >= 0 && owner !== i) continue;
           list.push({ kind: "clear", row, col });
         }
       }
@@ -215,57 +223,60 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
   }
 
   /** The new markup of a planned cell, or undefined to keep it as it is. */
-  const anchor = (sheet: Sheet, p: Planned, xml: string, prefix: string): string | undefined => {
-    const r = host.result(p);
-    const f = p.cell.formula!;
-    if (r.keep) return undefined;
-    const top = r.grid[0] as Scalar;
-    if (r.noValue && !(top instanceof Circular)) {
-      kept.push({ sheet: sheet.name, cell: a1(p.cell), formula: typedOf(f.text), error: (top as XlError).code, message: cut((top as XlError).message, MAX_MESSAGE) });
+  const anchor = (sheet: Sheet, k: number, prefix: string): string | undefined => {
+    const i = sheet.cells.planId[k] as number;
+    const f = plan.formula[i] as number;
+    const row = sheet.cells.row[k] as number;
+    const col = sheet.cells.col[k] as number;
+    if (host.keep(i)) return undefined;
+    const top = host.scalar(i);
+    if (host.noValue(i) && !(top instanceof Circular)) {
+      kept.push({ sheet: sheet.name, cell: a1({ row, col }), formula: typedOf(formulaText(sheet, f)), error: (top as XlError).code, message: cut((top as XlError).message, MAX_MESSAGE) });
       return undefined;
     }
     computed++;
-    if (p.soil) soilCells++;
-    const area = r.area;
-    const value = r.noValue ? undefined : writable(top);
-    if (isError(top)) problems.push({ sheet: p.sheet, row: p.cell.row, col: p.cell.col, p: problemOf(sheet.name, p.cell.row, p.cell.col, f.text, top) });
-    if (values && p.soil) {
+    if (plan.soil[i]) soilCells++;
+    const value = host.noValue(i) ? undefined : writable(top);
+    if (isError(top)) problems.push({ sheet: sheet.index, row, col, p: problemOf(sheet.name, row, col, formulaText(sheet, f), top) });
+    if (values && plan.soil[i]) {
       // A values copy: the SOIL formula gives way to its value, so any program shows the number.
       formsChanged = true;
-      return cellXml({ kind: "value", row: p.cell.row, col: p.cell.col, value: value ?? null }, xml.slice(p.cell.start, p.cell.end), prefix);
+      return cellXml({ kind: "value", row, col, value: value ?? null }, sheet.xml.slice(sheet.cells.start[k] as number, sheet.cells.end[k] as number), prefix);
     }
     let dynamic: DynamicFormula | undefined;
-    if (p.mode === "spill" && (f.form === "plain" || f.form === "dynamic" || f.form === "array")) {
+    const form = sheet.formulas.form[f];
+    if (plan.mode[i] === ModeCode.Spill && (form === Form.Plain || form === Form.Dynamic || form === Form.Array)) {
       if (cm === null) cm = dynamicArrayIndex(pkg);
+      const area = host.filled(i);
+      // Only our own names are rewritten, and only when the file has them another way (typed, or
+      // lower-cased); the test reads the markup itself, which entities do not change for it.
+      const master = sheet.formulas.master[f] as number;
+      const m = master >= 0 ? master : f;
+      const raw = sheet.xml.slice(sheet.formulas.fOpen[m] as number, sheet.formulas.fClose[m] as number);
+      const ref = sheet.formulas.ref.get(f);
       dynamic = {
-        // Only our own names are rewritten, and only when the file has them another way (typed, or lower-cased).
-        text: p.soil && needsStoredForm(f.text) ? toStoredFormula(f.text) : undefined,
+        text: plan.soil[i] && needsStoredForm(raw) ? toStoredFormula(formulaText(sheet, f)) : undefined,
         ref: rangeA1({ row: area.r1, col: area.c1 }, area.r2 - area.r1 + 1, area.c2 - area.c1 + 1),
         ...(cm !== undefined ? { cm } : {}),
       };
-      if (f.form !== "dynamic" || !f.ref || f.ref.r2 !== area.r2 || f.ref.c2 !== area.c2 || dynamic.text !== undefined) formsChanged = true;
+      if (form !== Form.Dynamic || !ref || ref.r2 !== area.r2 || ref.c2 !== area.c2 || dynamic.text !== undefined) formsChanged = true;
     }
-    const w: CellWrite = { kind: "formula", row: p.cell.row, col: p.cell.col, value, cell: p.cell, ...(dynamic ? { dynamic } : {}) };
-    return cellXml(w, xml.slice(p.cell.start, p.cell.end), prefix, xml);
+    const w: CellWrite = { kind: "formula", row, col, value, k, ...(dynamic ? { dynamic } : {}) };
+    return cellXml(w, undefined, prefix, sheet);
   };
 
   for (const sheet of book.sheets) {
     if (!sheet.isWorksheet) continue;
     const list = extras.get(sheet.index) ?? [];
-    const hasPlanned = sheet.formulaCells.some((c) => c.planId >= 0);
+    let hasPlanned = false;
+    for (let fi = 0; fi < sheet.formulas.n && !hasPlanned; fi++) if ((sheet.cells.planId[sheet.formulas.cell[fi] as number] as number) >= 0) hasPlanned = true;
     if (!hasPlanned && !list.length) continue;
-    const bytes = asFileError(`sheet "${sheet.name}" cannot be updated`, () =>
-      rewriteSheet(sheet, (cell, xml, prefix) => anchor(sheet, planOf(plan, sheet.index, cell) as Planned, xml, prefix), dedupe(list)),
-    );
+    const bytes = asFileError(`sheet "${sheet.name}" cannot be updated`, () => rewriteSheet(sheet, (k, prefix) => anchor(sheet, k, prefix), dedupe(list)));
     pkg.write(sheet.path, bytes);
   }
   if (formsChanged) dropCalcChain(pkg);
   problems.sort((x, y) => x.sheet - y.sheet || x.row - y.row || x.col - y.col);
   return { errors: problems.map((x) => x.p), kept, soilCells, spilled, computed };
-}
-
-function planOf(plan: Plan, sheet: number, cell: Cell): Planned | undefined {
-  return plan.at(sheet, cell.row, cell.col);
 }
 
 function typedOf(text: string): string {

@@ -4,7 +4,7 @@
  * re-serialised (from their own markup, re-read with the tokenizer), new cells and rows are
  * inserted where they belong, and every other byte of the part is kept as it was.
  */
-import type { Cell, Sheet } from "./book";
+import type { Sheet } from "./book";
 import { a1 } from "./cellref";
 import { Scalar, XlError } from "./formula/values";
 import { Tok, XmlScanner, encodeXmlText } from "./xml";
@@ -25,8 +25,8 @@ export type CellWrite =
       readonly value: Scalar | undefined;
       /** Rewrite the <f> as a dynamic-array formula (text in stored form; undefined keeps the file's text). */
       readonly dynamic?: DynamicFormula;
-      /** The cell as read, when the file has it (its markup's offsets make the rewrite cheap). */
-      readonly cell?: Cell;
+      /** The cell's number in its sheet, when the file has it (its markup's offsets make the rewrite cheap). */
+      readonly k?: number;
     }
   | { readonly kind: "value"; readonly row: number; readonly col: number; readonly value: Scalar }
   | { readonly kind: "clear"; readonly row: number; readonly col: number };
@@ -97,18 +97,23 @@ function typeAndValue(v: Scalar, p: string, formula: boolean): { t?: string; bod
  * The tag was delimited by the tokenizer, so its attribute values are quoted and hold no '<'.
  */
 function rewriteStartTag(tag: string, drop: (name: string) => boolean, add: string): string {
+  const isSpace = (c: number) => c === 32 || c === 9 || c === 10 || c === 13;
+  const n = tag.length;
   let i = 1;
-  while (i < tag.length && !/[\s/>]/.test(tag[i] as string)) i++;
+  while (i < n) {
+    const c = tag.charCodeAt(i);
+    if (isSpace(c) || c === 47 || c === 62) break;
+    i++;
+  }
   let out = tag.slice(0, i);
   for (;;) {
-    while (i < tag.length && /\s/.test(tag[i] as string)) i++;
-    if (i >= tag.length || tag[i] === ">" || tag[i] === "/") break;
+    while (i < n && isSpace(tag.charCodeAt(i))) i++;
+    if (i >= n || tag.charCodeAt(i) === 62 || tag.charCodeAt(i) === 47) break;
     const a = i;
-    while (i < tag.length && tag[i] !== "=" && !/\s/.test(tag[i] as string)) i++;
+    while (i < n && tag.charCodeAt(i) !== 61 && !isSpace(tag.charCodeAt(i))) i++;
     const name = tag.slice(a, i);
-    while (tag[i] !== '"' && tag[i] !== "'") i++;
-    const q = tag[i] as string;
-    const close = tag.indexOf(q, i + 1);
+    while (i < n && tag.charCodeAt(i) !== 34 && tag.charCodeAt(i) !== 39) i++;
+    const close = tag.indexOf(tag[i] as string, i + 1);
     i = close + 1;
     if (!drop(name)) out += ` ${tag.slice(a, i)}`;
   }
@@ -118,19 +123,21 @@ function rewriteStartTag(tag: string, drop: (name: string) => boolean, add: stri
 const TYPE_ATTRS = (name: string) => name === "t" || name === "cm" || name === "vm";
 
 /** A formula cell rewritten from its own markup's offsets: start tag, <f> kept or rewritten, new value. */
-function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, xml: string, cell: Cell, p: string): string {
-  const span = cell.formula!.span;
+function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, sheet: Sheet, k: number, p: string): string {
+  const xml = sheet.xml;
+  const fs = sheet.formulas;
+  const fi = sheet.cells.formula[k] as number;
   let add = "";
   let f: string;
   if (w.dynamic) {
-    const inner = w.dynamic.text !== undefined ? encodeXmlText(w.dynamic.text) : xml.slice(span.fOpen, span.fClose);
+    const inner = w.dynamic.text !== undefined ? encodeXmlText(w.dynamic.text) : xml.slice(fs.fOpen[fi] as number, fs.fClose[fi] as number);
     f = `<${p}f t="array" ref="${w.dynamic.ref}">${inner}</${p}f>`;
     if (w.dynamic.cm !== undefined) add += ` cm="${w.dynamic.cm}"`;
   } else {
-    f = xml.slice(span.f, span.fEnd);
+    f = xml.slice(fs.f[fi] as number, fs.fEnd[fi] as number);
   }
-  const tag = xml.slice(cell.start, span.open);
-  const keepCm = !w.dynamic ? /\scm=/.test(tag) : false;
+  const tag = xml.slice(sheet.cells.start[k] as number, fs.open[fi] as number);
+  const keepCm = !w.dynamic ? tag.includes(" cm=") || /\scm=/.test(tag) : false;
   if (!/\sr=/.test(tag)) add = ` r="${a1({ row: w.row, col: w.col })}"${add}`; // the position, written out
   const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
   if ("t" in tv && tv.t) add += ` t="${tv.t}"`;
@@ -139,9 +146,11 @@ function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, xml: string
 }
 
 /** Serialises one cell: its own attributes kept (type, cm and vm recomputed), its formula kept or rewritten. */
-export function cellXml(w: CellWrite, old: string | undefined, prefix: string, xml?: string): string {
-  if (w.kind === "formula" && w.cell && xml !== undefined && w.cell.formula?.span.simple && w.cell.formula.span.f >= 0) {
-    return formulaCellFast(w, xml, w.cell, prefix ? `${prefix}:` : "");
+export function cellXml(w: CellWrite, old: string | undefined, prefix: string, sheet?: Sheet): string {
+  if (w.kind === "formula" && w.k !== undefined && sheet) {
+    const fi = sheet.cells.formula[w.k] as number;
+    if (fi >= 0 && sheet.formulas.simple[fi] && (sheet.formulas.f[fi] as number) >= 0) return formulaCellFast(w, sheet, w.k, prefix ? `${prefix}:` : "");
+    old ??= sheet.xml.slice(sheet.cells.start[w.k] as number, sheet.cells.end[w.k] as number);
   }
   const p = prefix ? `${prefix}:` : "";
   const parts = old ? cellParts(old) : { attrs: [["r", a1({ row: w.row, col: w.col })]] as [string, string][], keep: [] as string[] };
@@ -195,11 +204,20 @@ export function patchSheetXml(sheet: Sheet, writes: readonly CellWrite[]): Buffe
  * as the sheet is walked in order (nothing per cell is kept for the whole sheet); `extras`
  * (spilled elements, cleared cells) are applied beside them; every other byte is copied.
  */
-export function rewriteSheet(sheet: Sheet, replace: (cell: Cell, xml: string, prefix: string) => string | undefined, extras: readonly CellWrite[]): Buffer {
+export function rewriteSheet(sheet: Sheet, replace: (k: number, prefix: string) => string | undefined, extras: readonly CellWrite[]): Buffer {
   const xml = sheet.xml;
   const sd = sheet.sheetData;
   if (!sd) throw new Error("worksheet has no sheetData");
-  const edits = extras.length ? sheetEdits(sheet, extras.filter((w) => !((sheet.rows[w.row]?.[w.col]?.planId ?? -1) >= 0))) : [];
+  const cells = sheet.cells;
+  const edits = extras.length
+    ? sheetEdits(
+        sheet,
+        extras.filter((w) => {
+          const k = cells.find(w.row, w.col);
+          return !(k >= 0 && (cells.planId[k] as number) >= 0);
+        }),
+      )
+    : [];
   const out = new Utf8Writer();
   let at = 0;
   let ei = 0;
@@ -209,12 +227,15 @@ export function rewriteSheet(sheet: Sheet, replace: (cell: Cell, xml: string, pr
     out.add(e.text);
     at = e.end;
   };
-  for (const cell of sheet.formulaCells) {
-    if (cell.planId < 0) continue;
+  const fs = sheet.formulas;
+  for (let fi = 0; fi < fs.n; fi++) {
+    const k = fs.cell[fi] as number;
+    if ((cells.planId[k] as number) < 0) continue;
+    const start = cells.start[k] as number;
     // Edits before this cell (an insertion at its very start goes first).
-    while (ei < edits.length && ((edits[ei] as Edit).start < cell.start || ((edits[ei] as Edit).start === cell.start && (edits[ei] as Edit).end === cell.start))) take(edits[ei++] as Edit);
-    const text = replace(cell, xml, sd.prefix);
-    if (text !== undefined) take({ start: cell.start, end: cell.end, text });
+    while (ei < edits.length && ((edits[ei] as Edit).start < start || ((edits[ei] as Edit).start === start && (edits[ei] as Edit).end === start))) take(edits[ei++] as Edit);
+    const text = replace(k, sd.prefix);
+    if (text !== undefined) take({ start, end: cells.end[k] as number, text });
   }
   while (ei < edits.length) take(edits[ei++] as Edit);
   out.add(xml.slice(at));
@@ -226,6 +247,7 @@ function sheetEdits(sheet: Sheet, writes: readonly CellWrite[]): Edit[] {
   const sd = sheet.sheetData;
   if (!sd) throw new Error("worksheet has no sheetData");
   const p = sd.prefix ? `${sd.prefix}:` : "";
+  const cells = sheet.cells;
   const byRow = new Map<number, CellWrite[]>();
   for (const w of writes) {
     const list = byRow.get(w.row);
@@ -239,42 +261,42 @@ function sheetEdits(sheet: Sheet, writes: readonly CellWrite[]): Edit[] {
   let si = 0;
   for (const row of rows) {
     const ws = (byRow.get(row) as CellWrite[]).sort((a, b) => a.col - b.col);
-    while (si < spans.length && (spans[si] as (typeof spans)[number]).row < row) si++;
-    const span = spans[si];
-    if (!span || span.row !== row) {
-      const cells = ws.filter((w) => w.kind !== "clear").map((w) => cellXml(w, undefined, sd.prefix));
-      if (cells.length) newRows.push({ before: span ? span.start : sd.closeStart, text: `<${p}row r="${row + 1}">${cells.join("")}</${p}row>` });
+    while (si < spans.n && (spans.row[si] as number) < row) si++;
+    if (si >= spans.n || spans.row[si] !== row) {
+      const rendered = ws.filter((w) => w.kind !== "clear").map((w) => cellXml(w, undefined, sd.prefix));
+      if (rendered.length) newRows.push({ before: si < spans.n ? (spans.start[si] as number) : sd.closeStart, text: `<${p}row r="${row + 1}">${rendered.join("")}</${p}row>` });
       continue;
     }
-    const existing = sheet.rows[row] ?? [];
+    const rowStart = spans.start[si] as number;
+    const rowOpenEnd = spans.openEnd[si] as number;
+    const rowCloseStart = spans.closeStart[si] as number;
+    const rowEnd = spans.end[si] as number;
+    const selfClosing = spans.selfClosing[si] === 1;
     let added = false;
     const inserts: { at: number; text: string }[] = [];
     for (const w of ws) {
-      const cell = existing[w.col];
-      if (cell) {
-        edits.push({ start: cell.start, end: cell.end, text: cellXml(w, xml.slice(cell.start, cell.end), sd.prefix, xml) });
+      const k = cells.find(w.row, w.col);
+      if (k >= 0) {
+        const start = cells.start[k] as number;
+        const end = cells.end[k] as number;
+        edits.push({ start, end, text: cellXml(w, xml.slice(start, end), sd.prefix, sheet) });
         continue;
       }
       if (w.kind === "clear") continue;
       // A new cell goes before the first existing cell to its right, or at the end of the row.
-      let at = span.closeStart;
-      for (let c = w.col + 1; c < existing.length; c++) {
-        const next = existing[c];
-        if (next) {
-          at = next.start;
-          break;
-        }
-      }
+      const next = cells.firstAtOrAfter(w.row, w.col);
+      const [, rowLast] = cells.rowRange(w.row);
+      const at = next < rowLast ? (cells.start[next] as number) : rowCloseStart;
       inserts.push({ at, text: cellXml(w, undefined, sd.prefix) });
       added = true;
     }
     if (added) {
-      const tag = rowOpen(xml, span.start, span.openEnd);
-      if (span.selfClosing) {
-        edits.push({ start: span.start, end: span.end, text: `${tag.open}${inserts.map((i) => i.text).join("")}</${tag.name}>` });
+      const tag = rowOpen(xml, rowStart, rowOpenEnd);
+      if (selfClosing) {
+        edits.push({ start: rowStart, end: rowEnd, text: `${tag.open}${inserts.map((i) => i.text).join("")}</${tag.name}>` });
         continue;
       }
-      edits.push({ start: span.start, end: span.openEnd, text: tag.open });
+      edits.push({ start: rowStart, end: rowOpenEnd, text: tag.open });
       const grouped = new Map<number, string>();
       for (const i of inserts) grouped.set(i.at, (grouped.get(i.at) ?? "") + i.text);
       for (const [at, text] of grouped) edits.push({ start: at, end: at, text });
@@ -308,25 +330,23 @@ function applyEdits(xml: string, edits: readonly Edit[]): Buffer {
   return out.toBuffer();
 }
 
-/** Collects text as UTF-8 bytes in blocks, so a part larger than a JavaScript string can hold can still be written. */
+/** Collects text as UTF-8 bytes in one growing buffer (no joined string: a part may be larger than a JavaScript string can hold). */
 export class Utf8Writer {
-  private readonly blocks: Buffer[] = [];
-  private pending: string[] = [];
-  private pendingLength = 0;
+  private buf = Buffer.allocUnsafe(1 << 20);
+  private at = 0;
   add(s: string): void {
     if (!s) return;
-    this.pending.push(s);
-    this.pendingLength += s.length;
-    if (this.pendingLength > 1 << 22) this.flush();
-  }
-  private flush(): void {
-    if (!this.pending.length) return;
-    this.blocks.push(Buffer.from(this.pending.join(""), "utf8"));
-    this.pending = [];
-    this.pendingLength = 0;
+    const need = this.at + s.length * 3;
+    if (need > this.buf.length) {
+      let size = this.buf.length * 2;
+      while (size < need) size *= 2;
+      const next = Buffer.allocUnsafe(size);
+      this.buf.copy(next, 0, 0, this.at);
+      this.buf = next;
+    }
+    this.at += this.buf.write(s, this.at, "utf8");
   }
   toBuffer(): Buffer {
-    this.flush();
-    return this.blocks.length === 1 ? (this.blocks[0] as Buffer) : Buffer.concat(this.blocks);
+    return this.buf.subarray(0, this.at);
   }
 }

@@ -251,6 +251,22 @@ const NAMED: Record<string, string> = { lt: "<", gt: ">", amp: "&", quot: '"', a
 /** Decodes XML character and entity references; an unknown entity is an error, not text. */
 export function decodeXmlText(s: string): string {
   if (s.indexOf("&") < 0) return normaliseNewlines(s);
+  // The entities formulas hold by the thousand, without a regular expression.
+  if (s.indexOf("&#") < 0 && s.indexOf("\r") < 0) {
+    let out = "";
+    let last = 0;
+    let i = s.indexOf("&");
+    while (i >= 0) {
+      const semi = s.indexOf(";", i);
+      const name = semi > i ? s.slice(i + 1, semi) : "";
+      const v = NAMED[name];
+      if (v === undefined) throw new XmlError(`unknown entity &${name.slice(0, 12)};`);
+      out += s.slice(last, i) + v;
+      last = semi + 1;
+      i = s.indexOf("&", last);
+    }
+    return out + s.slice(last);
+  }
   return normaliseNewlines(
     s.replace(/&([^;]{0,12});/g, (m, body: string) => {
       if (body.startsWith("#x") || body.startsWith("#X")) return codePoint(parseInt(body.slice(2), 16), m);

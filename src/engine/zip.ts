@@ -130,7 +130,9 @@ export function writeZip(entries: readonly ZipOut[]): Buffer {
       const data = e.data as Buffer;
       crc = zlib.crc32(data) >>> 0;
       size = data.length;
-      raw = zlib.deflateRawSync(data, { level: 6 });
+      // Large parts at the fastest level: a season sheet deflates about three times faster for
+      // about a sixth more bytes (measured on a 200 MB sheet); small parts at the usual level.
+      raw = zlib.deflateRawSync(data, { level: data.length > 1 << 20 ? 1 : 6 });
       method = 8;
       if (raw.length >= data.length) {
         raw = data;

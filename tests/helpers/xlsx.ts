@@ -98,13 +98,11 @@ export async function cachedValues(file: string): Promise<Map<string, Scalar | s
     return s;
   };
   for (const sheet of book.sheets) {
-    sheet.rows.forEach((cells, r) =>
-      cells?.forEach((cell, col) => {
-        if (!cell) return;
-        const v = cell.value;
-        out.set(`${sheet.name}!${letters(col)}${r + 1}`, v instanceof XlError ? v.code : v);
-      }),
-    );
+    const cells = sheet.cells;
+    for (let k = 0; k < cells.n; k++) {
+      const v = cells.value(k);
+      out.set(`${sheet.name}!${letters(cells.col[k] as number)}${(cells.row[k] as number) + 1}`, v instanceof XlError ? v.code : v);
+    }
   }
   return out;
 }
