@@ -354,7 +354,9 @@ export function planRecalc(book: Book, soil: SoilSignatures): Plan {
   const changed = new IntervalIndex();
   const markChanged = (g: number) => {
     const sheet = F.sheet[g] as number;
-    changed.add(sheet, shapeOf(g).area);
+    const sh = shapeOf(g);
+    const p = posOf(g);
+    changed.add(sheet, { r1: p.row, c1: p.col, r2: p.row + sh.rows - 1, c2: p.col + sh.cols - 1 });
     const old = oldRange(g);
     if (old) changed.add(sheet, old);
   };
@@ -427,11 +429,12 @@ export function planRecalc(book: Book, soil: SoilSignatures): Plan {
     P.soil[id] = isSoil[g] as number;
     P.reason[id] = reason[g] as number;
     P.uncertain[id] = s.uncertain ? 1 : 0;
-    P.r2[id] = s.area.r2;
-    P.c2[id] = s.area.c2;
+    const sArea = { r1: pos.row, c1: pos.col, r2: pos.row + s.rows - 1, c2: pos.col + s.cols - 1 };
+    P.r2[id] = sArea.r2;
+    P.c2[id] = sArea.c2;
     sh.cells.planId[pos.k] = id;
     const old = oldRange(g);
-    const regions = [s.area];
+    const regions = [sArea];
     if (old) regions.push(old);
     const multi = regions.some((r) => r.r2 > r.r1 || r.c2 > r.c1);
     if (!multi) {
@@ -659,11 +662,15 @@ function propagateByIndex(
 // Shapes
 
 type Guess = { shape: Shape; uncertain: boolean };
+/** A predicted result: its size from the anchor, how it is evaluated, and whether the size is certain. */
 interface Guessed {
-  readonly area: Rect;
+  readonly rows: number;
+  readonly cols: number;
   readonly mode: Mode;
   readonly uncertain: boolean;
 }
+const SINGLE: Guessed = { rows: 1, cols: 1, mode: "single", uncertain: false };
+const ONE_SPILL: Guessed = { rows: 1, cols: 1, mode: "spill", uncertain: false };
 const ONE: Guess = { shape: { rows: 1, cols: 1 }, uncertain: false };
 
 function broadcast(gs: Guess[]): Guess {
@@ -814,10 +821,13 @@ function predict(
   const soilFormula = isSoil[g] === 1;
   // A SOIL formula is written as Excel stores add-in formulas, a dynamic array, whether the file
   // had it plain (typed without the add-in) or as a fixed array (LibreOffice drops the marks).
-  if (form === Form.Array && !soilFormula) return { area: refOf(g) ?? at, mode: "fixed", uncertain: false };
+  if (form === Form.Array && !soilFormula) {
+    const ref = refOf(g) ?? at;
+    return { rows: ref.r2 - ref.r1 + 1, cols: ref.c2 - ref.c1 + 1, mode: "fixed", uncertain: false };
+  }
   const spills = form === Form.Dynamic || (soilFormula && (form === Form.Plain || form === Form.Array));
   const node = book.sheets[sheetIdx]!.formulas.node[F.local[g] as number];
-  if (!spills || !node) return { area: at, mode: "single", uncertain: false };
+  if (!spills || !node) return SINGLE;
   const info = infoOf(g);
   const cacheable = info !== undefined && info.spills.length === 0 && !info.opaqueSpill && !info.dynamic;
   let guess = cacheable ? SHAPE_CACHE.get(node)?.get(sheetIdx) : undefined;
@@ -827,7 +837,7 @@ function predict(
       const id = idOf(sheet, row, col);
       if (id === undefined) return ONE;
       const known = shapes[id];
-      if (known) return { shape: { rows: known.area.r2 - known.area.r1 + 1, cols: known.area.c2 - known.area.c1 + 1 }, uncertain: known.uncertain };
+      if (known) return { shape: { rows: known.rows, cols: known.cols }, uncertain: known.uncertain };
       const sh = book.sheets[sheet]!;
       const local = F.local[id] as number;
       const targetNode = sh.formulas.node[local];
@@ -848,8 +858,13 @@ function predict(
       m.set(sheetIdx, guess);
     }
   }
-  if (guess.shape.rows === 1 && guess.shape.cols === 1 && !guess.uncertain) return { area: at, mode: "spill", uncertain: false };
+  if (guess.shape.rows === 1 && guess.shape.cols === 1 && !guess.uncertain) return ONE_SPILL;
   const r2 = pos.row + guess.shape.rows - 1;
   const c2 = pos.col + guess.shape.cols - 1;
-  return { area: { r1: pos.row, c1: pos.col, r2: Math.min(r2, MAX_ROWS - 1), c2: Math.min(c2, MAX_COLS - 1) }, mode: "spill", uncertain: guess.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS };
+  return {
+    rows: Math.min(r2, MAX_ROWS - 1) - pos.row + 1,
+    cols: Math.min(c2, MAX_COLS - 1) - pos.col + 1,
+    mode: "spill",
+    uncertain: guess.uncertain || r2 >= MAX_ROWS || c2 >= MAX_COLS,
+  };
 }
