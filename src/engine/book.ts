@@ -269,7 +269,8 @@ function readSheet(
   cache: Map<string, Node>,
 ): Sheet {
   const s = new XmlScanner(xml);
-  const cells = new CellStore();
+  // A cell's markup is rarely under 40 characters: the arrays start at a size they seldom outgrow.
+  const cells = new CellStore(xml.length / 64);
   const formulas = new FormulaStore();
   const rowSpans = new RowStore();
   const merges: Rect[] = [];

@@ -218,7 +218,7 @@ export function rewriteSheet(sheet: Sheet, replace: (k: number, prefix: string) 
         }),
       )
     : [];
-  const out = new Utf8Writer();
+  const out = new Utf8Writer(xml.length * 1.15 + (1 << 16));
   let at = 0;
   let ei = 0;
   const take = (e: Edit) => {
@@ -332,8 +332,12 @@ function applyEdits(xml: string, edits: readonly Edit[]): Buffer {
 
 /** Collects text as UTF-8 bytes in one growing buffer (no joined string: a part may be larger than a JavaScript string can hold). */
 export class Utf8Writer {
-  private buf = Buffer.allocUnsafe(1 << 20);
+  private buf: Buffer;
   private at = 0;
+  /** `expected`: the bytes the output will likely need (a rewritten sheet is about its own size). */
+  constructor(expected = 1 << 20) {
+    this.buf = Buffer.allocUnsafe(Math.max(1 << 16, Math.ceil(expected)));
+  }
   add(s: string): void {
     if (!s) return;
     const need = this.at + s.length * 3;

@@ -50,20 +50,33 @@ function fileError(code: ErrorCode): XlError {
 
 export class CellStore {
   n = 0;
-  row = new Int32Array(1024);
-  col = new Int32Array(1024);
+  row: Int32Array;
+  col: Int32Array;
   /** Offsets of the whole <c> element in the sheet part. */
-  start = new Int32Array(1024);
-  end = new Int32Array(1024);
+  start: Int32Array;
+  end: Int32Array;
   /** Kind of the cached value, plus 8 when the file caches one (a formula without one is computed). */
-  kind = new Uint8Array(1024);
-  num = new Float64Array(1024);
+  kind: Uint8Array;
+  num: Float64Array;
   /** Text and error values, by cell number (holes elsewhere). */
   readonly obj: (string | XlError | undefined)[] = [];
   /** The cell's formula number, or -1. */
-  formula = new Int32Array(1024);
+  formula: Int32Array;
   /** The planner's number for a cell it computes, -1 otherwise. */
-  planId = new Int32Array(1024);
+  planId: Int32Array;
+
+  /** `expected`: a guess at the number of cells (from the part's size), so the arrays rarely grow. */
+  constructor(expected = 1024) {
+    const n = Math.max(16, Math.ceil(expected));
+    this.row = new Int32Array(n);
+    this.col = new Int32Array(n);
+    this.start = new Int32Array(n);
+    this.end = new Int32Array(n);
+    this.kind = new Uint8Array(n);
+    this.num = new Float64Array(n);
+    this.formula = new Int32Array(n);
+    this.planId = new Int32Array(n);
+  }
   /** First cell number of each row (rowFirst[r]..rowFirst[r+1]); built by finish(). */
   private rowFirst = new Int32Array(0);
   /** Last row (0-based) that holds a cell, -1 when none. */

@@ -142,7 +142,16 @@ export type ElementResult = number | string | null;
 export interface BindingSpec {
   readonly params: readonly Param[];
   readonly element: (...values: never[]) => ElementResult;
+  /**
+   * The same computation over many elements at once (a core column kernel), given for each
+   * parameter either a column of numbers (one per element) or the one value every element shares;
+   * returns a number or a SoilError per element, exactly as `element` would.
+   */
+  readonly column?: ColumnKernel;
 }
+
+/** A column kernel: per parameter a Float64Array (one number per element) or a shared value; the element count. */
+export type ColumnKernel = (values: unknown[], n: number) => (number | SoilError)[];
 
 const SPECS = new WeakMap<Function, BindingSpec>();
 
@@ -155,8 +164,9 @@ export function declare<const Ps extends readonly Param[]>(
   binding: Function,
   params: Ps,
   element: (...values: ElementValues<Ps>) => ElementResult,
+  column?: ColumnKernel,
 ): (args: ArrayLike<unknown>) => Out {
-  const spec: BindingSpec = { params, element: element as BindingSpec["element"] };
+  const spec: BindingSpec = column ? { params, element: element as BindingSpec["element"], column } : { params, element: element as BindingSpec["element"] };
   SPECS.set(binding, spec);
   return (args) => {
     // An indexed copy: Array.from walks an `arguments` object through its iterator, which cost
@@ -325,6 +335,10 @@ function run(spec: BindingSpec, args: unknown[]): Out {
   }
   const shape = broadcastShape(shapes);
   if ("error" in shape) return [[hostErrorFor(new SoilError("SHAPE_MISMATCH", shape.error))]];
+  if (spec.column && shape.rows * shape.cols >= 16) {
+    const fast = runColumn(spec, spec.column, grids, wholes, shape);
+    if (fast) return fast;
+  }
 
   const out: Out = [];
   const values: unknown[] = new Array(params.length);
@@ -334,6 +348,87 @@ function run(spec: BindingSpec, args: unknown[]): Out {
       row.push(element(spec, grids, wholes, values, r, c));
     }
     out.push(row);
+  }
+  return out;
+}
+
+/**
+ * The column path: elements whose numeric arguments are all plain numbers go to the kernel in one
+ * call; every other element (blank, text, an error in a cell) takes the element path, so each
+ * element's result is what `element` gives it. Undefined when the arguments do not suit a kernel
+ * (a text argument that varies by element, or one that is blank or an error).
+ */
+function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undefined)[], wholes: unknown[], shape: Shape): Out | undefined {
+  const { params } = spec;
+  const shared: unknown[] = new Array(params.length);
+  const columns: (Grid | undefined)[] = new Array(params.length);
+  for (let i = 0; i < params.length; i++) {
+    const p = params[i] as Param;
+    if (p.kind === "range") {
+      shared[i] = wholes[i];
+      continue;
+    }
+    const g = grids[i];
+    if (!g) {
+      if (!p.optional) return undefined;
+      shared[i] = p.default;
+      continue;
+    }
+    const single = g.length === 1 && (g[0] as Cell[]).length === 1;
+    if (p.kind === "number" && !single) {
+      columns[i] = g;
+      continue;
+    }
+    const c = (g[0] as Cell[])[0];
+    if (!single || errors().is(c)) return undefined;
+    if (p.kind === "number" && !(typeof c === "number" && Number.isFinite(c))) return undefined;
+    try {
+      const v = elementValue(p, c, false);
+      if (v === BLANK) return undefined;
+      shared[i] = v;
+    } catch {
+      return undefined;
+    }
+  }
+  const n = shape.rows * shape.cols;
+  const eligible: number[] = [];
+  for (let pos = 0; pos < n; pos++) {
+    const r = Math.floor(pos / shape.cols);
+    const c = pos % shape.cols;
+    let ok = true;
+    for (let i = 0; i < params.length && ok; i++) {
+      const g = columns[i];
+      if (!g) continue;
+      const v = (g[r] as Cell[])[c];
+      ok = typeof v === "number" && Number.isFinite(v);
+    }
+    if (ok) eligible.push(pos);
+  }
+  const values = shared.slice();
+  for (let i = 0; i < params.length; i++) {
+    const g = columns[i];
+    if (!g) continue;
+    const a = new Float64Array(eligible.length);
+    for (let j = 0; j < eligible.length; j++) {
+      const pos = eligible[j] as number;
+      a[j] = (g[Math.floor(pos / shape.cols)] as Cell[])[pos % shape.cols] as number;
+    }
+    values[i] = a;
+  }
+  const results = eligible.length ? kernel(values, eligible.length) : [];
+  const out: Out = [];
+  for (let r = 0; r < shape.rows; r++) out.push(new Array(shape.cols));
+  const scratch: unknown[] = new Array(params.length);
+  let next = 0;
+  for (let pos = 0; pos < n; pos++) {
+    const r = Math.floor(pos / shape.cols);
+    const c = pos % shape.cols;
+    let v: unknown;
+    if (next < eligible.length && eligible[next] === pos) {
+      const x = results[next++];
+      v = x instanceof SoilError ? hostErrorFor(x) : typeof x === "number" && Number.isFinite(x) ? (x === 0 ? 0 : x) : hostErrorFor(new Error("a result was not a finite number"));
+    } else v = element(spec, grids, wholes, scratch, r, c);
+    (out[r] as unknown[])[c] = v;
   }
   return out;
 }

@@ -1,5 +1,5 @@
 /** Excel bindings: cations. Argument shaping only; the science is in src/core. */
-import { cecSum, cecSaturation, cecCaMgRatio, cecEsp, CEC_UNIT_NEED } from "../core/cations/cations";
+import { cecSum, cecSaturation, cecCaMgRatio, cecEsp, CEC_UNIT_NEED, cecSumColumn, cecSaturationColumn, ColumnOf } from "../core/cations/cations";
 import { cecSar, SAR_UNIT_NEED } from "../core/cations/sar";
 import { cecEspFromSar } from "../core/cations/esp-sar";
 import { declare, num, optNum, optText, text } from "./_binding";
@@ -27,6 +27,7 @@ const CEC = declare(
   cec,
   [num("ca"), num("mg"), num("k"), num("na"), text("unit", CEC_UNIT_NEED), optNum("acidity"), optNum("bulk_density")],
   (ca, mg, k, na, unit, acidity, bulkDensity) => cecSum(ca, mg, k, na, unit, acidity, bulkDensity),
+  (v, n) => cecSumColumn(v[0] as ColumnOf, v[1] as ColumnOf, v[2] as ColumnOf, v[3] as ColumnOf, v[4] as string, v[5] as ColumnOf, v[6] as ColumnOf, n),
 );
 
 /**
@@ -64,6 +65,7 @@ const SATURATION = declare(
   saturation,
   [text("part"), num("ca"), num("mg"), num("k"), num("na"), text("unit", CEC_UNIT_NEED), optNum("acidity"), optNum("cec"), optNum("bulk_density")],
   (part, ca, mg, k, na, unit, acidity, cecMeasured, bulkDensity) => cecSaturation(part, ca, mg, k, na, unit, acidity, cecMeasured, bulkDensity),
+  (v, n) => cecSaturationColumn(v[0] as string, v[1] as ColumnOf, v[2] as ColumnOf, v[3] as ColumnOf, v[4] as ColumnOf, v[5] as string, v[6] as ColumnOf, v[7] as ColumnOf, v[8] as ColumnOf, n),
 );
 
 /**

@@ -249,3 +249,148 @@ export function cecEsp(na: number, cec: number, unitWord: string | undefined, bu
   return finite((100 * naC) / cec, "ESP");
 }
 
+
+// ---------------------------------------------------------------------------------------------
+// Column kernels: the same computations over a column of samples, with the unit word, the part
+// and the equivalent weights read once per column instead of once per sample. Every sample gets
+// every check its scalar function makes; a sample that fails one is handed to the scalar function,
+// so its error (code and message) is exactly the one a single cell gives.
+
+/** Numbers of one argument: a column (one per sample) or one value for every sample. */
+export type ColumnOf = ArrayLike<number> | number | undefined;
+
+const at = (x: ColumnOf, i: number): number | undefined => (typeof x === "number" || x === undefined ? x : (x[i] as number));
+
+/**
+ * From the reported unit to cmol(+)/kg: value × toBase ÷ divisor per ion (divisor 1 for a charge
+ * unit), computed in the order cecChargeOf computes it so results agree to the last bit; undefined
+ * for a per-volume unit (it needs a bulk density per sample).
+ */
+function chargeFactors(unitWord: string | undefined): { toBase: number; Ca: number; Mg: number; K: number; Na: number } | undefined {
+  const unit = cationUnit(unitWord);
+  if (unit.family === "per_volume") return undefined;
+  const d = (ion: BaseCation) => (unit.family === "charge" ? 1 : mgPerCmol(ion));
+  return { toBase: unit.toBase, Ca: d("Ca"), Mg: d("Mg"), K: d("K"), Na: d("Na") };
+}
+
+const ok = (v: number | undefined) => v !== undefined && v >= 0 && v < Infinity;
+
+/**
+ * cecSum over `n` samples.
+ * @returns one result per sample: the CEC in cmol(+)/kg, or the SoilError cecSum gives that sample
+ * @example cecSumColumn([2000], [180], [150], [30], "mg/kg", [2], undefined, 1)[0] //=> 13.976
+ * Source: as cecSum.
+ */
+export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: ColumnOf, unitWord: string | undefined, acidity: ColumnOf, bulkDensity: ColumnOf, n: number): (number | SoilError)[] {
+  const out: (number | SoilError)[] = new Array(n);
+  const scalar = (i: number) => {
+    try {
+      return cecSum(at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(bulkDensity, i));
+    } catch (e) {
+      if (e instanceof SoilError) return e;
+      throw e;
+    }
+  };
+  let f: ReturnType<typeof chargeFactors>;
+  try {
+    f = chargeFactors(unitWord);
+  } catch (e) {
+    if (!(e instanceof SoilError)) throw e;
+    out.fill(e);
+    return out;
+  }
+  if (!f) {
+    for (let i = 0; i < n; i++) out[i] = scalar(i);
+    return out;
+  }
+  const { toBase: t, Ca, Mg, K, Na } = f;
+  const charge = Ca === 1;
+  for (let i = 0; i < n; i++) {
+    const a = at(ca, i);
+    const b = at(mg, i);
+    const c = at(k, i);
+    const d = at(na, i);
+    const h = at(acidity, i);
+    if (!ok(a) || !ok(b) || !ok(c) || !ok(d) || (h !== undefined && !ok(h))) {
+      out[i] = scalar(i);
+      continue;
+    }
+    const sum = charge
+      ? (a as number) * t + (b as number) * t + (c as number) * t + (d as number) * t + (h ?? 0)
+      : ((a as number) * t) / Ca + ((b as number) * t) / Mg + ((c as number) * t) / K + ((d as number) * t) / Na + (h ?? 0);
+    out[i] = sum < Infinity ? sum : scalar(i);
+  }
+  return out;
+}
+
+/**
+ * cecSaturation over `n` samples.
+ * @returns one result per sample: percent of the CEC, or the SoilError cecSaturation gives that sample
+ * @example cecSaturationColumn("bases", [2000], [180], [150], [30], "mg/kg", [2], undefined, undefined, 1)[0] //=> 85.69
+ * Source: as cecSaturation.
+ */
+export function cecSaturationColumn(
+  partWord: string,
+  ca: ColumnOf,
+  mg: ColumnOf,
+  k: ColumnOf,
+  na: ColumnOf,
+  unitWord: string | undefined,
+  acidity: ColumnOf,
+  cec: ColumnOf,
+  bulkDensity: ColumnOf,
+  n: number,
+): (number | SoilError)[] {
+  const out: (number | SoilError)[] = new Array(n);
+  const scalar = (i: number) => {
+    try {
+      return cecSaturation(partWord, at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(cec, i), at(bulkDensity, i));
+    } catch (e) {
+      if (e instanceof SoilError) return e;
+      throw e;
+    }
+  };
+  let f: ReturnType<typeof chargeFactors>;
+  let part: SaturationPart;
+  try {
+    part = PARTS.lookup(partWord, "part");
+    f = chargeFactors(unitWord);
+  } catch (e) {
+    if (!(e instanceof SoilError)) throw e;
+    out.fill(e);
+    return out;
+  }
+  if (!f || (part === "acidity" && acidity === undefined) || (part === "bases" && acidity === undefined && cec === undefined)) {
+    for (let i = 0; i < n; i++) out[i] = scalar(i);
+    return out;
+  }
+  const { toBase: t, Ca, Mg, K, Na } = f;
+  const charge = Ca === 1;
+  for (let i = 0; i < n; i++) {
+    const a = at(ca, i);
+    const b = at(mg, i);
+    const c = at(k, i);
+    const d = at(na, i);
+    const h = at(acidity, i);
+    const m = at(cec, i);
+    if (!ok(a) || !ok(b) || !ok(c) || !ok(d) || (h !== undefined && !ok(h)) || (m !== undefined && !(ok(m) && (m as number) > 0))) {
+      out[i] = scalar(i);
+      continue;
+    }
+    const cCa = charge ? (a as number) * t : ((a as number) * t) / Ca;
+    const cMg = charge ? (b as number) * t : ((b as number) * t) / Mg;
+    const cK = charge ? (c as number) * t : ((c as number) * t) / K;
+    const cNa = charge ? (d as number) * t : ((d as number) * t) / Na;
+    const bases = cCa + cMg + cK + cNa;
+    const acid = h ?? 0;
+    const denominator = m !== undefined ? m : bases + acid;
+    if (!(denominator > 0)) {
+      out[i] = scalar(i);
+      continue;
+    }
+    const held = part === "bases" ? bases : part === "acidity" ? acid : part === "Ca" ? cCa : part === "Mg" ? cMg : part === "K" ? cK : cNa;
+    const v = (100 * held) / denominator;
+    out[i] = v < Infinity ? v : scalar(i);
+  }
+  return out;
+}
