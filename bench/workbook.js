@@ -96,37 +96,23 @@ function samples(n, seed = 9) {
   return out;
 }
 
-/**
- * Engine input (sheet name → rows) for `n` samples: the data and one formula per row and column
- * (`form` "soil" or "native"), one spilling formula per column (`form` "spill" for SOIL,
- * "nativeSpill" for the native arithmetic in the engine's ARRAYFORMULA), or the data alone
- * (`form` "data", the cost of loading the sheet that every form pays).
- */
-function engineSheet(n, form) {
-  const rows = [[...DATA_COLUMNS, ...FORMULAS.map((f) => f.header)]];
-  const data = samples(n);
-  for (let i = 0; i < n; i++) {
-    const excelRow = i + 2;
-    const row = data[i].slice();
-    if (form === "soil" || form === "native") for (const f of FORMULAS) row.push(`=${forRow(f[form], excelRow)}`);
-    rows.push(row);
-  }
-  if (form === "spill") FORMULAS.forEach((f, j) => (rows[1][FIRST_FORMULA_COL + j] = `=${forColumn(f.soil, 2, n + 1)}`));
-  if (form === "nativeSpill") FORMULAS.forEach((f, j) => (rows[1][FIRST_FORMULA_COL + j] = `=ARRAYFORMULA(${forColumn(f.native, 2, n + 1)})`));
-  return { Season: rows };
-}
-
-
 const esc = (s) => String(s).replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
 const NS = "http://schemas.openxmlformats.org/spreadsheetml/2006/main";
 const RNS = "http://schemas.openxmlformats.org/officeDocument/2006/relationships";
 
 /**
- * Writes an .xlsx of `n` samples with the SOIL formulas in Excel's stored form (no cached values),
- * text in shared strings, as a spreadsheet application saves it. Returns the file's size in bytes.
+ * Writes an .xlsx of `n` samples, text in shared strings, as a spreadsheet application saves it,
+ * with the formulas of `form` and no cached values (so the engine computes every formula):
+ * - "soil": the SOIL formulas per row, in Excel's stored form (the default);
+ * - "native": the same results as native arithmetic per row;
+ * - "spill": one SOIL formula per column over the whole column, as a dynamic array;
+ * - "nativeSpill": one native dynamic-array formula per column;
+ * - "data": the data alone (the cost every form pays);
+ * - "single": one SOIL.CMOL formula per row and no other formula column (for a million rows).
+ * Returns the file's size in bytes.
  */
-async function writeSeasonWorkbook(file, n) {
+async function writeSeasonWorkbook(file, n, form = "soil") {
   const strings = [];
   const stringIndex = new Map();
   const sst = (s) => {
@@ -136,20 +122,31 @@ async function writeSeasonWorkbook(file, n) {
     }
     return stringIndex.get(s);
   };
-  const cols = DATA_COLUMNS.length + FORMULAS.length;
+  const formulas = form === "single" ? [{ header: "Ca cmol", soil: 'SOIL.CMOL(@B,"Ca")', native: cCa }] : FORMULAS;
+  const cols = DATA_COLUMNS.length + formulas.length;
   const parts = [];
-  const header = [...DATA_COLUMNS, ...FORMULAS.map((f) => f.header)];
+  const header = [...DATA_COLUMNS, ...formulas.map((f) => f.header)];
   parts.push(`<row r="1">${header.map((h, c) => `<c r="${colLetters(c)}1" t="s"><v>${sst(h)}</v></c>`).join("")}</row>`);
   const data = samples(n);
-  const stored = FORMULAS.map((f) => toStoredFormula(`=${f.soil}`));
+  const text = formulas.map((f) => (form === "native" || form === "nativeSpill" ? f.native : toStoredFormula(`=${f.soil}`)));
+  const dynamic = form === "spill" || form === "nativeSpill";
   for (let i = 0; i < n; i++) {
     const r = i + 2;
     const d = data[i];
     let xml = `<row r="${r}"><c r="A${r}" t="s"><v>${sst(d[0])}</v></c>`;
-    for (let c = 1; c < d.length; c++) xml += `<c r="${colLetters(c)}${r}"><v>${d[c]}</v></c>`;
-    stored.forEach((s, j) => {
-      xml += `<c r="${colLetters(FIRST_FORMULA_COL + j)}${r}"><f>${esc(forRow(s, r))}</f></c>`;
-    });
+    const lastData = form === "single" ? 2 : d.length;
+    for (let c = 1; c < lastData; c++) xml += `<c r="${colLetters(c)}${r}"><v>${d[c]}</v></c>`;
+    if (form === "soil" || form === "native" || form === "single") {
+      text.forEach((s, j) => {
+        xml += `<c r="${colLetters(FIRST_FORMULA_COL + j)}${r}"><f>${esc(forRow(s, r))}</f></c>`;
+      });
+    } else if (dynamic && i === 0) {
+      // One formula per column over all rows; its elements spill into the cells below.
+      text.forEach((s, j) => {
+        const c = colLetters(FIRST_FORMULA_COL + j);
+        xml += `<c r="${c}2" cm="1"><f t="array" ref="${c}2:${c}${n + 1}">${esc(forColumn(s, 2, n + 1))}</f></c>`;
+      });
+    }
     parts.push(`${xml}</row>`);
   }
   const sheet =
@@ -162,7 +159,9 @@ async function writeSeasonWorkbook(file, n) {
       '<Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/><Default Extension="xml" ContentType="application/xml"/>' +
       '<Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/>' +
       '<Override PartName="/xl/worksheets/sheet1.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml"/>' +
-      '<Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/></Types>',
+      '<Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/>' +
+      (dynamic ? '<Override PartName="/xl/metadata.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheetMetadata+xml"/>' : "") +
+      "</Types>",
   );
   zip.file(
     "_rels/.rels",
@@ -177,8 +176,16 @@ async function writeSeasonWorkbook(file, n) {
     "xl/_rels/workbook.xml.rels",
     '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">' +
       '<Relationship Id="rId1" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/worksheet" Target="worksheets/sheet1.xml"/>' +
-      '<Relationship Id="rId2" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sharedStrings" Target="sharedStrings.xml"/></Relationships>',
+      '<Relationship Id="rId2" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sharedStrings" Target="sharedStrings.xml"/>' +
+      (dynamic ? '<Relationship Id="rId3" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sheetMetadata" Target="metadata.xml"/>' : "") +
+      "</Relationships>",
   );
+  if (dynamic) {
+    zip.file(
+      "xl/metadata.xml",
+      `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<metadata xmlns="${NS}" xmlns:xda="http://schemas.microsoft.com/office/spreadsheetml/2017/dynamicarray"><metadataTypes count="1"><metadataType name="XLDAPR" minSupportedVersion="120000" copy="1" pasteAll="1" pasteValues="1" merge="1" splitFirst="1" rowColShift="1" clearFormats="1" clearComments="1" assign="1" coerce="1" cellMeta="1"/></metadataTypes><futureMetadata name="XLDAPR" count="1"><bk><extLst><ext uri="{bdbb8cdc-fa1e-496e-a857-3c3f30c029c3}"><xda:dynamicArrayProperties fDynamic="1" fCollapsed="0"/></ext></extLst></bk></futureMetadata><cellMetadata count="1"><bk><rc t="1" v="0"/></bk></cellMetadata></metadata>`,
+    );
+  }
   zip.file(
     "xl/sharedStrings.xml",
     `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<sst xmlns="${NS}" count="${strings.length}" uniqueCount="${strings.length}">` +
@@ -191,4 +198,4 @@ async function writeSeasonWorkbook(file, n) {
   return bytes.length;
 }
 
-module.exports = { DATA_COLUMNS, FORMULAS, FIRST_FORMULA_COL, engineSheet, samples, writeSeasonWorkbook, forRow, forColumn };
+module.exports = { DATA_COLUMNS, FORMULAS, FIRST_FORMULA_COL, samples, writeSeasonWorkbook, forRow, forColumn };

@@ -151,7 +151,7 @@ export interface BindingSpec {
 }
 
 /** A column kernel: per parameter a Float64Array (one number per element) or a shared value; the element count. */
-export type ColumnKernel = (values: unknown[], n: number) => (number | SoilError)[];
+export type ColumnKernel = (values: unknown[], n: number) => { readonly values: Float64Array; readonly errors: Map<number, SoilError> };
 
 const SPECS = new WeakMap<Function, BindingSpec>();
 
@@ -415,7 +415,7 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
     }
     values[i] = a;
   }
-  const results = eligible.length ? kernel(values, eligible.length) : [];
+  const results = eligible.length ? kernel(values, eligible.length) : { values: new Float64Array(0), errors: new Map<number, SoilError>() };
   const out: Out = [];
   for (let r = 0; r < shape.rows; r++) out.push(new Array(shape.cols));
   const scratch: unknown[] = new Array(params.length);
@@ -425,8 +425,9 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
     const c = pos % shape.cols;
     let v: unknown;
     if (next < eligible.length && eligible[next] === pos) {
-      const x = results[next++];
-      v = x instanceof SoilError ? hostErrorFor(x) : typeof x === "number" && Number.isFinite(x) ? (x === 0 ? 0 : x) : hostErrorFor(new Error("a result was not a finite number"));
+      const e = results.errors.get(next);
+      const x = results.values[next++] as number;
+      v = e ? hostErrorFor(e) : Number.isFinite(x) ? (x === 0 ? 0 : x) : hostErrorFor(new Error("a result was not a finite number"));
     } else v = element(spec, grids, wholes, scratch, r, c);
     (out[r] as unknown[])[c] = v;
   }

@@ -259,7 +259,22 @@ export function cecEsp(na: number, cec: number, unitWord: string | undefined, bu
 /** Numbers of one argument: a column (one per sample) or one value for every sample. */
 export type ColumnOf = ArrayLike<number> | number | undefined;
 
+/** A column kernel's results: a number per sample, and the error a sample gets instead (its number is then NaN). */
+export interface ColumnResult {
+  readonly values: Float64Array;
+  readonly errors: Map<number, SoilError>;
+}
+
 const at = (x: ColumnOf, i: number): number | undefined => (typeof x === "number" || x === undefined ? x : (x[i] as number));
+
+/** A column as a Float64Array of n (a shared value repeated), so the kernel's loop reads one kind of array. */
+function dense(x: ColumnOf, n: number): Float64Array {
+  if (x instanceof Float64Array && x.length >= n) return x;
+  const out = new Float64Array(n);
+  if (typeof x === "number") out.fill(x);
+  else if (x !== undefined) for (let i = 0; i < n; i++) out[i] = x[i] as number;
+  return out;
+}
 
 /**
  * From the reported unit to cmol(+)/kg: value × toBase ÷ divisor per ion (divisor 1 for a charge
@@ -273,60 +288,70 @@ function chargeFactors(unitWord: string | undefined): { toBase: number; Ca: numb
   return { toBase: unit.toBase, Ca: d("Ca"), Mg: d("Mg"), K: d("K"), Na: d("Na") };
 }
 
-const ok = (v: number | undefined) => v !== undefined && v >= 0 && v < Infinity;
+/** Runs a scalar function for one sample, its SoilError kept. */
+function fallback(out: ColumnResult, i: number, f: () => number): void {
+  try {
+    (out.values as Float64Array)[i] = f();
+  } catch (e) {
+    if (!(e instanceof SoilError)) throw e;
+    out.values[i] = NaN;
+    out.errors.set(i, e);
+  }
+}
 
 /**
  * cecSum over `n` samples.
- * @returns one result per sample: the CEC in cmol(+)/kg, or the SoilError cecSum gives that sample
- * @example cecSumColumn([2000], [180], [150], [30], "mg/kg", [2], undefined, 1)[0] //=> 13.976
+ * @returns one result per sample: the CEC in cmol(+)/kg, or (in `errors`) the SoilError cecSum gives that sample
+ * @example cecSumColumn([2000], [180], [150], [30], "mg/kg", [2], undefined, 1).values[0] //=> 13.976
  * Source: as cecSum.
  */
-export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: ColumnOf, unitWord: string | undefined, acidity: ColumnOf, bulkDensity: ColumnOf, n: number): (number | SoilError)[] {
-  const out: (number | SoilError)[] = new Array(n);
-  const scalar = (i: number) => {
-    try {
-      return cecSum(at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(bulkDensity, i));
-    } catch (e) {
-      if (e instanceof SoilError) return e;
-      throw e;
-    }
-  };
+export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: ColumnOf, unitWord: string | undefined, acidity: ColumnOf, bulkDensity: ColumnOf, n: number): ColumnResult {
+  const out: ColumnResult = { values: new Float64Array(n), errors: new Map() };
+  const scalar = (i: number) => () => cecSum(at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(bulkDensity, i));
   let f: ReturnType<typeof chargeFactors>;
   try {
     f = chargeFactors(unitWord);
   } catch (e) {
     if (!(e instanceof SoilError)) throw e;
-    out.fill(e);
+    out.values.fill(NaN);
+    for (let i = 0; i < n; i++) out.errors.set(i, e);
     return out;
   }
   if (!f) {
-    for (let i = 0; i < n; i++) out[i] = scalar(i);
+    for (let i = 0; i < n; i++) fallback(out, i, scalar(i));
     return out;
   }
   const { toBase: t, Ca, Mg, K, Na } = f;
   const charge = Ca === 1;
+  const A = dense(ca, n);
+  const B = dense(mg, n);
+  const C = dense(k, n);
+  const D = dense(na, n);
+  const hasAcid = acidity !== undefined;
+  const H = dense(acidity, n);
+  const values = out.values;
   for (let i = 0; i < n; i++) {
-    const a = at(ca, i);
-    const b = at(mg, i);
-    const c = at(k, i);
-    const d = at(na, i);
-    const h = at(acidity, i);
-    if (!ok(a) || !ok(b) || !ok(c) || !ok(d) || (h !== undefined && !ok(h))) {
-      out[i] = scalar(i);
+    const a = A[i] as number;
+    const b = B[i] as number;
+    const c = C[i] as number;
+    const d = D[i] as number;
+    const h = H[i] as number;
+    // The checks cecSum makes: each cation and the acidity finite and not negative.
+    if (!(a >= 0 && a < Infinity && b >= 0 && b < Infinity && c >= 0 && c < Infinity && d >= 0 && d < Infinity && (!hasAcid || (h >= 0 && h < Infinity)))) {
+      fallback(out, i, scalar(i));
       continue;
     }
-    const sum = charge
-      ? (a as number) * t + (b as number) * t + (c as number) * t + (d as number) * t + (h ?? 0)
-      : ((a as number) * t) / Ca + ((b as number) * t) / Mg + ((c as number) * t) / K + ((d as number) * t) / Na + (h ?? 0);
-    out[i] = sum < Infinity ? sum : scalar(i);
+    const sum = charge ? a * t + b * t + c * t + d * t + h : (a * t) / Ca + (b * t) / Mg + (c * t) / K + (d * t) / Na + h;
+    if (sum < Infinity) values[i] = sum;
+    else fallback(out, i, scalar(i));
   }
   return out;
 }
 
 /**
  * cecSaturation over `n` samples.
- * @returns one result per sample: percent of the CEC, or the SoilError cecSaturation gives that sample
- * @example cecSaturationColumn("bases", [2000], [180], [150], [30], "mg/kg", [2], undefined, undefined, 1)[0] //=> 85.69
+ * @returns one result per sample: percent of the CEC, or (in `errors`) the SoilError cecSaturation gives that sample
+ * @example cecSaturationColumn("bases", [2000], [180], [150], [30], "mg/kg", [2], undefined, undefined, 1).values[0] //=> 85.69
  * Source: as cecSaturation.
  */
 export function cecSaturationColumn(
@@ -340,16 +365,10 @@ export function cecSaturationColumn(
   cec: ColumnOf,
   bulkDensity: ColumnOf,
   n: number,
-): (number | SoilError)[] {
-  const out: (number | SoilError)[] = new Array(n);
-  const scalar = (i: number) => {
-    try {
-      return cecSaturation(partWord, at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(cec, i), at(bulkDensity, i));
-    } catch (e) {
-      if (e instanceof SoilError) return e;
-      throw e;
-    }
-  };
+): ColumnResult {
+  const out: ColumnResult = { values: new Float64Array(n), errors: new Map() };
+  const scalar = (i: number) => () =>
+    cecSaturation(partWord, at(ca, i) as number, at(mg, i) as number, at(k, i) as number, at(na, i) as number, unitWord, at(acidity, i), at(cec, i), at(bulkDensity, i));
   let f: ReturnType<typeof chargeFactors>;
   let part: SaturationPart;
   try {
@@ -357,40 +376,53 @@ export function cecSaturationColumn(
     f = chargeFactors(unitWord);
   } catch (e) {
     if (!(e instanceof SoilError)) throw e;
-    out.fill(e);
+    out.values.fill(NaN);
+    for (let i = 0; i < n; i++) out.errors.set(i, e);
     return out;
   }
   if (!f || (part === "acidity" && acidity === undefined) || (part === "bases" && acidity === undefined && cec === undefined)) {
-    for (let i = 0; i < n; i++) out[i] = scalar(i);
+    for (let i = 0; i < n; i++) fallback(out, i, scalar(i));
     return out;
   }
   const { toBase: t, Ca, Mg, K, Na } = f;
   const charge = Ca === 1;
+  const A = dense(ca, n);
+  const B = dense(mg, n);
+  const C = dense(k, n);
+  const D = dense(na, n);
+  const hasAcid = acidity !== undefined;
+  const H = dense(acidity, n);
+  const hasCec = cec !== undefined;
+  const M = dense(cec, n);
+  const which = part === "bases" ? 0 : part === "acidity" ? 1 : part === "Ca" ? 2 : part === "Mg" ? 3 : part === "K" ? 4 : 5;
+  const values = out.values;
   for (let i = 0; i < n; i++) {
-    const a = at(ca, i);
-    const b = at(mg, i);
-    const c = at(k, i);
-    const d = at(na, i);
-    const h = at(acidity, i);
-    const m = at(cec, i);
-    if (!ok(a) || !ok(b) || !ok(c) || !ok(d) || (h !== undefined && !ok(h)) || (m !== undefined && !(ok(m) && (m as number) > 0))) {
-      out[i] = scalar(i);
+    const a = A[i] as number;
+    const b = B[i] as number;
+    const c = C[i] as number;
+    const d = D[i] as number;
+    const h = H[i] as number;
+    const m = M[i] as number;
+    // The checks cecSaturation makes: cations and acidity finite and not negative, a measured CEC above 0.
+    if (!(a >= 0 && a < Infinity && b >= 0 && b < Infinity && c >= 0 && c < Infinity && d >= 0 && d < Infinity && (!hasAcid || (h >= 0 && h < Infinity)) && (!hasCec || (m > 0 && m < Infinity)))) {
+      fallback(out, i, scalar(i));
       continue;
     }
-    const cCa = charge ? (a as number) * t : ((a as number) * t) / Ca;
-    const cMg = charge ? (b as number) * t : ((b as number) * t) / Mg;
-    const cK = charge ? (c as number) * t : ((c as number) * t) / K;
-    const cNa = charge ? (d as number) * t : ((d as number) * t) / Na;
+    const cCa = charge ? a * t : (a * t) / Ca;
+    const cMg = charge ? b * t : (b * t) / Mg;
+    const cK = charge ? c * t : (c * t) / K;
+    const cNa = charge ? d * t : (d * t) / Na;
     const bases = cCa + cMg + cK + cNa;
-    const acid = h ?? 0;
-    const denominator = m !== undefined ? m : bases + acid;
-    if (!(denominator > 0)) {
-      out[i] = scalar(i);
+    const denominator = hasCec ? m : bases + h;
+    // A charge that overflows is refused by the scalar function (as each ion's charge must be finite).
+    if (!(bases < Infinity) || !(denominator > 0)) {
+      fallback(out, i, scalar(i));
       continue;
     }
-    const held = part === "bases" ? bases : part === "acidity" ? acid : part === "Ca" ? cCa : part === "Mg" ? cMg : part === "K" ? cK : cNa;
+    const held = which === 0 ? bases : which === 1 ? h : which === 2 ? cCa : which === 3 ? cMg : which === 4 ? cK : cNa;
     const v = (100 * held) / denominator;
-    out[i] = v < Infinity ? v : scalar(i);
+    if (v < Infinity) values[i] = v;
+    else fallback(out, i, scalar(i));
   }
   return out;
 }
