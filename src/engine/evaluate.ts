@@ -5,7 +5,7 @@
  * (tests may ask for references to read as blank cells instead).
  */
 import { Book } from "./book";
-import { Ctx, Host, Uncomputable, ev, toArray } from "./formula/evaluate";
+import { Ctx, Host, NotComputed, Uncomputable, ev, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { FormulaSyntaxError } from "./formula/lexer";
 import { Node, parseFormula } from "./formula/parser";
@@ -78,7 +78,13 @@ export function evaluateFormula(formula: string, options: { blankReferences?: bo
   const ref = options.blankReferences ? undefined : firstReference(node);
   if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; put the formula in a workbook and use soilcell recalc` };
   const ctx: Ctx = { host: HOST, sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
-  let v = ev(node, ctx, true);
+  let v: ReturnType<typeof ev>;
+  try {
+    v = ev(node, ctx, true);
+  } catch (e) {
+    if (e instanceof NotComputed) return { error: "#VALUE!", message: e.message };
+    throw e;
+  }
   if (v instanceof XlRef) v = toArray(v, ctx);
   if (v instanceof XlArray) {
     if (v.rows === 1 && v.cols === 1) v = v.at(0, 0);

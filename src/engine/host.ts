@@ -10,7 +10,7 @@
  */
 import { Book, Form } from "./book";
 import { a1, rangeA1 } from "./cellref";
-import { Ctx, Host, Uncomputable, ev, firstScalar, intersect, toArray } from "./formula/evaluate";
+import { Ctx, Host, NotComputed, Uncomputable, ev, firstScalar, intersect, notComputed, toArray } from "./formula/evaluate";
 import type { Node } from "./formula/parser";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { ModeCode, Plan, Reason } from "./plan";
@@ -168,9 +168,13 @@ export class RecalcHost implements Host {
     try {
       this.compute(i);
     } catch (e) {
-      if (!(e instanceof RangeError)) throw e;
-      this.areas.delete(i);
-      this.setScalar(i, new Uncomputable("the formula chain is too deep to compute headless"));
+      if (e instanceof NotComputed) {
+        this.areas.delete(i);
+        this.setScalar(i, new Uncomputable(e.message));
+      } else if (e instanceof RangeError) {
+        this.areas.delete(i);
+        this.setScalar(i, new Uncomputable("the formula chain is too deep to compute headless"));
+      } else throw e;
     }
     this.currentId = outer;
     const touched = this.touched.pop() as boolean;
@@ -250,7 +254,11 @@ export class RecalcHost implements Host {
       const area = this.areas.get(owner);
       if (!area) {
         const p = this.position(owner);
-        return p.row === row && p.col === col ? this.scalar(owner) : null;
+        if (p.row !== row || p.col !== col) return null;
+        const v = this.scalar(owner);
+        // A cell the engine could not compute has no value to read: the reader cannot be computed either.
+        if (v instanceof Uncomputable) notComputed(`it reads ${a1({ row, col })}, which is not computed headless (${v.message})`);
+        return v;
       }
       const a = area.area;
       if (row < a.r1 || row > a.r2 || col < a.c1 || col > a.c2) return null;

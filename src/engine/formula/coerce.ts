@@ -4,6 +4,7 @@
  * "1,234" read as a number), the engine refuses with a message instead of guessing.
  */
 import { Scalar, XlError, err, isError } from "./values";
+import { notComputed } from "./not-computed";
 
 const NUMBER_TEXT = /^\s*([+-]?)(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(%?)\s*$/;
 
@@ -18,13 +19,12 @@ export function numberFromText(s: string): number | undefined {
 
 function textNotNumber(s: string): XlError {
   const shown = s.length > 40 ? `${s.slice(0, 40)}…` : s;
-  const locale = /\d[/:,$€£]|[$€£]\d|\d\s+\d/.test(s);
-  return err(
-    "#VALUE!",
-    locale
-      ? `text "${shown}" is not read as a number headless: Excel's reading of it depends on the computer's locale; enter a number`
-      : `text "${shown}" is not a number`,
-  );
+  // Excel reads such text by the computer's regional settings: not computed, and never an
+  // ordinary error that IFERROR could turn into a plausible number.
+  if (/\d[/:,$€£]|[$€£]\d|\d\s+\d/.test(s)) {
+    notComputed(`text "${shown}" is not read as a number headless: Excel's reading of it depends on the computer's locale; enter a number`);
+  }
+  return err("#VALUE!", `text "${shown}" is not a number`);
 }
 
 /** A scalar as a number: blank is 0, TRUE 1, numeric text its number; other text #VALUE!. */

@@ -15,12 +15,18 @@ import type { Node, RefNode } from "./parser";
 import { approxAdd, approxSub, compare, finite, toNumber, toText } from "./coerce";
 import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, XlUnion, err, isError } from "./values";
 
-/** An error that means "the engine cannot compute this", not "Excel would show this error". */
+/**
+ * A cell's result that means "the engine cannot compute this", not "Excel would show this
+ * error" (written as #VALUE! with the reason in the summary).
+ */
 export class Uncomputable extends XlError {
   constructor(message: string) {
     super("#VALUE!", message);
   }
 }
+
+export { NotComputed, notComputed } from "./not-computed";
+import { notComputed } from "./not-computed";
 
 export interface SoilCall {
   (args: (unknown[][] | null)[]): Value;
@@ -317,7 +323,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
     case "miss":
       return null;
     case "unsup":
-      return new Uncomputable(`${n.what} is not computed headless`);
+      return notComputed(`${n.what} is not computed headless`);
     case "ref": {
       const r = resolveRef(n, ctx);
       if (isError(r)) return r;
@@ -412,7 +418,7 @@ function evalName(name: string, sheetName: string | undefined, ctx: Ctx, wantRef
   }
   const d = ctx.host.book.definedName(name, from);
   if (!d) return err("#NAME?", `there is no defined name "${name}"`);
-  if (d.syntaxError || !d.node) return new Uncomputable(`the defined name "${name}" cannot be read headless (${d.syntaxError ?? "no formula"})`);
+  if (d.syntaxError || !d.node) return notComputed(`the defined name "${name}" cannot be read headless (${d.syntaxError ?? "no formula"})`);
   if (ctx.depth > MAX_NAME_DEPTH) return err("#NAME?", `the defined name "${name}" refers to itself`);
   // A name's formula is evaluated where it is used: relative references shift from A1.
   const inner: Ctx = { ...ctx, depth: ctx.depth + 1 };
@@ -437,7 +443,7 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
   const fn = FUNCTIONS.get(name);
   if (!fn) {
     if (name.startsWith("SOIL.")) return err("#NAME?", `${name} is not a SOIL function`);
-    return new Uncomputable(`${name} is not computed headless`);
+    return notComputed(`${name} is not computed headless`);
   }
   if (argNodes.length < fn.min || argNodes.length > fn.max) {
     const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
@@ -477,7 +483,6 @@ function callSoil(soil: SoilCall, argNodes: readonly Node[], ctx: Ctx): Value {
     const v = ev(a, actx, false);
     if (v instanceof XlUnion) return err("#VALUE!", "a SOIL function does not take a union of ranges");
     const arr = toArray(v as Scalar | XlArray | XlRef, actx);
-    if (arr instanceof Uncomputable) return arr;
     if (isError(arr)) return arr;
     const grid: unknown[][] = [];
     for (let r = 0; r < arr.rows; r++) {

@@ -2,7 +2,7 @@
  * Logical and information functions. IF, IFERROR, IFNA, IFS, SWITCH and CHOOSE evaluate only the
  * branch they need when the condition is one value, and element by element when it is an array.
  */
-import { Ctx, Uncomputable, ev, evalLazy, intersect, lift, toValue } from "../evaluate";
+import { Ctx, notComputed, ev, evalLazy, intersect, lift, toValue } from "../evaluate";
 import type { Node } from "../parser";
 import { compare, toBool, toNumber } from "../coerce";
 import { Scalar, Value, XlArray, XlError, XlRef, XlUnion, err, isError } from "../values";
@@ -47,7 +47,6 @@ function onError(test: (e: XlError) => boolean) {
   return (args: readonly Node[], ctx: Ctx): Value => {
     const v = ev(args[0] as Node, ctx, true);
     const value = v instanceof XlRef || v instanceof XlUnion ? toValue(v, ctx) : v;
-    if (value instanceof Uncomputable) return value;
     if (!(value instanceof XlArray)) {
       if (isError(value) && test(value)) return evalLazy(args[1], ctx, true) ?? 0;
       return v instanceof XlRef ? v : value;
@@ -113,7 +112,7 @@ export function addLogic(t: Table): void {
       if (args.length % 2) return err("#VALUE!", "IFS takes condition, value pairs");
       for (let i = 0; i < args.length; i += 2) {
         const c = toValue(ev(args[i] as Node, ctx, false), ctx);
-        if (c instanceof XlArray) return new Uncomputable("IFS with an array condition is not computed headless");
+        if (c instanceof XlArray) return notComputed("IFS with an array condition is not computed headless");
         const b = toBool(c);
         if (isError(b)) return b;
         if (b) return branch(args[i + 1], ctx);
@@ -126,12 +125,12 @@ export function addLogic(t: Table): void {
     max: 254,
     lazy: (args, ctx) => {
       const x = toValue(ev(args[0] as Node, ctx, false), ctx);
-      if (x instanceof XlArray) return new Uncomputable("SWITCH over an array is not computed headless");
+      if (x instanceof XlArray) return notComputed("SWITCH over an array is not computed headless");
       if (isError(x)) return x;
       let i = 1;
       for (; i + 1 < args.length; i += 2) {
         const v = toValue(ev(args[i] as Node, ctx, false), ctx);
-        if (v instanceof XlArray) return new Uncomputable("SWITCH over an array is not computed headless");
+        if (v instanceof XlArray) return notComputed("SWITCH over an array is not computed headless");
         if (isError(v)) return v;
         if (compare(x, v) === 0) return branch(args[i + 1], ctx);
       }

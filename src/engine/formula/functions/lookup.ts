@@ -4,7 +4,7 @@
  * (">=5", "<>x", wildcards * ? and the escape ~).
  */
 import { tokenize, T } from "../lexer";
-import { Ctx, ResourceLimit, Uncomputable, eachCell, resolveRef, toArray } from "../evaluate";
+import { Ctx, ResourceLimit, notComputed, eachCell, resolveRef, toArray } from "../evaluate";
 import { compare, numberFromText, toBool, toNumber, toText } from "../coerce";
 import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, int, num } from "./kit";
@@ -179,7 +179,7 @@ function ifsAggregate(kind: "sum" | "count" | "average" | "min" | "max", hasTarg
       const r = rangeOf(pairs[i], "a criteria range");
       if (isError(r)) return r;
       const c = pairs[i + 1];
-      if (c instanceof XlArray) return new Uncomputable("an array of criteria is not computed headless");
+      if (c instanceof XlArray) return notComputed("an array of criteria is not computed headless");
       const cv = c instanceof XlRef ? ctx.host.value(c.sheet, c.r1, c.c1) : ((c ?? null) as Scalar);
       ranges.push(r);
       tests.push(criterion(cv === null && c !== undefined ? "" : cv));
@@ -409,7 +409,7 @@ export function addLookup(t: Table): void {
     call: ([s, a1], ctx) => {
       const style = a1 === undefined ? true : toBool(a1 as Scalar);
       if (isError(style)) return style;
-      if (!style) return new Uncomputable("INDIRECT with R1C1 references is not computed headless");
+      if (!style) return notComputed("INDIRECT with R1C1 references is not computed headless");
       const str = toText((s ?? null) as Scalar);
       if (isError(str)) return str;
       return parseReferenceText(str, ctx);

@@ -3,7 +3,7 @@
  * format codes, VALUE of "1,234" or "01/02/2025", DATEVALUE) are refused with a message rather
  * than guessed.
  */
-import { Ctx, Uncomputable } from "../evaluate";
+import { Ctx, notComputed } from "../evaluate";
 import { numberFromText, toText } from "../coerce";
 import { Scalar, Value, XlArray, XlError, err, isError } from "../values";
 import { Table, classes, eachValue, int, num, scalarFn, text } from "./kit";
@@ -81,7 +81,7 @@ function datePart(part: "y" | "m" | "d") {
       const x = v as Scalar;
       if (typeof x === "string") {
         const n = numberFromText(x);
-        if (n === undefined) return new Uncomputable(`reading the date in text "${x}" depends on the computer's locale; not computed headless`);
+        if (n === undefined) return notComputed(`reading the date in text "${x}" depends on the computer's locale; not computed headless`);
         return datePartOf(n, part, ctx);
       }
       const n = num(x);
@@ -162,10 +162,26 @@ export function addText(t: Table): void {
       const start = int(c, 1);
       if (isError(start)) return start;
       if (start < 1 || start > hay.length + 1) return err("#VALUE!", "the start position is outside the text");
-      const at = caseless ? hay.toUpperCase().indexOf(needle.toUpperCase(), start - 1) : hay.indexOf(needle, start - 1);
+      let at: number;
+      if (!caseless) at = hay.indexOf(needle, start - 1);
+      else if (!/[*?~]/.test(needle)) at = hay.toUpperCase().indexOf(needle.toUpperCase(), start - 1);
+      else {
+        // SEARCH's wildcards: ? one character, * any run, ~ before either takes it literally.
+        let re = "";
+        for (let i = 0; i < needle.length; i++) {
+          const ch = needle[i] as string;
+          if (ch === "~" && i + 1 < needle.length && "*?~".includes(needle[i + 1] as string)) re += (needle[++i] as string).replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+          else if (ch === "*") re += "[\\s\\S]*?";
+          else if (ch === "?") re += "[\\s\\S]";
+          else re += ch.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+        }
+        const m = new RegExp(re, "i").exec(hay.slice(start - 1));
+        at = m ? m.index + start - 1 : -1;
+      }
       return at < 0 ? err("#VALUE!", "the text is not found") : at + 1;
     });
   t.set("FIND", find(false));
+  t.set("SEARCH", find(true));
   t.set("CONCATENATE", {
     min: 1,
     max: 255,
@@ -186,7 +202,7 @@ export function addText(t: Table): void {
     param: classes("V", "V", "R"),
     noLift: true,
     call: ([sep, skip, ...rest], ctx) => {
-      if (sep instanceof XlArray) return new Uncomputable("TEXTJOIN with an array of delimiters is not computed headless");
+      if (sep instanceof XlArray) return notComputed("TEXTJOIN with an array of delimiters is not computed headless");
       const d = text(sep as Scalar | undefined);
       if (isError(d)) return d;
       const ignore = skip === undefined ? true : Boolean(skip);
@@ -195,21 +211,21 @@ export function addText(t: Table): void {
   });
   t.set("VALUE", textFn(1, 1, (s) => {
     const n = numberFromText(s);
-    return n === undefined ? new Uncomputable(`VALUE("${s.slice(0, 40)}") depends on the computer's locale; not computed headless`) : n;
+    return n === undefined ? notComputed(`VALUE("${s.slice(0, 40)}") depends on the computer's locale; not computed headless`) : n;
   }));
   t.set("CHAR", scalarFn(1, 1, ([a]) => {
     const n = int(a);
     if (isError(n)) return n;
     if (n < 1 || n > 255) return err("#VALUE!", "CHAR takes 1 to 255");
-    if (n > 127) return new Uncomputable("CHAR above 127 depends on the computer's code page; not computed headless");
+    if (n > 127) return notComputed("CHAR above 127 depends on the computer's code page; not computed headless");
     return String.fromCharCode(n);
   }));
   t.set("CODE", textFn(1, 1, (s) => {
     if (s === "") return err("#VALUE!", "CODE of empty text");
     const c = s.charCodeAt(0);
-    return c > 127 ? new Uncomputable("CODE above 127 depends on the computer's code page; not computed headless") : c;
+    return c > 127 ? notComputed("CODE above 127 depends on the computer's code page; not computed headless") : c;
   }));
-  t.set("TEXT", scalarFn(2, 2, () => new Uncomputable("TEXT's format codes depend on the computer's locale; not computed headless")));
+  t.set("TEXT", scalarFn(2, 2, () => notComputed("TEXT's format codes depend on the computer's locale; not computed headless")));
 
   // Dates
   t.set("DATE", {
@@ -233,7 +249,7 @@ export function addText(t: Table): void {
       const iso = isoDateSerial(v, ctx.host.date1904);
       if (iso !== undefined) return iso;
       const n = numberFromText(v);
-      if (n === undefined) return new Uncomputable(`reading the date in text "${v.slice(0, 40)}" depends on the computer's locale; not computed headless`);
+      if (n === undefined) return notComputed(`reading the date in text "${v.slice(0, 40)}" depends on the computer's locale; not computed headless`);
       return n;
     }
     return num(v);
@@ -245,7 +261,7 @@ export function addText(t: Table): void {
       const x = text(v as Scalar);
       if (isError(x)) return x;
       const iso = isoDateSerial(x, ctx.host.date1904);
-      if (iso === undefined) return new Uncomputable(`DATEVALUE("${x.slice(0, 40)}"): only ISO dates (2025-01-02) read the same in every locale; not computed headless`);
+      if (iso === undefined) return notComputed(`DATEVALUE("${x.slice(0, 40)}"): only ISO dates (2025-01-02) read the same in every locale; not computed headless`);
       return Math.floor(iso);
     },
   });
@@ -314,7 +330,8 @@ export function addText(t: Table): void {
       if (isError(a)) return a;
       const b = serialArg(s as Scalar, ctx);
       if (isError(b)) return b;
-      return Math.floor(a) - Math.floor(b);
+      // Microsoft's DAYS: "if both date arguments are numbers, DAYS uses EndDate–StartDate" (fractions kept).
+      return a - b;
     },
   });
   t.set("DATEDIF", {
@@ -344,7 +361,7 @@ export function addText(t: Table): void {
         case "YM":
           return months % 12;
         default:
-          return new Uncomputable(`DATEDIF with unit "${unit}" is not computed headless (Microsoft documents known problems with "MD"; "YD" is not checked)`);
+          return notComputed(`DATEDIF with unit "${unit}" is not computed headless (Microsoft documents known problems with "MD"; "YD" is not checked)`);
       }
     },
   });
