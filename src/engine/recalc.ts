@@ -42,6 +42,8 @@ export interface CellProblem {
 export interface RecalcSummary {
   readonly input: string;
   readonly output: string;
+  /** Where the values copy was written, when one was asked for beside the workbook. */
+  readonly valuesOutput?: string;
   readonly sheets: number;
   /** Formula cells in the workbook. */
   readonly formulaCells: number;
@@ -69,6 +71,11 @@ export interface RecalcOptions {
    * stay), and the workbook's custom properties say which soilcell version computed it and when.
    */
   readonly values?: boolean;
+  /**
+   * Also write such a values copy here, beside the recalculated workbook (computed once: the
+   * second file is written from the same results).
+   */
+  readonly valuesOutput?: string;
 }
 
 export class RecalcRefused extends Error {
@@ -125,6 +132,11 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const started = process.hrtime.bigint();
   const say = options.progress ?? (() => undefined);
   checkPaths(input, output);
+  const valuesOutput = options.valuesOutput;
+  if (valuesOutput !== undefined) {
+    checkPaths(input, valuesOutput);
+    if (path.resolve(valuesOutput) === path.resolve(output)) throw new RecalcRefused(`the values copy and the recalculated workbook cannot both be ${output}`);
+  }
   let bytes: Buffer;
   try {
     bytes = fs.readFileSync(input);
@@ -148,10 +160,17 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);
   writeAtomically(output, pkg.toBuffer());
+  if (valuesOutput !== undefined && !options.values) {
+    // The same results again, SOIL cells as values; the sheets are rewritten from the file's own XML.
+    writeResults(book, plan, host, pkg, true);
+    markValuesCopy(pkg);
+    writeAtomically(valuesOutput, pkg.toBuffer());
+  }
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
     input,
     output,
+    ...(valuesOutput !== undefined && !options.values ? { valuesOutput } : {}),
     sheets: pkg.sheets.length,
     formulaCells: plan.formulaCells,
     computedCells: computed,

@@ -234,7 +234,10 @@ describeHost("recalculated workbooks in LibreOffice", soffice, "libreoffice", ()
   let version: string;
   /** Recalculated workbooks, by short name. */
   const books = new Map<string, string>();
+  /** The values copy written beside each (recalc --values), by the same short name. */
+  const copies = new Map<string, string>();
   let csvRun: LoRun;
+  let valuesRun: LoRun;
   let xlsxRun: LoRun;
 
   beforeAll(async () => {
@@ -247,11 +250,15 @@ describeHost("recalculated workbooks in LibreOffice", soffice, "libreoffice", ()
       const name = i === 0 ? "made" : `sample${i}-${path.basename(input, path.extname(input)).replace(/[^A-Za-z0-9_-]/g, "_")}`;
       const out = path.join(dir, "recalc", `${name}.xlsx`);
       fs.mkdirSync(path.dirname(out), { recursive: true });
-      await recalcWorkbook(input, out);
+      const copy = path.join(dir, "values", `${name}.xlsx`);
+      fs.mkdirSync(path.dirname(copy), { recursive: true });
+      await recalcWorkbook(input, out, { valuesOutput: copy });
       books.set(name, out);
+      copies.set(name, copy);
     }
     const files = [...books.values()];
     csvRun = libreoffice(profile, ["--convert-to", CSV_FILTER, "--outdir", path.join(dir, "csv"), ...files]);
+    valuesRun = libreoffice(profile, ["--convert-to", CSV_FILTER, "--outdir", path.join(dir, "csv-values"), ...copies.values()]);
     xlsxRun = libreoffice(profile, ["--convert-to", "xlsx", "--outdir", path.join(dir, "lo"), ...files]);
   }, 300_000);
 
@@ -306,6 +313,34 @@ describeHost("recalculated workbooks in LibreOffice", soffice, "libreoffice", ()
       }
     }
     expect(soilCells).toBeGreaterThanOrEqual(4 + 1 + 1 + 2 + 4 + 5);
+  });
+
+  it("a values copy (recalc --values) shows every value we computed, SOIL cells included, and no #NAME? anywhere", async () => {
+    expect(troubles(valuesRun)).toEqual([]);
+    let soilCells = 0;
+    let compared = 0;
+    for (const [name, file] of books) {
+      const copy = await readCached(copies.get(name)!);
+      for (const [sheet, cells] of await readCached(file)) {
+        const csv = path.join(dir, "csv-values", `${name}-${sheet}.csv`);
+        const rows = parseCsv(fs.readFileSync(csv, "utf8"));
+        // No formula in the copy calls a SOIL function any more.
+        expect([...copy.get(sheet)!.soil]).toEqual([]);
+        const wrong: string[] = [];
+        for (const [addr, v] of cells.values) {
+          compared += 1;
+          if (cells.soil.has(addr)) soilCells += 1;
+          const text = csvCell(rows, addr);
+          if (!shows(text, v)) wrong.push(`${name} ${sheet}!${addr}: computed ${JSON.stringify(v)}, LibreOffice shows the copy's cell as ${JSON.stringify(text)}`);
+        }
+        for (const [r, line] of rows.entries()) {
+          for (const [c, text] of line.entries()) if (text === "#NAME?") wrong.push(`${name} ${sheet}!${a1({ row: r, col: c })}: #NAME?`);
+        }
+        expect(wrong).toEqual([]);
+      }
+    }
+    expect(soilCells).toBeGreaterThanOrEqual(4 + 1 + 1 + 2 + 4 + 5);
+    expect(compared).toBeGreaterThan(100);
   });
 
   it("the made workbook holds what we expect before LibreOffice sees it (spills, text, error)", async () => {
