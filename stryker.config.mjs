@@ -16,7 +16,7 @@ export default {
   reporters: ["clear-text", "json", "progress"],
   jsonReporter: { fileName: "reports/mutation/mutation.json" },
   concurrency: 2,
-  timeoutMS: 20000,
+  timeoutMS: 5000,
   tempDirName: ".stryker-tmp",
   cleanTempDir: "always",
 };

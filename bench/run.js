@@ -10,7 +10,9 @@
  *  3. end-to-end recalculation (read, compute, write) of synthetic season workbooks of 1,000,
  *     10,000 and 100,000 samples, with peak RSS, the growth from size to size, and each size's
  *     I/O floor (the same file unzipped and its XML tokenized, nothing computed);
- *  4. a million rows of one sheet: completed or refused up front.
+ *  4. a million rows of one sheet: completed or refused up front;
+ *  5. a season: 40 workbooks of 250 samples through `soilcell recalc FOLDER`, on one worker thread
+ *     and on every core, and against the per-file `npx soilcell recalc` runs a user would script.
  * Prints a table and writes bench-output/latest.json (with --save also bench/results.json).
  *
  * Options: --sizes=1000,10000,100000  --rows=10000 (engine comparison)  --rounds=3  --save
@@ -37,7 +39,7 @@ const gc = () => (global.gc ? global.gc() : undefined);
 const mb = (bytes) => bytes / 1024 ** 2;
 
 function options(argv) {
-  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million"] };
+  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million", "season"] };
   for (const a of argv) {
     const [k, v] = a.replace(/^--/, "").split("=");
     if (k === "sizes") o.sizes = v.split(",").map(Number);
@@ -487,6 +489,59 @@ async function main() {
     results.million = { rows: 1000000, inputBytes: bytes, ...r, completed: !r.failed, secondsToAnswer: now() - t0 };
   }
 
+  if (o.only.includes("season")) {
+    // A season folder: the same 40 invented workbooks recalculated three ways, wall time each.
+    const dir = path.join(OUT_DIR, "season-40");
+    fs.rmSync(dir, { recursive: true, force: true });
+    fs.mkdirSync(dir, { recursive: true });
+    say("season: generating 40 workbooks of 250 samples");
+    const files = [];
+    for (let i = 0; i < 40; i++) {
+      const file = path.join(dir, `paddocks-${String(i + 1).padStart(2, "0")}.xlsx`);
+      await writeSeasonWorkbook(file, 250);
+      files.push(file);
+    }
+    const bin = path.join(ROOT, "bin", "soilcell.js");
+    const timed = (cmd, args) => {
+      const t0 = now();
+      const r = spawnSync(cmd, args, { cwd: ROOT, encoding: "utf8", maxBuffer: 64 * 1024 ** 2 });
+      return { seconds: now() - t0, status: r.status, stderr: (r.stderr || "").trim().split("\n").slice(-2).join(" | ") };
+    };
+    const clean = () => {
+      for (const f of fs.readdirSync(dir)) if (f.includes(".recalc.")) fs.rmSync(path.join(dir, f));
+    };
+    const rounds = [];
+    for (let k = 0; k < o.rounds; k++) {
+      say(`season: round ${k + 1} of ${o.rounds} (one worker, every core)`);
+      clean();
+      const serial = timed(process.execPath, [bin, "recalc", dir, "--jobs", "1"]);
+      clean();
+      const parallel = timed(process.execPath, [bin, "recalc", dir, "--jobs", String(os.cpus().length)]);
+      rounds.push({ serial, parallel });
+    }
+    say("season: the same 40 workbooks one `npx soilcell recalc FILE` each");
+    clean();
+    const perFile = files.map((f) => timed("npx", ["soilcell", "recalc", f]));
+    clean();
+    const serialS = median(rounds.map((r) => r.serial.seconds));
+    const parallelS = median(rounds.map((r) => r.parallel.seconds));
+    const perFileS = perFile.reduce((a, r) => a + r.seconds, 0);
+    results.season = {
+      workbooks: 40,
+      samplesEach: 250,
+      formulaCells: 40 * 250 * FORMULAS.length,
+      cpus: os.cpus().length,
+      clock: "wall seconds, median of rounds (the per-file runs once)",
+      serialSeconds: serialS,
+      parallelSeconds: parallelS,
+      perFileNpxSeconds: perFileS,
+      parallelOverSerial: serialS / parallelS,
+      perFileOverSeason: perFileS / parallelS,
+      statuses: { serial: rounds.map((r) => r.serial.status), parallel: rounds.map((r) => r.parallel.status), perFile: [...new Set(perFile.map((r) => r.status))] },
+      rounds,
+    };
+  }
+
   // Targets
   const t = results.targets;
   const e = results.engine;
@@ -510,6 +565,10 @@ async function main() {
   if (m10) t.push({ target: "10,000 samples peak RSS (MB)", limit: "≤ 300 MB", value: mb(m10.peakRssBytes), met: mb(m10.peakRssBytes) <= 300 });
   const m100 = results.endToEnd.find((r) => r.samples === 100000 && r.completed);
   if (m100) t.push({ target: "100,000 samples peak RSS at the default heap (MB)", limit: "≤ 2048 MB", value: mb(m100.peakRssBytes), met: !m100.refusedAtDefaultHeap && mb(m100.peakRssBytes) <= 2048 });
+  const se = results.season;
+  if (se) {
+    t.push({ target: `season of 40 workbooks, every core / one worker`, limit: "≥ 1.7×", value: se.parallelOverSerial, met: se.parallelOverSerial >= 1.7 });
+  }
   if (results.million) {
     const mm = results.million;
     t.push({ target: "1,000,000 rows complete or refused up front", limit: "no late failure", value: mm.completed ? 1 : 0, met: mm.completed || /refus|too large|limit/i.test(mm.stderr || "") });
@@ -578,6 +637,14 @@ async function main() {
         ? `1,000,000 rows (one SOIL formula each): completed at the default heap in ${fmtS(mm.seconds)} (CPU ${fmtS(mm.cpuSeconds)}), peak RSS ${mb(mm.peakRssBytes).toFixed(0)} MB`
         : `1,000,000 rows: not completed after ${fmtS(mm.secondsToAnswer)}: ${String(mm.stderr || "").split("\n").pop()}`,
     );
+  }
+  if (se) {
+    lines.push("");
+    lines.push(`Season (40 workbooks × 250 samples, ${se.formulaCells.toLocaleString("en-US")} formula cells, soilcell recalc FOLDER; wall s, median of ${se.rounds.length})`);
+    lines.push(`  one worker thread          ${fmtS(se.serialSeconds)}`);
+    lines.push(`  every core (${se.cpus} workers)      ${fmtS(se.parallelSeconds).padEnd(9)} ${fmtX(se.parallelOverSerial)} faster than one worker`);
+    lines.push(`  40 × npx soilcell recalc   ${fmtS(se.perFileNpxSeconds).padEnd(9)} ${fmtX(se.perFileOverSeason)} the season run's time`);
+    if ([...se.statuses.serial, ...se.statuses.parallel, ...se.statuses.perFile].some((x) => x !== 0)) lines.push(`  (some runs did not exit 0: ${JSON.stringify(se.statuses)})`);
   }
   if (t.length) {
     lines.push("");
