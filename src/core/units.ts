@@ -75,6 +75,30 @@ const REFUSED = new Map<string, RefusedRow>(
 /** The words the unit tables refuse, for tests and help. */
 export const REFUSED_UNIT_WORDS: readonly string[] = (unitData.refused as RefusedRow[]).flatMap((r) => r.words);
 
+/** Every spelling of each unit, to check the case of an SI prefix against. */
+const SPELLINGS = new Map<UnitDef, string[]>(
+  (unitData.units as UnitRow[]).map((row, i) => [UNITS[i] as UnitDef, [row.id, ...row.aliases, ...(row.cased_aliases ?? [])].map((w) => w.replace(/\s+/g, ""))] as const),
+);
+
+/**
+ * Where an m or M stands as an SI prefix before g (gram) or S (siemens), its case is its
+ * meaning: milli (10^-3) or mega (10^6) (NIST SP 811, Thompson & Taylor 2008). A word matched
+ * case-insensitively whose prefix case differs from every spelling of the unit is refused.
+ */
+function prefixCaseDiffers(word: string, u: UnitDef): boolean {
+  const w = word.replace(/\s+/g, "");
+  const prefixes = (s: string) => [...s.matchAll(/(?<![A-Za-z])([mM])(?=[gGsS])/g)].map((m) => `${m.index}:${m[1]}`).join(",");
+  const typed = prefixes(w);
+  if (!typed) return false;
+  return !(SPELLINGS.get(u) ?? []).some((s) => s.length === w.length && s.toLowerCase() === w.toLowerCase() && prefixes(s) === typed);
+}
+
+const PREFIX_CASE: RefusedRow = {
+  words: [],
+  why: "has an SI prefix in the wrong case (m is milli, M is mega: Mg is a tonne, MS a megasiemens)",
+  use: [],
+};
+
 /** What a typed word was found to be; remembered, since a unit column repeats one word. */
 type Found = UnitDef | RefusedRow | null;
 const seen = new Map<string, Found>();
@@ -84,7 +108,14 @@ function classify(word: string): Found {
   if (exact) return exact;
   const refused = REFUSED.get(normaliseWord(word));
   if (refused) return refused;
-  return TABLE.has(word) ? TABLE.lookup(word, "unit") : null;
+  if (!TABLE.has(word)) return null;
+  const u = TABLE.lookup(word, "unit");
+  if (prefixCaseDiffers(word, u)) {
+    const w = word.replace(/\s+/g, "").toLowerCase();
+    const same = (SPELLINGS.get(u) ?? []).filter((x) => x.toLowerCase() === w).sort((a, b) => Number(/(?<![A-Za-z])(mS|mg|Mg)/.test(b)) - Number(/(?<![A-Za-z])(mS|mg|Mg)/.test(a)))[0];
+    return { ...PREFIX_CASE, use: [same ?? u.id] };
+  }
+  return u;
 }
 
 /** The unit a typed word names: a cased spelling exactly, else case-insensitively; undefined if none. */

@@ -38,9 +38,17 @@ export interface DefinedName {
   syntaxError?: string;
 }
 
+/** An Excel table (a list object): where its cells are, for tracing what structured references read. */
+export interface TableArea {
+  readonly sheet: number;
+  readonly rect: Rect;
+}
+
 export interface Book {
   readonly sheets: Sheet[];
   readonly names: DefinedName[];
+  /** Tables by name (upper case); a structured reference reads within its table's area. */
+  readonly tables: ReadonlyMap<string, TableArea>;
   readonly date1904: boolean;
   /** Sheet lookup by name, case-insensitive. */
   sheetIndex(name: string): number | undefined;
@@ -86,15 +94,46 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
     }
     definedNames.push(dn);
   }
+  const tables = readTables(pkg);
   const nameIndex = new Map<string, DefinedName>();
   for (const d of definedNames) nameIndex.set(`${d.scope ?? ""}|${d.name.toUpperCase()}`, d);
   return {
     sheets,
     names: definedNames,
+    tables,
     date1904: pkg.date1904,
     sheetIndex: (name) => byName.get(name.toUpperCase()),
     definedName: (name, from) => nameIndex.get(`${from}|${name.toUpperCase()}`) ?? nameIndex.get(`|${name.toUpperCase()}`),
   };
+}
+
+/**
+ * Every table's name and area, from each worksheet's table parts. A table part that cannot be
+ * read is left out: a structured reference to it then counts as reading anything (the planner's
+ * safe side).
+ */
+function readTables(pkg: XlsxPackage): Map<string, TableArea> {
+  const out = new Map<string, TableArea>();
+  for (const part of pkg.sheets) {
+    if (part.kind !== "worksheet") continue;
+    for (const rel of readRelationships(pkg.text(relsPathOf(part.path)))) {
+      if (!rel.type.endsWith("/table")) continue;
+      const xml = pkg.text(resolveTarget(part.path, rel.target));
+      if (!xml) continue;
+      try {
+        const s = new XmlScanner(xml);
+        let t = s.next();
+        while (t !== Tok.End && t !== Tok.Open) t = s.next();
+        if (t !== Tok.Open || localOf(s) !== "table") continue;
+        const rect = parseRef(s.attr("ref"));
+        if (!rect) continue;
+        for (const n of [s.attr("name"), s.attr("displayName")]) if (n) out.set(n.toUpperCase(), { sheet: part.index, rect });
+      } catch {
+        // unreadable: left out (see above)
+      }
+    }
+  }
+  return out;
 }
 
 /** The current element's local name (a call, so the compiler does not narrow it across tokens). */

@@ -25,6 +25,7 @@ export interface EvalResult {
 const EMPTY_BOOK: Book = {
   sheets: [],
   names: [],
+  tables: new Map(),
   date1904: false,
   sheetIndex: () => undefined,
   definedName: () => undefined,

@@ -184,6 +184,9 @@ export class RecalcHost implements Host {
     const sheet = this.book.sheets[this.plan.sheet[i] as number]!;
     // A formula with run-time references that read nothing recomputed keeps its cached value.
     if (reason === Reason.Dynamic && !touched && sheet.cells.cached(this.plan.cell[i] as number)) flags |= KEEP;
+    // One whose reads cannot be traced keeps it only when it computed without reading anything
+    // recomputed; where the engine could not compute it, it might read a SOIL cell: an error.
+    if (reason === Reason.Untraced && !touched && !(this.scalar(i) instanceof Uncomputable) && sheet.cells.cached(this.plan.cell[i] as number)) flags |= KEEP;
     // A formula without a cached value that cannot be computed, fed by nothing recomputed, stays without one.
     if (reason === Reason.Uncached && this.scalar(i) instanceof Uncomputable && !touched) flags |= NO_VALUE;
     this.state[i] = flags;
@@ -330,7 +333,7 @@ export class RecalcHost implements Host {
       const groups = new Map<Node, number[]>();
       for (const i of cells) {
         const node = this.nodeOf(i);
-        if (!node || plan.reason[i] === Reason.Dynamic || plan.reason[i] === Reason.Uncached) continue;
+        if (!node || plan.reason[i] === Reason.Dynamic || plan.reason[i] === Reason.Untraced || plan.reason[i] === Reason.Uncached) continue;
         const mode = plan.mode[i];
         if (!(mode === ModeCode.Single || (mode === ModeCode.Spill && !plan.uncertain[i] && this.isOneCell(i)))) continue;
         if (!columnCall(node)) continue;

@@ -18,7 +18,7 @@
  */
 import { Book, Form } from "./book";
 import type { Node, RefNode } from "./formula/parser";
-import { nativeFunction } from "./formula/evaluate";
+import { nativeFunction, shift } from "./formula/evaluate";
 import { MAX_COLS, MAX_ROWS, Rect } from "./formula/values";
 
 export interface Shape {
@@ -46,6 +46,8 @@ export const enum Reason {
   Depends = 2,
   Uncached = 3,
   Dynamic = 4,
+  /** Reads cannot be traced (it does not parse, or holds a 3-D reference, a data table, …). */
+  Untraced = 5,
 }
 
 export const enum ModeCode {
@@ -101,10 +103,14 @@ interface TreeInfo {
   readonly names: readonly { readonly name: string; readonly sheet?: string }[];
   /** Anchors read through the spill operator (A1#). */
   readonly spills: readonly RefNode[];
+  /** Tables named by structured references (upper case): each reads within its table's area. */
+  readonly tables: readonly string[];
   readonly soil: boolean;
   readonly dynamic: boolean;
   /** A spill operator over something that is not a plain reference: reads are not known. */
   readonly opaqueSpill: boolean;
+  /** Something whose reads cannot be traced (a 3-D reference, a table-relative [@Col]). */
+  readonly opaque: boolean;
 }
 
 const TREE_INFO = new WeakMap<Node, TreeInfo>();
@@ -115,9 +121,11 @@ function treeInfo(node: Node): TreeInfo {
   const refs: RefNode[] = [];
   const names: { name: string; sheet?: string }[] = [];
   const spills: RefNode[] = [];
+  const tables: string[] = [];
   let soil = false;
   let dynamic = false;
   let opaqueSpill = false;
+  let opaque = false;
   const stack: Node[] = [node];
   while (stack.length) {
     const n = stack.pop() as Node;
@@ -152,23 +160,28 @@ function treeInfo(node: Node): TreeInfo {
       case "union":
         for (const i of n.items) stack.push(i);
         break;
+      case "unsup":
+        if (n.table !== undefined) tables.push(n.table.toUpperCase());
+        if (n.opaque) opaque = true;
+        for (const a of n.args ?? []) stack.push(a);
+        break;
       default:
         break;
     }
   }
-  const info: TreeInfo = { refs, names, spills, soil, dynamic: dynamic || opaqueSpill, opaqueSpill };
+  const info: TreeInfo = { refs, names, spills, tables, soil, dynamic: dynamic || opaqueSpill, opaqueSpill, opaque };
   TREE_INFO.set(node, info);
   return info;
 }
 
 /** A reference at a cell, written into `out`; false when it leaves the sheet or names no sheet. */
-function placeRef(book: Book, n: RefNode, sheet: number, row: number, col: number, out: { sheet: number; r1: number; c1: number; r2: number; c2: number }): boolean {
+function placeRef(book: Book, n: RefNode, sheet: number, row: number, col: number, out: { sheet: number; r1: number; c1: number; r2: number; c2: number }, inName = false): boolean {
   const s = n.sheet === undefined ? sheet : book.sheetIndex(n.sheet);
   if (s === undefined) return false;
-  const r1 = n.abs & 1 ? n.r1 : n.r1 + row;
-  const c1 = n.abs & 2 ? n.c1 : n.c1 + col;
-  const r2 = n.abs & 4 ? n.r2 : n.r2 + row;
-  const c2 = n.abs & 8 ? n.c2 : n.c2 + col;
+  const r1 = n.abs & 1 ? n.r1 : shift(n.r1, row, MAX_ROWS, inName);
+  const c1 = n.abs & 2 ? n.c1 : shift(n.c1, col, MAX_COLS, inName);
+  const r2 = n.abs & 4 ? n.r2 : shift(n.r2, row, MAX_ROWS, inName);
+  const c2 = n.abs & 8 ? n.c2 : shift(n.c2, col, MAX_COLS, inName);
   out.sheet = s;
   out.r1 = Math.max(0, Math.min(r1, r2));
   out.c1 = Math.max(0, Math.min(c1, c2));
@@ -183,8 +196,19 @@ function placeRef(book: Book, n: RefNode, sheet: number, row: number, col: numbe
  */
 function eachRead(book: Book, info: TreeInfo, sheet: number, row: number, col: number, visit: (r: { sheet: number; r1: number; c1: number; r2: number; c2: number }) => boolean, depth = 0): boolean {
   const scratch = { sheet: 0, r1: 0, c1: 0, r2: 0, c2: 0 };
-  for (const ref of info.refs) if (placeRef(book, ref, sheet, row, col, scratch) && visit(scratch)) return true;
-  for (const ref of info.spills) if (placeRef(book, ref, sheet, row, col, scratch) && visit(scratch)) return true;
+  const inName = depth > 0;
+  for (const ref of info.refs) if (placeRef(book, ref, sheet, row, col, scratch, inName) && visit(scratch)) return true;
+  for (const ref of info.spills) if (placeRef(book, ref, sheet, row, col, scratch, inName) && visit(scratch)) return true;
+  for (const name of info.tables) {
+    const t = book.tables.get(name);
+    if (!t) continue; // an unknown table counts as untraceable (callsThrough "opaque")
+    scratch.sheet = t.sheet;
+    scratch.r1 = t.rect.r1;
+    scratch.c1 = t.rect.c1;
+    scratch.r2 = t.rect.r2;
+    scratch.c2 = t.rect.c2;
+    if (visit(scratch)) return true;
+  }
   if (depth < 32) {
     for (const nm of info.names) {
       const from = nm.sheet === undefined ? sheet : book.sheetIndex(nm.sheet);
@@ -196,14 +220,20 @@ function eachRead(book: Book, info: TreeInfo, sheet: number, row: number, col: n
   return false;
 }
 
-/** Whether a formula calls SOIL or has run-time references, through its names too. */
-function callsThrough(book: Book, info: TreeInfo, sheet: number, what: "soil" | "dynamic", depth = 0): boolean {
+/**
+ * Whether a formula calls SOIL, has run-time references, or reads what cannot be traced, through
+ * its names too. Untraceable: an opaque construct, a table the workbook does not define, a
+ * defined name that cannot be read, or names nested deeper than are followed.
+ */
+function callsThrough(book: Book, info: TreeInfo, sheet: number, what: "soil" | "dynamic" | "opaque", depth = 0): boolean {
   if (info[what]) return true;
-  if (depth >= 32) return false;
+  if (what === "opaque" && info.tables.some((t) => !book.tables.has(t))) return true;
+  if (depth >= 32) return what === "opaque" && info.names.length > 0;
   for (const nm of info.names) {
     const from = nm.sheet === undefined ? sheet : book.sheetIndex(nm.sheet);
     if (from === undefined) continue;
     const d = book.definedName(nm.name, from);
+    if (what === "opaque" && d && !d.node) return true;
     if (d?.node && callsThrough(book, treeInfo(d.node), from, what, depth + 1)) return true;
   }
   return false;
@@ -371,6 +401,10 @@ export function planRecalc(book: Book, soil: SoilSignatures): Plan {
   for (let g = 0; g < F.n; g++) {
     const info = infoOf(g);
     if (isSoil[g]) reason[g] = Reason.Soil;
+    // A formula whose reads are only known when it runs, or cannot be traced at all (it does not
+    // parse, or holds something opaque), might read a recomputed cell: it is computed, and what
+    // the engine cannot compute becomes an error with its reason, never a stale value.
+    else if (anySoil && (!info || callsThrough(book, info, F.sheet[g] as number, "opaque"))) reason[g] = Reason.Untraced;
     else if (anySoil && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
     if (reason[g]) markChanged(g);
   }

@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { convertUnit, unitById, unitOfFamily, REFUSED_UNIT_WORDS, UNITS } from "../../src/core/units";
 import { normaliseWord } from "../../src/core/names";
 import unitData from "../../src/data/units.json";
-import { errorCode as code } from "../helpers/errors";
+import { errorCode as code, errorMessage } from "../helpers/errors";
 
 
 describe("convertUnit: exact factors", () => {
@@ -123,9 +123,20 @@ describe("unit words two trades read differently (issue 22 point 5)", () => {
     expect(() => unitOfFamily("cmol/kg", ["charge"], "unit")).toThrow(/^unit "cmol\/kg" is ambiguous/);
   });
   it("matching stays case-insensitive where no prefix collides", () => {
-    expect(unitById("MG/KG").id).toBe("mg/kg");
+    expect(unitById("PPM").id).toBe("mg/kg");
     expect(unitById("MEQ/100G").id).toBe("cmol(+)/kg");
     expect(unitById("T/HA").id).toBe("t/ha");
+    expect(unitById("KG/HA").id).toBe("kg/ha");
+  });
+  // Source: NIST SP 811 (Thompson & Taylor 2008): m is milli (10^-3), M is mega (10^6), so before
+  // g (gram) or S (siemens) the case of the prefix is its meaning.
+  it("an m/M prefix before g or S in the wrong case is refused with the right spelling", () => {
+    for (const [typed, write] of [["MG/KG", "mg/kg"], ["Mg/kg", "mg/kg"], ["MG/DM3", "mg/dm3"], ["Mg/dm3", "mg/dm3"], ["MS/cm", "mS/cm"]] as const) {
+      expect(code(() => unitById(typed))).toBe("UNIT_MISMATCH");
+      expect(errorMessage(() => unitById(typed))).toContain(`has an SI prefix in the wrong case (m is milli, M is mega: Mg is a tonne, MS a megasiemens); write ${write}`);
+    }
+    expect(unitById("mS/cm").id).toBe("dS/m");
+    expect(unitById("Mg/ha").id).toBe("t/ha");
   });
   it("no refused word is also an accepted spelling (data check)", () => {
     const accepted = new Set(

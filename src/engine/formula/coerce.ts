@@ -17,11 +17,24 @@ export function numberFromText(s: string): number | undefined {
   return Number.isFinite(n) ? n : undefined;
 }
 
+/**
+ * Text Excel may read as a number, a date or a time, by rules that depend on the computer's
+ * regional settings: digits with date, time, grouping or currency marks ("01/02/2025",
+ * "2025-03-10", "10:30", "1,234", "$5", "1 250"), an accounting negative "(5)", a time with AM/PM,
+ * or a date with a month's name. The engine cannot know the locale, so it does not decide.
+ */
+const LOCALE_READ = [
+  /\d[/:,$€£¥\-.]\s*\d|[$€£¥]\s*\d|\d\s*[$€£¥]|\d\s+\d/,
+  /^\s*[-+]?\s*\(\s*[$€£¥]?\s*[\d.,]*\d[\d.,]*\s*%?\s*\)\s*$/,
+  /\d\s*[ap]\.?\s*m?\.?\s*$/i,
+  /\d.*\b(jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)|\b(jan|feb|mar|apr|may|jun|jul|aug|sep|oct|nov|dec)[a-z]*\.?[\s\-/]*\d/i,
+];
+
 function textNotNumber(s: string): XlError {
   const shown = s.length > 40 ? `${s.slice(0, 40)}…` : s;
-  // Excel reads such text by the computer's regional settings: not computed, and never an
-  // ordinary error that IFERROR could turn into a plausible number.
-  if (/\d[/:,$€£]|[$€£]\d|\d\s+\d/.test(s)) {
+  // Not computed, and never an ordinary error that IFERROR or ISNUMBER could turn into a
+  // plausible answer.
+  if (LOCALE_READ.some((re) => re.test(s))) {
     notComputed(`text "${shown}" is not read as a number headless: Excel's reading of it depends on the computer's locale; enter a number`);
   }
   return err("#VALUE!", `text "${shown}" is not a number`);
@@ -44,7 +57,8 @@ export function numberToText(n: number): string {
   if (n === 0) return "0";
   if (!Number.isFinite(n)) return "#NUM!";
   const x = Number(n.toPrecision(15));
-  const e = Math.floor(Math.log10(Math.abs(x)));
+  // The decimal exponent as the digits give it (Math.log10 rounds 99999999999999.9 up to 14).
+  const e = Number(x.toExponential().split("e")[1]);
   if (e >= 15 || e < -9) {
     const [mant, exp] = x.toExponential(14).split("e") as [string, string];
     const m = mant.replace(/\.?0+$/, "");
@@ -53,7 +67,7 @@ export function numberToText(n: number): string {
   }
   if (Number.isInteger(x)) return String(x);
   const fixed = x.toFixed(Math.max(0, 14 - e));
-  return fixed.replace(/\.?0+$/, "");
+  return fixed.includes(".") ? fixed.replace(/\.?0+$/, "") : fixed;
 }
 
 /** A scalar as text: numbers in General format, TRUE/FALSE, blank as "". */
@@ -123,12 +137,22 @@ export function compare(a: Scalar, b: Scalar): number | XlError {
     if (approxEqual(a, nb)) return 0;
     return a < nb ? -1 : 1;
   }
-  if (typeof a === "string") {
-    const x = a.toUpperCase();
-    const y = (b as string).toUpperCase();
-    return x === y ? 0 : x < y ? -1 : 1;
-  }
+  if (typeof a === "string") return compareText(a, b as string);
   return a === b ? 0 : a ? 1 : -1;
+}
+
+// Text order as a spreadsheet sorts it: case ignored, punctuation before digits before letters,
+// an accented letter beside its base letter (ICU's order for en-US, fixed whatever the machine's
+// locale). Equal only when the same text ignoring case ("ß" is not "ss", "é" is not "e").
+const COLLATOR = new Intl.Collator("en-US", { sensitivity: "accent" });
+
+function compareText(a: string, b: string): number {
+  const x = a.toLowerCase();
+  const y = b.toLowerCase();
+  if (x === y) return 0;
+  const c = COLLATOR.compare(x, y);
+  if (c !== 0) return c < 0 ? -1 : 1;
+  return x < y ? -1 : 1;
 }
 
 /** A finite number, or #NUM! for results Excel cannot hold (overflow, NaN). */

@@ -112,13 +112,22 @@ function resolveSheet(name: string | undefined, ctx: Ctx): number | XlError {
 }
 
 /** A reference node at the formula's cell: relative parts shifted, bounds checked. */
+/** A relative coordinate moved to where it is used; wrapped around the sheet inside names. */
+export function shift(offset: number, at: number, size: number, wrap: boolean): number {
+  const v = offset + at;
+  return wrap ? ((v % size) + size) % size : v;
+}
+
 export function resolveRef(n: RefNode, ctx: Ctx): XlRef | XlError {
   const sheet = resolveSheet(n.sheet, ctx);
   if (isError(sheet)) return sheet;
-  const r1 = n.abs & 1 ? n.r1 : n.r1 + ctx.row;
-  const c1 = n.abs & 2 ? n.c1 : n.c1 + ctx.col;
-  const r2 = n.abs & 4 ? n.r2 : n.r2 + ctx.row;
-  const c2 = n.abs & 8 ? n.c2 : n.c2 + ctx.col;
+  // Inside a defined name, relative references wrap around the sheet's edges as Excel's do (a
+  // "previous row" name is stored as row 1048576 relative to A1).
+  const w = ctx.depth > 0;
+  const r1 = n.abs & 1 ? n.r1 : shift(n.r1, ctx.row, MAX_ROWS, w);
+  const c1 = n.abs & 2 ? n.c1 : shift(n.c1, ctx.col, MAX_COLS, w);
+  const r2 = n.abs & 4 ? n.r2 : shift(n.r2, ctx.row, MAX_ROWS, w);
+  const c2 = n.abs & 8 ? n.c2 : shift(n.c2, ctx.col, MAX_COLS, w);
   if (r1 < 0 || c1 < 0 || r2 >= MAX_ROWS || c2 >= MAX_COLS || r2 < 0 || c2 < 0 || r1 >= MAX_ROWS || c1 >= MAX_COLS) {
     return err("#REF!", "the reference moves off the sheet");
   }

@@ -56,6 +56,8 @@ export interface Token {
   readonly ref?: RefParts;
   /** Name with a sheet prefix (Sheet1!Name). */
   readonly sheet?: string;
+  /** Unsupported: the table a structured reference names (Table1[Ca] → "Table1"). */
+  readonly table?: string;
 }
 
 export class FormulaSyntaxError extends Error {
@@ -310,7 +312,7 @@ export function tokenize(text: string): Token[] {
       }
       if (text.charCodeAt(k) === 91 /* [ */) {
         const close = matchingBracket(text, k);
-        push({ t: T.Unsupported, start, end: close + 1, space, value: "a structured (table) reference" });
+        push({ t: T.Unsupported, start, end: close + 1, space, value: "a structured (table) reference", table: word });
         i = close + 1;
         continue;
       }

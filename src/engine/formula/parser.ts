@@ -40,7 +40,21 @@ export type Node =
   | { readonly k: "union"; readonly items: readonly Node[] }
   | { readonly k: "spill"; readonly x: Node }
   | { readonly k: "miss" }
-  | { readonly k: "unsup"; readonly what: string };
+  | UnsupNode;
+
+/**
+ * Something the engine does not evaluate. What it reads is still known where it can be, so the
+ * planner can tell whether a recomputed cell feeds it: a structured reference names its table,
+ * LET and LAMBDA keep their arguments; a reference to another workbook reads nothing here.
+ * Anything else (a 3-D reference, a table-relative [@Col]) is `opaque`: its reads are unknown.
+ */
+export interface UnsupNode {
+  readonly k: "unsup";
+  readonly what: string;
+  readonly table?: string;
+  readonly args?: readonly Node[];
+  readonly opaque: boolean;
+}
 
 export type BinOp = "+" | "-" | "*" | "/" | "^" | "&" | "=" | "<>" | "<" | ">" | "<=" | ">=";
 
@@ -232,8 +246,11 @@ class Parser {
         return this.refNode(t);
       case T.Name:
         return t.sheet === undefined ? { k: "name", name: t.value as string } : { k: "name", name: t.value as string, sheet: t.sheet };
-      case T.Unsupported:
-        return { k: "unsup", what: t.value as string };
+      case T.Unsupported: {
+        const what = t.value as string;
+        if (t.table !== undefined) return { k: "unsup", what, table: t.table, opaque: false };
+        return { k: "unsup", what, opaque: !what.includes("another workbook") };
+      }
       case T.Func:
         return this.call(t);
       case T.LParen: {
@@ -287,7 +304,7 @@ class Parser {
     this.leave();
     if (name === "ANCHORARRAY" && args.length === 1) return { k: "spill", x: args[0] as Node };
     if (name === "SINGLE" && args.length === 1) return { k: "at", x: args[0] as Node };
-    if (name.startsWith("_XLPM.") || name === "LAMBDA" || name === "LET") return { k: "unsup", what: `${name.replace(/^_XLPM\./, "")} (LET and LAMBDA)` };
+    if (name.startsWith("_XLPM.") || name === "LAMBDA" || name === "LET") return { k: "unsup", what: `${name.replace(/^_XLPM\./, "")} (LET and LAMBDA)`, args, opaque: false };
     return { k: "fn", name, args };
   }
 

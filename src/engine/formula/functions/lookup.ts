@@ -309,7 +309,9 @@ export function addLookup(t: Table): void {
   t.set("INDEX", {
     min: 2,
     max: 3,
-    param: classes("R", "V", "V"),
+    // Reference or array: an expression is taken as an array even in a legacy formula (the
+    // non-CSE INDEX(…,0) idiom), a reference stays a reference (A1:INDEX(…)).
+    param: classes("A", "V", "V"),
     call: ([a, r, c], ctx) => indexInto(a instanceof XlRef || a instanceof XlArray ? a : (a as Value), r as Scalar | undefined, c as Scalar | undefined, ctx),
   });
   t.set("MATCH", {
