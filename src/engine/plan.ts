@@ -5,8 +5,11 @@
  * defined names or spills), are computed; so is a formula that the file holds without a cached
  * value. Every other cell keeps the value its file cached. Dependencies are read statically
  * from each formula's tree (a superset is safe: a cell computed needlessly gets Excel's value
- * anyway). A formula whose references are only known when it runs (OFFSET, INDIRECT) is computed
- * whenever the workbook has any SOIL cell, since it might read one.
+ * anyway); structured references read their table's area. A formula whose references are only
+ * known when it runs (OFFSET, INDIRECT) is computed whenever the workbook has any SOIL cell, since
+ * it might read one, and kept when it read nothing recomputed; so is one whose reads cannot be
+ * traced (it does not parse, or holds a 3-D reference or a data table), which becomes an error
+ * where the engine cannot compute it.
  *
  * Dynamic-array results spill; their size is predicted here from the shapes of the arguments,
  * so that cells reading a spill are ordered after it and collisions (#SPILL!) are known before

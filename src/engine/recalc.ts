@@ -6,8 +6,9 @@
  * of SOIL cells are read from their cached values; native cells downstream of SOIL cells are
  * recomputed with Excel 365's semantics (dynamic arrays, element-wise arithmetic over ranges,
  * text in a cell stays text, legacy formulas intersected as Excel does); a native cell with no
- * cached value is computed. A cell the engine cannot compute whose inputs it has recomputed is an
- * error with a message (exit 1), never its stale value. A file that cannot be read faithfully is
+ * cached value is computed. A cell the engine cannot compute whose inputs it has recomputed, or
+ * whose inputs it cannot trace in a workbook with SOIL cells, is an error with a message
+ * (exit 1), never its stale value. A file that cannot be read faithfully is
  * refused (WorkbookFileError, exit 2), never half-computed.
  *
  * It never writes over its input: the output is written to a temporary file created exclusively

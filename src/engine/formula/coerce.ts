@@ -1,7 +1,8 @@
 /**
  * Excel's conversions between value types, as the operators and functions apply them. Where
- * Excel's own conversion depends on the machine's locale (text such as "01/02/2025", "$5" or
- * "1,234" read as a number), the engine refuses with a message instead of guessing.
+ * Excel's own conversion depends on the machine's locale (text such as "01/02/2025",
+ * "2025-03-10", "$5", "1,234", "3 PM" or "(5)" read as a number), the engine does not compute the
+ * cell (an error with a message that IFERROR cannot swallow) instead of guessing.
  */
 import { Scalar, XlError, err, isError } from "./values";
 import { notComputed } from "./not-computed";

@@ -1,7 +1,7 @@
 /**
  * Text and date functions. Conversions whose result depends on the computer's locale (TEXT's
- * format codes, VALUE of "1,234" or "01/02/2025", DATEVALUE) are refused with a message rather
- * than guessed.
+ * format codes, VALUE of "1,234" or "01/02/2025", DATEVALUE of anything but an ISO date) are
+ * refused with a message rather than guessed.
  */
 import { Ctx, notComputed } from "../evaluate";
 import { numberFromText, toText } from "../coerce";
