@@ -232,6 +232,16 @@ describe("a CLI that explains itself", () => {
     expect(none.stderr).toMatch(/there is no function SOIL\.NOPE; the functions are SOIL\./);
   });
 
+  it("eval prints every element of a spilled result, an error in its own row", () => {
+    const r = run(["eval", '=SOIL.LABVALUE({"n.d.";1;"<0.05"})']);
+    expect(r.status).toBe(1);
+    const lines = r.stdout.trim().split("\n");
+    expect(lines.length).toBe(3);
+    expect(lines[0]).toMatch(/^#VALUE! value "n\.d\." is below detection/);
+    expect(lines[1]).toBe("1");
+    expect(lines[2]).toMatch(/^#VALUE! value "<0\.05" is below detection/);
+  });
+
   it("eval explains a formula that needs a workbook, and a ';' separator", () => {
     const cells = run(["eval", '=SOIL.CMOL(A1,"Ca")']);
     expect(cells.status).toBe(1);

@@ -27,6 +27,8 @@ Example: soilcell eval '=SOIL.CONVERT(10,"mg/kg","kg/ha",15,1.3)'   → 19.5`,
     if (rest.length !== 1) return usage(evalCommand, io, rest.length ? "give one formula (quote it)" : "no formula given");
     const result: EvalResult = evaluateFormula(rest[0] as string);
     if (json) io.out(JSON.stringify(result));
+    // A spilled result prints every element, an error in its own place (never the first alone).
+    else if (Array.isArray(result.value)) io.out(formatValue(result.value));
     else if (result.error) io.out(`${result.error} ${result.message ?? ""}`.trim());
     else io.out(formatValue(result.value));
     return result.error ? 1 : 0;
