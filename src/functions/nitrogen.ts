@@ -3,7 +3,7 @@ import { nfixFixedN, nfixPerTonne, nfixNBalance, nfixShootDm } from "../core/nit
 import { nfixNdfa, nfixNDifference } from "../core/nitrogen/isotope";
 import { nfixNodulatedPct, nfixNodulationRating, nfixPinkNodulePct, nfixNoduleCount } from "../core/nitrogen/nodulation";
 import { nfixSoilText, nfixSoilCount } from "../core/nitrogen/fixation-soil";
-import { declare, num, optNum, optText, text } from "./_binding";
+import { declare, num, optMeasured, optNum, optNumOrWord, text } from "./_binding";
 
 /**
  * N2 fixed by a legume, kg N/ha: shoot dry matter × shoot N % × %Ndfa × below-ground factor.
@@ -22,7 +22,7 @@ export function nfixed(shoot_dm: any[][], shoot_n_pct: any[][], ndfa_pct: any[][
 }
 const NFIXED = declare(
   nfixed,
-  [num("shoot_dm"), num("shoot_n_pct"), num("ndfa_pct"), optText("root_factor")],
+  [num("shoot_dm"), num("shoot_n_pct"), num("ndfa_pct"), optNumOrWord("root_factor", "always: there is no default factor")],
   (dm, nPct, ndfa, factor) => nfixFixedN(dm, nPct, ndfa, factor),
 );
 
@@ -42,7 +42,7 @@ export function nfixdm(shoot_dm: any[][], kg_n_per_t?: any[][], root_factor?: an
 }
 const NFIXDM = declare(
   nfixdm,
-  [num("shoot_dm"), optText("kg_n_per_t"), optText("root_factor")],
+  [num("shoot_dm"), optNumOrWord("kg_n_per_t", "always: there is no default rule"), optNumOrWord("root_factor")],
   (dm, perT, factor) => nfixPerTonne(dm, perT, factor),
 );
 
@@ -156,7 +156,7 @@ export function nodrating(plants_dug: any[][], plants_adequate: any[][], nodules
 }
 const NODRATING = declare(
   nodrating,
-  [num("plants_dug"), num("plants_adequate"), optText("nodules")],
+  [num("plants_dug"), num("plants_adequate"), optMeasured("nodules")],
   (dug, adequate, nodules) => nfixNodulationRating(dug, adequate, nodules),
 );
 
@@ -210,7 +210,7 @@ export function fixsoil(legume: any[][], ph: any[][], ph_method: any[][], nitrat
 }
 const FIXSOIL = declare(
   fixsoil,
-  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  [text("legume"), num("ph"), text("ph_method"), optMeasured("nitrate_kg_ha"), optMeasured("hot_water_b_mg_kg")],
   (legume, ph, method, nitrate, b) => nfixSoilText(legume, ph, method, nitrate, b),
 );
 
@@ -231,6 +231,6 @@ export function fixsoilcount(legume: any[][], ph: any[][], ph_method: any[][], n
 }
 const FIXSOILCOUNT = declare(
   fixsoilcount,
-  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  [text("legume"), num("ph"), text("ph_method"), optMeasured("nitrate_kg_ha"), optMeasured("hot_water_b_mg_kg")],
   (legume, ph, method, nitrate, b) => nfixSoilCount(legume, ph, method, nitrate, b),
 );
