@@ -85,6 +85,13 @@ function readValueUnit(word: string | undefined): UnitDef | undefined {
   return u;
 }
 
+/** The unit and depth arguments checked: the unit read (or undefined), the depth within 0-300 cm. */
+function readBasis(unitWord: string | undefined, depthCm: number | undefined): UnitDef | undefined {
+  const unit = readValueUnit(unitWord);
+  if (depthCm !== undefined) check(depthCm, BOUNDS.depth());
+  return unit;
+}
+
 const unitsOfRows = (rows: readonly SufficiencyRow[]) => [...new Set(rows.map((r) => r.unit))].map((u) => `"${u}"`);
 /** "a", "a or b" for a choice; "a and b" for what exists. */
 const unitList = (rows: readonly SufficiencyRow[]) => listWords(unitsOfRows(rows));
@@ -301,8 +308,7 @@ export function sufficiencyTableId(
   unitWord?: string,
   depthCm?: number,
 ): string {
-  const unit = readValueUnit(unitWord);
-  if (depthCm !== undefined) check(depthCm, BOUNDS.depth());
+  const unit = readBasis(unitWord, depthCm);
   return (table ? namedRow(table, nutrientWord, cropWord, methodWord, cec, unit, depthCm) : builtInRowFor(nutrientWord, cropWord, methodWord, cec, unit, depthCm)).id;
 }
 
@@ -363,8 +369,7 @@ export function sufficiencyBand(
   unitWord?: string,
   depthCm?: number,
 ): string {
-  const unit = readValueUnit(unitWord);
-  if (depthCm !== undefined) check(depthCm, BOUNDS.depth());
+  const unit = readBasis(unitWord, depthCm);
   if (table !== undefined) {
     const id = singleText(table);
     if (id === undefined) {
