@@ -1,5 +1,6 @@
 /**
- * Every built-in sufficiency table (src/data/bands/*.json) against the numbers its source prints,
+ * Every built-in sufficiency table (src/data/bands/*.json), and every removal coefficient and
+ * bushel weight of the same folder, against the numbers its source prints,
  * typed here by hand from the source, never read from the data file: a transcription change to any
  * limit, edge side, label, unit, sampling depth, CEC condition or scale top fails this test. The
  * generic edge tests (tests/core/bands/sufficiency.test.ts) take their expectations from the data
@@ -11,6 +12,8 @@
  * the project's plain words where it prints only a critical level or range (said on the row).
  */
 import { SUFFICIENCY_ROWS } from "../../../src/core/bands/sufficiency";
+import removal from "../../../src/data/bands/removal.json";
+import bushels from "../../../src/data/bands/bushel-weights.json";
 
 type Side = "above" | "below" | "none";
 interface Printed {
@@ -127,5 +130,50 @@ describe("every built-in table holds the numbers its source prints (source named
       expect(p.printed.length).toBeGreaterThan(10);
       expect(p.checked).toMatch(/^(re-read|not re-read)/);
     }
+  });
+});
+
+// Removal coefficients, kg of nutrient per t of harvested product, as each source prints them:
+// a range [low, high] where it prints one, else the single value (SOIL.REMOVAL uses the midpoint).
+const OMAFA_REMOVAL = "OMAFA Field Crop News (2025) 'Crop Removal Values', Table 1 Average nutrient removal by common field crops in Ontario, grains and oilseeds at marketing moisture, kg/t; re-read: fieldcropnews.com/2025/05/crop-removal-values";
+const PDA = "Potash Development Association (March 2020) 'Nutrients in crop material' (= AHDB RB209 2020), kg/t of fresh material; re-read: pda.org.uk/pda_leaflets/nutrients-in-crop-material";
+const AGVIC = "Agriculture Victoria (2017) Sheep Notes, 'Replacing nutrients removed from cutting hay', Table 1, kg per t of dry matter; re-read: agriculture.vic.gov.au/.../replacing-nutrients-removed-from-cutting-hay";
+type Coeff = number | readonly [number, number];
+const REMOVAL_PRINTED: Record<string, { source: string; printed: string; kgPerT: Record<string, Coeff> }> = {
+  corn: { source: OMAFA_REMOVAL, printed: "grain corn: N 11.5–17.7, P2O5 6.6–7.9, K2O 4.6–5.2, Ca 0.12, Mg 1.55, S 1.2–1.3", kgPerT: { N: [11.5, 17.7], P2O5: [6.6, 7.9], K2O: [4.6, 5.2], Ca: 0.12, Mg: 1.55, S: [1.2, 1.3] } },
+  soybean: { source: OMAFA_REMOVAL, printed: "soybean: N 62.3–66.7, P2O5 13.3–14.7, K2O 23.0–23.3, Ca 3.0–3.7, Mg 2.3–3.0, S 0.67", kgPerT: { N: [62.3, 66.7], P2O5: [13.3, 14.7], K2O: [23.0, 23.3], Ca: [3.0, 3.7], Mg: [2.3, 3.0], S: 0.67 } },
+  wheat: { source: OMAFA_REMOVAL, printed: "winter wheat: N 19.1–20.9, P2O5 9.1–10.4, K2O 5.78–6.22, Ca 0.44, Mg 2.67, S 1.33", kgPerT: { N: [19.1, 20.9], P2O5: [9.1, 10.4], K2O: [5.78, 6.22], Ca: 0.44, Mg: 2.67, S: 1.33 } },
+  barley: { source: OMAFA_REMOVAL, printed: "barley: N 17.3–23.1, P2O5 5.21–8.33, K2O 4.79–7.22, Ca 0.56, Mg 1.11, S 1.67", kgPerT: { N: [17.3, 23.1], P2O5: [5.21, 8.33], K2O: [4.79, 7.22], Ca: 0.56, Mg: 1.11, S: 1.67 } },
+  oats: { source: OMAFA_REMOVAL, printed: "oat: N 18.0-24.0, P2O5 7.5, K2O 5.83–6.25, Ca 0.833, Mg 1.25, S 2.08", kgPerT: { N: [18.0, 24.0], P2O5: 7.5, K2O: [5.83, 6.25], Ca: 0.833, Mg: 1.25, S: 2.08 } },
+  rye: { source: OMAFA_REMOVAL, printed: "cereal rye: N 19.3–21.8, P2O5 6.07–8.93, K2O 6.07–7.14, Ca 1.07, Mg 1.43, S 1.79–3.57", kgPerT: { N: [19.3, 21.8], P2O5: [6.07, 8.93], K2O: [6.07, 7.14], Ca: 1.07, Mg: 1.43, S: [1.79, 3.57] } },
+  "dry bean": { source: OMAFA_REMOVAL, printed: "dry beans: N 41.6, P2O5 13.8, K2O 13.8, Ca 1.12, Mg 1.12, S 2.78", kgPerT: { N: 41.6, P2O5: 13.8, K2O: 13.8, Ca: 1.12, Mg: 1.12, S: 2.78 } },
+  canola: { source: OMAFA_REMOVAL, printed: "canola: N 40.0–44.4, P2O5 22.2–26.7, K2O 11.1–13.3, Ca 4.0–5.3, Mg 5.33–6.67, S 6.67", kgPerT: { N: [40.0, 44.4], P2O5: [22.2, 26.7], K2O: [11.1, 13.3], Ca: [4.0, 5.3], Mg: [5.33, 6.67], S: 6.67 } },
+  "oilseed rape": { source: PDA, printed: "Oilseed rape seed only: P2O5 14.0, K2O 11.0, MgO 2.0", kgPerT: { P2O5: 14.0, K2O: 11.0, MgO: 2.0 } },
+  peas: { source: PDA, printed: "Peas dried: P2O5 9.0, K2O 10.0, MgO 3.0", kgPerT: { P2O5: 9.0, K2O: 10.0, MgO: 3.0 } },
+  "faba bean": { source: PDA, printed: "Field beans seed only: P2O5 11.0, K2O 12.0, MgO 2.5", kgPerT: { P2O5: 11.0, K2O: 12.0, MgO: 2.5 } },
+  "grass hay": { source: PDA, printed: "Grass hay @ 86% DM: P2O5 5.9, K2O 18, MgO n/d", kgPerT: { P2O5: 5.9, K2O: 18 } },
+  "grass silage": { source: PDA, printed: "Grass silage @ 25% DM: P2O5 1.7, K2O 6.0, MgO n/d", kgPerT: { P2O5: 1.7, K2O: 6.0 } },
+  "maize silage": { source: PDA, printed: "Forage maize silage @ 30% DM: P2O5 1.4, K2O 4.4, MgO 1.2", kgPerT: { P2O5: 1.4, K2O: 4.4, MgO: 1.2 } },
+  potatoes: { source: PDA, printed: "Potatoes tubers: P2O5 1.0, K2O 5.8, MgO 0.5", kgPerT: { P2O5: 1.0, K2O: 5.8, MgO: 0.5 } },
+  "sugar beet": { source: PDA, printed: "Sugar beet roots only: P2O5 0.8, K2O 1.7, MgO 0.5", kgPerT: { P2O5: 0.8, K2O: 1.7, MgO: 0.5 } },
+  "lucerne hay": { source: AGVIC, printed: "Lucerne/clover hay: phosphorus 2.5–3.5, potassium 20–30, sulfur 3.5", kgPerT: { P: [2.5, 3.5], K: [20, 30], S: 3.5 } },
+  "oaten hay": { source: AGVIC, printed: "Oaten hay: phosphorus 2, potassium 15–20, sulfur 2", kgPerT: { P: 2, K: [15, 20], S: 2 } },
+};
+
+// Standard bushel weights, lb per bushel (secondary sources, recorded as seen; not re-read here).
+const BUSHELS_PRINTED: Record<string, number> = { corn: 56, soybean: 60, wheat: 60, barley: 48, oats: 32, rye: 56, canola: 50, "dry bean": 60, peas: 60 };
+
+describe("every removal coefficient and bushel weight holds the number its source prints (source named on each row)", () => {
+  const crops = removal.crops as unknown as { id: string; kg_per_t: Record<string, Coeff> }[];
+  it("each crop has a printed row here, and each printed row a crop", () => {
+    expect(crops.map((c) => c.id).sort()).toEqual(Object.keys(REMOVAL_PRINTED).sort());
+  });
+  it.each(crops.map((c) => [c.id, c] as const))("%s: every coefficient as printed", (id, crop) => {
+    expect({ id, kgPerT: crop.kg_per_t }).toEqual({ id, kgPerT: REMOVAL_PRINTED[id]!.kgPerT });
+    expect(REMOVAL_PRINTED[id]!.source).toMatch(/re-read: /);
+  });
+  it("bushel weights (Source: USGSA standard weights as listed in 'Test weight'; agriconverter.com for canola; John Deere operator's manual for dry bean and peas; secondary, not re-read here)", () => {
+    const got = Object.fromEntries((bushels.crops as { crop: string; lb_per_bu: number }[]).map((c) => [c.crop, c.lb_per_bu]));
+    expect(got).toEqual(BUSHELS_PRINTED);
   });
 });
