@@ -1,8 +1,10 @@
 #!/usr/bin/env node
 /**
  * The host a deploy build writes into dist/manifest.xml and the help links, checked before anything
- * is built: an absolute https:// URL of a real host (not localhost, not a loopback or private-use
- * address), no user name or password, no query or fragment. A trailing slash is dropped.
+ * is built: an absolute https:// URL of a real host (not localhost, with or without a trailing dot,
+ * not a loopback, private-use, link-local or shared IPv4 or IPv6 address, nor an IPv6 form carrying
+ * one), no trailing dot on the name, no user name or password, no query or fragment. A trailing
+ * slash is dropped.
  *
  * Also the check run on the emitted files: every URL in the manifest and every helpUrl in
  * functions.json must lie under that host.
@@ -16,14 +18,78 @@ const DEV_HOST = "https://localhost:3000";
 /** A refusal the build prints as it is. */
 class DeployHostError extends Error {}
 
+/** The four octets of a dotted IPv4 address (as the URL parser normalises it), or undefined. */
+function ipv4Octets(h) {
+  const m = /^(\d{1,3})\.(\d{1,3})\.(\d{1,3})\.(\d{1,3})$/.exec(h);
+  if (!m) return undefined;
+  const o = m.slice(1).map(Number);
+  return o.every((x) => x <= 255) ? o : undefined;
+}
+
+/**
+ * IPv4 addresses that reach no one else's network: "this network" 0/8, private use 10/8,
+ * 172.16/12 and 192.168/16 (RFC 1918), shared address space 100.64/10 (RFC 6598), loopback 127/8,
+ * link-local 169.254/16 (RFC 3927).
+ */
+function isLocalIpv4(o) {
+  const [a, b] = o;
+  return a === 0 || a === 10 || a === 127 || (a === 100 && b >= 64 && b <= 127) || (a === 169 && b === 254) || (a === 172 && b >= 16 && b <= 31) || (a === 192 && b === 168);
+}
+
+/** The eight 16-bit groups of an IPv6 address (compressed "::" and a dotted IPv4 tail allowed), or undefined. */
+function ipv6Groups(h) {
+  let text = h;
+  const tail = /(\d{1,3}(?:\.\d{1,3}){3})$/.exec(text);
+  let v4 = [];
+  if (tail) {
+    const o = ipv4Octets(tail[1]);
+    if (!o) return undefined;
+    v4 = [((o[0] << 8) | o[1]).toString(16), ((o[2] << 8) | o[3]).toString(16)];
+    text = text.slice(0, -tail[1].length) + v4.join(":");
+  }
+  const halves = text.split("::");
+  if (halves.length > 2) return undefined;
+  const part = (x) => (x === "" ? [] : x.split(":"));
+  const head = part(halves[0]);
+  const rest = halves.length === 2 ? part(halves[1]) : [];
+  const fill = halves.length === 2 ? 8 - head.length - rest.length : 0;
+  if (fill < 0 || (halves.length === 1 && head.length !== 8)) return undefined;
+  const groups = [...head, ...Array(fill).fill("0"), ...rest];
+  if (groups.length !== 8 || !groups.every((g) => /^[0-9a-f]{1,4}$/.test(g))) return undefined;
+  return groups.map((g) => parseInt(g, 16));
+}
+
+/**
+ * IPv6 addresses that reach no one else's network: unspecified and loopback (::, ::1), unique
+ * local fc00::/7 (RFC 4193), link-local fe80::/10 and the old site-local fec0::/10 (RFC 4291,
+ * RFC 3879), and the forms that carry an IPv4 address (mapped ::ffff:0:0/96, compatible ::/96,
+ * the NAT64 prefix 64:ff9b::/96 of RFC 6052, 6to4 2002::/16 of RFC 3056) when that address is local.
+ */
+function isLocalIpv6(g) {
+  const zeros = (from, to) => g.slice(from, to).every((x) => x === 0);
+  const v4At = (i) => [g[i] >> 8, g[i] & 255, g[i + 1] >> 8, g[i + 1] & 255];
+  if (zeros(0, 7) && g[7] <= 1) return true; // :: and ::1
+  if ((g[0] & 0xfe00) === 0xfc00 || (g[0] & 0xffc0) === 0xfe80 || (g[0] & 0xffc0) === 0xfec0) return true;
+  if (zeros(0, 5) && (g[5] === 0xffff || g[5] === 0) && isLocalIpv4(v4At(6))) return true;
+  if (g[0] === 0x64 && g[1] === 0xff9b && zeros(2, 6) && isLocalIpv4(v4At(6))) return true;
+  if (g[0] === 0x2002 && isLocalIpv4(v4At(1))) return true;
+  return false;
+}
+
+/**
+ * True for a host name no one else can reach: localhost and its subdomains (RFC 6761), with or
+ * without the root's trailing dot, and the local IPv4 and IPv6 addresses above.
+ */
 function isLoopbackOrLocal(hostname) {
-  const h = hostname.toLowerCase().replace(/^\[|\]$/g, "");
-  if (h === "localhost" || h.endsWith(".localhost") || h === "0.0.0.0" || h === "::" || h === "::1") return true;
-  if (/^127\./.test(h)) return true;
-  // Private-use IPv4 ranges (RFC 1918) and link-local: a manifest pointing there works for no one else.
-  if (/^10\./.test(h) || /^192\.168\./.test(h) || /^169\.254\./.test(h)) return true;
-  const m = /^172\.(\d+)\./.exec(h);
-  if (m && Number(m[1]) >= 16 && Number(m[1]) <= 31) return true;
+  const h = hostname.toLowerCase().replace(/^\[|\]$/g, "").replace(/\.+$/, "");
+  if (h === "localhost" || h.endsWith(".localhost")) return true;
+  const v4 = ipv4Octets(h);
+  if (v4) return isLocalIpv4(v4);
+  if (h.includes(":")) {
+    const v6 = ipv6Groups(h);
+    // An address the parser accepted but this reading cannot: refused rather than let through.
+    return v6 === undefined || isLocalIpv6(v6);
+  }
   return false;
 }
 
@@ -51,6 +117,9 @@ function checkDeployHost(value) {
     throw new DeployHostError(
       `SOILCELL_HOST "${raw}" is a local address; a deploy build is for a host your users can reach. For a local trial use \`npm run build\` (https://localhost:3000)`,
     );
+  }
+  if (url.hostname.endsWith(".")) {
+    throw new DeployHostError(`SOILCELL_HOST "${raw}" ends its host name with a dot; give it without ("${url.hostname.replace(/\.+$/, "")}"): certificates and Office's checks expect the plain name`);
   }
   if (!url.hostname.includes(".") && !url.hostname.includes(":")) {
     throw new DeployHostError(`SOILCELL_HOST "${raw}" has no domain (a bare name such as "${url.hostname}" resolves only on one network); give the full host name`);
@@ -102,7 +171,7 @@ function urlsOutsideHost(manifestXml, metadata, host) {
   return bad;
 }
 
-module.exports = { DEV_HOST, DeployHostError, checkDeployHost, isUnder, urlsInXml, urlsOutsideHost };
+module.exports = { DEV_HOST, DeployHostError, checkDeployHost, isLoopbackOrLocal, isUnder, urlsInXml, urlsOutsideHost };
 
 if (require.main === module) {
   try {

@@ -192,17 +192,29 @@ function cautionSentences(text) {
     .filter((s) => /estimate|caution|split|caustic|handle|dust|regional|screening|not a (fertili[sz]er )?recommendation|weak|check (them )?against|licensed|regulation/i.test(s));
 }
 
-function kindWords(kind) {
-  if (kind === "number") return "number, or a range of numbers";
-  if (kind === "text") return "text, or a range of texts";
-  if (kind === "range") return "one value, or a range taken as a whole";
+/** What an argument takes, from its declaration (kind, and what a number-or-word or a reading accepts). */
+function kindWords(p) {
+  if (p.kind === "number") return p.blank === "not measured" ? "number, or a range of numbers; a blank cell means not measured" : "number, or a range of numbers";
+  if (p.kind === "text") return p.accepts === "number or word" ? "number or word, or a range of them" : "text, or a range of texts";
+  if (p.kind === "range") return "one value, or a range taken as a whole";
+  if (p.kind === "cell") return "number or text as the lab printed it, or a range of them";
   return "value";
+}
+
+/**
+ * Whether the argument must be given, as the function (not Excel's metadata) sees it: an argument
+ * after an optional one is optional in the metadata even where the function needs it.
+ */
+function needWords(p) {
+  if (!p.optional) return "required";
+  if (p.needed) return `needed ${p.needed}`;
+  return "optional";
 }
 
 /** The refusals every function shares, from its arguments' kinds (the conventions in the README). */
 function commonErrors(params) {
   const out = [];
-  if (params.some((p) => p.kind === "number")) {
+  if (params.some((p) => p.kind === "number" || p.accepts === "number or word")) {
     out.push(["#VALUE!", "a number argument holds text that is not a number (\"12,5\", \"<0.5\", \"n.d.\"); numbers typed as text (\"12.5\") are accepted"]);
     out.push(["#VALUE!", "two range arguments have different shapes (a single cell pairs with every element)"]);
   }
@@ -239,19 +251,19 @@ function renderHelpSite(input) {
     const params = f.parameters.map((p) => {
       const d = doc?.params.find((x) => x.name === p.name);
       const s = spec?.params.find((x) => x.name === p.name);
-      return { name: p.name, optional: Boolean(p.optional), text: d?.text ?? p.description ?? "", kind: s?.kind, default: s?.default };
+      return { name: p.name, optional: Boolean(p.optional), text: d?.text ?? p.description ?? "", kind: s?.kind, default: s?.default, needed: s?.needed, blank: s?.blank, accepts: s?.accepts };
     });
     const call = `=${ns}.${f.name}(${params.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ")})`;
 
     const items = params
       .map((p) => {
         const dflt = p.default !== undefined ? ` Default when left out: ${esc(String(p.default))}.` : "";
-        return `<dt><code>${esc(p.name)}</code> <span class="note">${p.optional ? "optional" : "required"} · ${esc(kindWords(p.kind))}</span></dt>\n<dd>${linked(p.text, ids, f.id)}${dflt}</dd>`;
+        return `<dt><code>${esc(p.name)}</code> <span class="note">${esc(needWords(p))} · ${esc(kindWords(p))}</span></dt>\n<dd>${linked(p.text, ids, f.id)}${dflt}</dd>`;
       })
       .join("\n");
     const argsBlock = params.length
       ? `<dl>\n${items}\n</dl>
-<p class="note">Leave an optional argument out, or empty between commas (<code>=${esc(ns)}.${esc(f.name)}(a,,c)</code>), to take its default. A blank cell in a number argument gives a blank result for that element.</p>`
+<p class="note">Leave an optional argument out, or empty between commas (<code>=${esc(ns)}.${esc(f.name)}(a,,c)</code>), to take its default; a required or needed argument left out is <code>#VALUE!</code> naming it. A blank cell in a number argument gives a blank result for that element${params.some((p) => p.blank === "not measured") ? ", except where the argument says a blank cell means not measured" : ""}.</p>`
       : "<p>None.</p>";
 
     const specific = (doc?.throws ?? []).map((t) => {

@@ -4,7 +4,8 @@
  * Each workbook is written with ExcelJS using typed formulas (=SOIL.CEC(…)) and then passed
  * through the headless engine, so the committed file holds Excel's stored form
  * (_xldudf_SOIL_… dynamic-array formulas) with cached values. Needs `npm run build:node` first
- * (the npm script runs it).
+ * (the npm script runs it). `--out DIR` writes them into DIR instead (the test that the committed
+ * files are current regenerates them into a temporary folder).
  */
 "use strict";
 const fs = require("fs");
@@ -32,7 +33,15 @@ const build = {
 const { seasonWorkbook } = require("./season");
 const { legumeWorkbook } = require("./legume");
 
-const OUT = path.join(ROOT, "sample-workbooks");
+/** The output folder: sample-workbooks/, or the folder after --out. */
+function outDir(argv) {
+  const i = argv.indexOf("--out");
+  if (i === -1) return path.join(ROOT, "sample-workbooks");
+  const dir = argv[i + 1];
+  if (!dir || dir.startsWith("--")) throw new Error("--out needs a folder");
+  return path.resolve(dir);
+}
+const OUT = outDir(process.argv.slice(2));
 
 async function write(name, made, expectedErrors) {
   const tmp = fs.mkdtempSync(path.join(os.tmpdir(), "soilcell-samples-"));

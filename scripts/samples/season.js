@@ -423,7 +423,12 @@ function seasonWorkbook(build) {
       key: "pPos", header: H.pPos, group: "soil", width: 9, numFmt: "0.00",
       row: (A) => `IF(${A("crop")}="canola",SOIL.BANDPOS(${A("colwellP")},${bandRow["grdc2020-colwell-p-canola"].range}),SOIL.BANDPOS(${A("colwellP")},${bandRow["grdc2020-colwell-p-wheat"].range}))`,
     },
-    { key: "sBand", header: H.sBand, group: "soil", width: 15, bandOf: "sPos", spill: (S) => `SOIL.SUFFICIENCY("S",${S("s")},${S("crop")},"KCl-40")` },
+    {
+      key: "sBand", header: H.sBand, group: "soil", width: 15, bandOf: "sPos",
+      spill: (S) =>
+        // 0-30 cm cores (the column says so); the wheat table is read only when named (its sources disagree).
+        `IF(${S("crop")}="wheat",SOIL.SUFFICIENCY("S",${S("s")},${S("crop")},"KCl-40",,"anderson2013-kcl40-s-wheat",,30),SOIL.SUFFICIENCY("S",${S("s")},${S("crop")},"KCl-40",,,,30))`,
+    },
     {
       key: "sPos", header: H.sPos, group: "soil", width: 9, numFmt: "0.00",
       row: (A) => `IF(${A("crop")}="canola",SOIL.BANDPOS(${A("s")},${bandRow["anderson2013-kcl40-s-canola"].range}),SOIL.BANDPOS(${A("s")},${bandRow["anderson2013-kcl40-s-wheat"].range}))`,

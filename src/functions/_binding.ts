@@ -77,16 +77,29 @@ interface ParamBase {
   readonly name: string;
   /** For a required argument: what to give, appended to "<name> is required". */
   readonly need?: string;
+  /**
+   * For an argument the function needs although Excel's metadata lists it as optional (an
+   * optional argument comes before it, and Excel allows no required one after): when it is
+   * needed, in words, for the help page. Left out, core refuses with a message saying what to give.
+   */
+  readonly needed?: string;
 }
 export interface NumParam extends ParamBase {
   readonly kind: "number";
   readonly optional: boolean;
   readonly default?: number;
+  /**
+   * "not measured": a blank cell (or empty text) reaches core as omitted, a reading the lab did
+   * not make, instead of giving a blank result (the screen then lists the check as not made).
+   */
+  readonly blank?: "not measured";
 }
 export interface TextParam extends ParamBase {
   readonly kind: "text";
   readonly optional: boolean;
   readonly default?: string;
+  /** "number or word": a number or one of the function's words (a factor or its name), passed to core as text. */
+  readonly accepts?: "number or word";
 }
 /** A whole range taken as one value (a calibration table, a list of limits); not broadcast. */
 export interface RangeParam extends ParamBase {
@@ -111,6 +124,14 @@ export const optNum = (name: string, dflt?: number) =>
 export const text = (name: string, need?: string) => ({ kind: "text", name, optional: false, need }) as const satisfies TextParam;
 export const optText = (name: string, dflt?: string) =>
   ({ kind: "text", name, optional: true, default: dflt }) as const satisfies TextParam;
+/** Optional in Excel's metadata (it follows an optional argument) but needed by the function: `when` says when, for help. */
+export const neededText = (name: string, when: string) =>
+  ({ kind: "text", name, optional: true, needed: when }) as const satisfies TextParam;
+/** An optional number or word (a factor or a named factor); `needed` as for neededText. */
+export const optNumOrWord = (name: string, needed?: string) =>
+  ({ kind: "text", name, optional: true, accepts: "number or word", ...(needed ? { needed } : {}) }) as const satisfies TextParam;
+/** An optional reading whose blank cell means "not measured", not a blank result. */
+export const optMeasured = (name: string) => ({ kind: "number", name, optional: true, blank: "not measured" }) as const satisfies NumParam;
 export const cell = (name: string) => ({ kind: "cell", name, optional: false }) as const satisfies CellParam;
 export const range = (name: string, need?: string) => ({ kind: "range", name, optional: false, need }) as const satisfies RangeParam;
 export const optRange = (name: string) => ({ kind: "range", name, optional: true }) as const satisfies RangeParam;
@@ -288,7 +309,7 @@ function elementValue(p: NumParam | TextParam | CellParam, c: unknown, omitted: 
     throw new SoilError("NOT_A_NUMBER", `${p.name} must be a number or text (got ${String(c)})`);
   }
   if (p.kind === "number") {
-    if (isBlank(c)) return BLANK;
+    if (isBlank(c)) return p.blank === "not measured" ? p.default : BLANK;
     return numberOfCell(c, p.name);
   }
   if (isBlank(c)) {

@@ -3,7 +3,7 @@ import { bandLabel, bandPosition } from "../core/bands/bands";
 import { sufficiencyBand } from "../core/bands/sufficiency";
 import { removalAmount, REMOVAL_YIELD_UNIT_NEED } from "../core/bands/removal";
 import { buildupRate } from "../core/bands/buildup";
-import { declare, num, optNum, optRange, optText, range, text } from "./_binding";
+import { declare, neededText, num, optNum, optRange, optText, range, text } from "./_binding";
 
 /**
  * The label of the band that holds a value, on your own limits; a value equal to a limit is in the band above it.
@@ -43,16 +43,18 @@ const BANDPOS = declare(bandpos, [num("value"), range("limits")], (value, limits
  *
  * @customfunction SUFFICIENCY
  * @param {any[][]} nutrient P, K, S, N, Ca, Mg, B, Cu, Fe, Mn, Mo or Zn.
- * @param {any[][]} value Value in the table's unit, at least 0: soil tests mg/kg (Olsen index mg/L of soil), tissue % of dry matter (micronutrients mg/kg).
- * @param {any[][]} [crop] The crop (corn, soybean, wheat, canola, alfalfa, clover, subclover, pasture, barley, …) or, for the Tri-State P tables, the rotation: crops joined by "-", e.g. corn-soybean or corn-soybean-wheat (every year the same crop: corn-corn). Omitted: a crop-independent table.
- * @param {any[][]} [method] Bray-1, Mehlich-3, Olsen, Colwell, KCl-40, DTPA, or tissue for plant analysis; required.
+ * @param {any[][]} value Value, at least 0, in the table's unit (soilcell list shows it) or in the unit given as unit: soil tests mg/kg, the Olsen P index mg/dm3 (mg per litre of soil), tissue % of dry matter (micronutrients mg/kg).
+ * @param {any[][]} [crop] The crop (corn, soybean, wheat, canola, alfalfa, clover, subclover, pasture, barley, …) or, for the Tri-State P tables, the rotation: crops joined by "-", e.g. corn-soybean or corn-soybean-wheat (every year the same crop: corn-corn). A table written for the crop or rotation is read before a crop-independent one (Bray-1 P: wheat, alfalfa and corn-soybean rotations read the Tri-State 1995 critical levels, other crops the SARE general ranges); name a table to read another. Omitted: a crop-independent table.
+ * @param {any[][]} [method] Bray-1, Mehlich-3, Olsen, Colwell, KCl-40, DTPA, or tissue for plant analysis. Needed unless table names a table or is your own.
  * @param {any[][]} [cec] CEC in cmol(+)/kg, above 0; needed where the table's levels depend on it (Mehlich-3 K).
- * @param {any[][]} [table] A built-in table id (soilcell list), where several fit (subclover S by stage); or your own table as a range: nutrient | method | crop | band | limit | band … per row.
+ * @param {any[][]} [table] A built-in table id (soilcell list): needed where several fit (subclover S by stage) or where sources disagree (KCl-40 S for wheat); or your own table as a range: nutrient | method | crop | band | limit | band … per row.
+ * @param {any[][]} [unit] Unit of value: mg/kg (= ppm), g/kg, %, or mg/dm3 (mg per litre of soil); converted exactly to the table's unit. Needed for Olsen P, which labs report per kg or per litre of soil (the tables are in both); a value per kg is never read against a per-litre table.
+ * @param {any[][]} [depth_cm] Depth of the sampled layer, cm (0 to depth_cm), above 0 and at most 300; needed, and must match, where the source states its sampling depth: KCl-40 S 30 (0-30 cm core), pasture Bray and Olsen P 10.
  * @returns {any[][]} The source's band label; #N/A where no table covers the combination (the message lists those that exist). Interpretations are regional estimates: check them locally.
- * @throws #N/A when no built-in table covers the nutrient, crop and method (the message lists those that exist), when the value sits exactly on a limit the source leaves in neither class, or is above the top of a closed published scale.
- * @throws #VALUE! when method is missing, cec is missing where the table's levels depend on it, or a table range is malformed.
- * @example =SOIL.SUFFICIENCY("P", 30, , "Olsen") //=> "Index 3"
- * Source: Nutrient Action Programme Regulations (Northern Ireland) 2019, S.R. 2019/81, Schedule 5 para. 10, Olsen P index (seen).
+ * @throws #N/A when no built-in table covers the nutrient, crop, method, unit and depth (the message lists those that exist), when the value sits exactly on a limit the source leaves in neither class, or is above the top of a closed published scale.
+ * @throws #VALUE! when method is missing, cec, unit or depth_cm is missing where the table needs it, a table that sources dispute is not named, unit is a rate per area, or a table range is malformed.
+ * @example =SOIL.SUFFICIENCY("P", 30, , "Olsen", , , "mg/dm3") //=> "Index 3"
+ * Source: Nutrient Action Programme Regulations (Northern Ireland) 2019, S.R. 2019/81, Schedule 5 para. 10, Olsen P index in mg P per litre of soil (seen).
  */
 export function sufficiency(
   nutrient: any[][],
@@ -61,13 +63,15 @@ export function sufficiency(
   method?: any[][],
   cec?: any[][],
   table?: any[][],
+  unit?: any[][],
+  depth_cm?: any[][],
 ): any[][] {
   return SUFFICIENCY(arguments);
 }
 const SUFFICIENCY = declare(
   sufficiency,
-  [text("nutrient"), num("value"), optText("crop"), optText("method"), optNum("cec"), optRange("table")],
-  (nutrient, value, crop, method, cec, table) => sufficiencyBand(nutrient, value, crop, method, cec, table),
+  [text("nutrient"), num("value"), optText("crop"), neededText("method", "unless table names a built-in table or is your own"), optNum("cec"), optRange("table"), optText("unit"), optNum("depth_cm")],
+  (nutrient, value, crop, method, cec, table, unit, depth) => sufficiencyBand(nutrient, value, crop, method, cec, table, unit, depth),
 );
 
 /**

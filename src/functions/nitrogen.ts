@@ -3,7 +3,7 @@ import { nfixFixedN, nfixPerTonne, nfixNBalance, nfixShootDm } from "../core/nit
 import { nfixNdfa, nfixNDifference } from "../core/nitrogen/isotope";
 import { nfixNodulatedPct, nfixNodulationRating, nfixPinkNodulePct, nfixNoduleCount } from "../core/nitrogen/nodulation";
 import { nfixSoilText, nfixSoilCount } from "../core/nitrogen/fixation-soil";
-import { declare, num, optNum, optText, text } from "./_binding";
+import { declare, num, optMeasured, optNum, optNumOrWord, text } from "./_binding";
 
 /**
  * N2 fixed by a legume, kg N/ha: shoot dry matter × shoot N % × %Ndfa × below-ground factor.
@@ -22,7 +22,7 @@ export function nfixed(shoot_dm: any[][], shoot_n_pct: any[][], ndfa_pct: any[][
 }
 const NFIXED = declare(
   nfixed,
-  [num("shoot_dm"), num("shoot_n_pct"), num("ndfa_pct"), optText("root_factor")],
+  [num("shoot_dm"), num("shoot_n_pct"), num("ndfa_pct"), optNumOrWord("root_factor", "always: there is no default factor")],
   (dm, nPct, ndfa, factor) => nfixFixedN(dm, nPct, ndfa, factor),
 );
 
@@ -42,7 +42,7 @@ export function nfixdm(shoot_dm: any[][], kg_n_per_t?: any[][], root_factor?: an
 }
 const NFIXDM = declare(
   nfixdm,
-  [num("shoot_dm"), optText("kg_n_per_t"), optText("root_factor")],
+  [num("shoot_dm"), optNumOrWord("kg_n_per_t", "always: there is no default rule"), optNumOrWord("root_factor")],
   (dm, perT, factor) => nfixPerTonne(dm, perT, factor),
 );
 
@@ -146,8 +146,9 @@ const NODPCT = declare(nodpct, [num("plants_dug"), num("plants_adequate")], (dug
  * @customfunction NODRATING
  * @param {any[][]} plants_dug Plants dug and scored, a whole number (1–1000).
  * @param {any[][]} plants_adequate Plants scored adequately nodulated, a whole number from 0 to plants_dug.
- * @param {any[][]} [nodules] Nodules counted on all plants dug (0–100000); 0 rates None. Blank: not counted.
- * @returns {any[][]} "Adequate: …", "Borderline: …", "Poor: …" or "None: …" with the % and the scale's source.
+ * @param {any[][]} [nodules] Nodules counted on all plants dug (0–100000), at least plants_adequate (each adequate plant has nodules); 0 rates None. Blank cell: not counted.
+ * @returns {any[][]} "Adequate: …", "Borderline: …", "Poor: …" or "None: …" with the % and the scale's source; a dig of fewer than the guide's about 30 plants says so.
+ * @throws #VALUE! for counts that are not whole numbers, more plants adequate than dug, or fewer nodules than plants adequate.
  * @example =SOIL.NODRATING(30,21,600) //=> "Adequate: 70 %…"
  * Source: University of Adelaide, "Grower guide to assessing legume nodulation – Riverina": ≥ 70 % of plants adequate is adequate, 50–70 % borderline, < 50 % poor (seen).
  */
@@ -156,7 +157,7 @@ export function nodrating(plants_dug: any[][], plants_adequate: any[][], nodules
 }
 const NODRATING = declare(
   nodrating,
-  [num("plants_dug"), num("plants_adequate"), optText("nodules")],
+  [num("plants_dug"), num("plants_adequate"), optMeasured("nodules")],
   (dug, adequate, nodules) => nfixNodulationRating(dug, adequate, nodules),
 );
 
@@ -199,10 +200,11 @@ const NODCOUNT = declare(
  * @param {any[][]} legume Legume or inoculant group, e.g. "field pea", "chickpea", "lupin", "subterranean clover", "lucerne", "group N".
  * @param {any[][]} ph Soil pH (0–14), by the test named in ph_method.
  * @param {any[][]} ph_method "CaCl2" or "water": different tests, never assumed; a level is compared only with its own test.
- * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured, listed as not checked.
- * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
- * @returns {any[][]} "n constraints found: …" or "none found in the checks made: …", then the checks not made and why.
- * @example =SOIL.FIXSOIL("field pea",5.2,"CaCl2",40) //=> "2 constraints found: pH 5.2 (CaCl2) is below 5.5…"
+ * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank cell or omitted: not measured, listed as not checked (not a blank result).
+ * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank cell or omitted: not measured.
+ * @returns {any[][]} "n constraints found: …" or "none found in the checks made: …", then the possible ones, not counted (Mo at pH 5.5 or below: its source states no pH test; faba bean above 100 kg nitrate-N/ha: it keeps fixing), then the checks not made and why. A blank pH cell gives a blank result.
+ * @throws #VALUE! when ph_method is missing or not CaCl2 or water, ph is left out, or a reading is out of range or text such as "<0.5".
+ * @example =SOIL.FIXSOIL("field pea",5.2,"CaCl2",40) //=> "1 constraint found: pH 5.2 (CaCl2) is below 5.5…"
  * Source: GRDC Paddock Practices 2022 (SARDI): rhizobia of groups E, F and N are sensitive below pH 5.5 (CaCl2) (seen); "Molybdenum – NSW" fact sheet, soilquality.org.au: liming above pH 5.5 (seen).
  */
 export function fixsoil(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
@@ -210,27 +212,27 @@ export function fixsoil(legume: any[][], ph: any[][], ph_method: any[][], nitrat
 }
 const FIXSOIL = declare(
   fixsoil,
-  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  [text("legume"), num("ph"), text("ph_method"), optMeasured("nitrate_kg_ha"), optMeasured("hot_water_b_mg_kg")],
   (legume, ph, method, nitrate, b) => nfixSoilText(legume, ph, method, nitrate, b),
 );
 
 /**
- * Number of soil factors (pH, nitrate, Mo, B) constraining N2 fixation for a legume, 0–4, for banding a report.
+ * Number of soil factors (pH, nitrate, B) constraining N2 fixation for a legume, 0–3, for banding a report; Mo is not counted.
  * @customfunction FIXSOILCOUNT
  * @param {any[][]} legume Legume or inoculant group, as in SOIL.FIXSOIL.
  * @param {any[][]} ph Soil pH (0–14), by the test named in ph_method.
  * @param {any[][]} ph_method "CaCl2" or "water": different tests, never assumed.
- * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank or omitted: not measured.
- * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank or omitted: not measured.
- * @returns {any[][]} Constraints found, 0–4; 0 means none in the checks made (SOIL.FIXSOIL lists them).
- * @example =SOIL.FIXSOILCOUNT("field pea",5.2,"CaCl2",150) //=> 3
- * Source: GRDC Paddock Practices 2022 (SARDI), pH 5.5 CaCl2 (seen); Cox (DAF Qld), GRDC Communities: pulses fix little above 100 kg/ha soil N (seen); "Molybdenum – NSW" fact sheet (seen).
+ * @param {any[][]} [nitrate_kg_ha] Nitrate-N at sowing, kg N/ha (0–1000). Blank cell or omitted: not measured.
+ * @param {any[][]} [hot_water_b_mg_kg] Hot-water-soluble B, mg/kg (0–50). Blank cell or omitted: not measured.
+ * @returns {any[][]} Constraints found, 0–3; 0 means none in the checks made (SOIL.FIXSOIL lists them). The Mo check (its source states no pH test) and faba bean's nitrate (it keeps fixing) are possible, shown by SOIL.FIXSOIL, never counted.
+ * @example =SOIL.FIXSOILCOUNT("field pea",5.2,"CaCl2",150) //=> 2
+ * Source: GRDC Paddock Practices 2022 (SARDI), pH 5.5 CaCl2 (seen); Voisin et al. 2002: pea fixation starts only below 56 kg N/ha (abstract seen); Cox (DAF Qld), GRDC Communities: pulses fix little above 100 kg/ha soil N (seen); the Mo check of the "Molybdenum – NSW" fact sheet is possible, not counted.
  */
 export function fixsoilcount(legume: any[][], ph: any[][], ph_method: any[][], nitrate_kg_ha?: any[][], hot_water_b_mg_kg?: any[][]): any[][] {
   return FIXSOILCOUNT(arguments);
 }
 const FIXSOILCOUNT = declare(
   fixsoilcount,
-  [text("legume"), num("ph"), text("ph_method"), optText("nitrate_kg_ha"), optText("hot_water_b_mg_kg")],
+  [text("legume"), num("ph"), text("ph_method"), optMeasured("nitrate_kg_ha"), optMeasured("hot_water_b_mg_kg")],
   (legume, ph, method, nitrate, b) => nfixSoilCount(legume, ph, method, nitrate, b),
 );

@@ -37,7 +37,15 @@ describe("sufficiency, removal and build-up formulas", () => {
     expect(value('=SOIL.SUFFICIENCY("P",25,"corn-soybean","Mehlich-3")')).toBe("Optimal");
     expect(value('=SOIL.SUFFICIENCY("P",25,"corn-soybean-wheat","Mehlich-3")')).toBe("Deficient");
     expect(value('=SOIL.SUFFICIENCY("K",110,"corn","Mehlich-3",{4;15})')).toEqual([["Optimal"], ["Deficient"]]);
-    expect(value('=SOIL.SUFFICIENCY("P",23,,"Olsen")')).toBe("Index 2+");
+    expect(value('=SOIL.SUFFICIENCY("P",23,,"Olsen",,,"mg/dm3")')).toBe("Index 2+");
+    // Olsen P is reported per kg and per litre of soil: without the unit it is refused, never read against the index.
+    expect(evaluateFormula('=SOIL.SUFFICIENCY("P",13,"wheat","Olsen")').message).toMatch(/^unit is needed/);
+  });
+  it("SOIL.SUFFICIENCY: KCl-40 S takes the sampling depth, and the wheat table only when named (Anderson et al. 2013; GRDC 2014 fact sheet)", () => {
+    expect(value('=SOIL.SUFFICIENCY("S",{6;7.2},"canola","KCl-40",,,,30)')).toEqual([["Below critical range"], ["Critical range (90 % of maximum yield)"]]);
+    expect(evaluateFormula('=SOIL.SUFFICIENCY("S",4,"canola","KCl-40")').message).toMatch(/^depth_cm is needed/);
+    expect(value('=SOIL.SUFFICIENCY("S",4,"wheat","KCl-40",,"anderson2013-kcl40-s-wheat",,30)')).toBe("Above critical range");
+    expect(evaluateFormula('=SOIL.SUFFICIENCY("S",4,"wheat","KCl-40",,,,30)').message).toMatch(/read only when named/);
   });
   it("SOIL.SUFFICIENCY without a table is #N/A with the message", () => {
     const r = evaluateFormula('=SOIL.SUFFICIENCY("P",30,"barley","Colwell")');

@@ -64,8 +64,11 @@ describe("legume nitrogen formulas", () => {
     expect(r.message).toMatch(/^no published nodules-per-plant count for lentil/);
   });
   it("SOIL.FIXSOIL and SOIL.FIXSOILCOUNT (GRDC Paddock Practices 2022: pulses below pH 5.5 CaCl2; readings invented)", () => {
-    expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",5.2,"CaCl2",40)').value).toMatch(/^2 constraints found: pH 5.2 \(CaCl2\) is below 5.5/);
-    expect(num('=SOIL.FIXSOILCOUNT("faba bean",5.2,"CaCl2",40)')).toBe(2);
+    expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",5.2,"CaCl2",40)').value).toMatch(/^1 constraint found: pH 5.2 \(CaCl2\) is below 5.5.* Possible, not counted: Mo: /);
+    expect(num('=SOIL.FIXSOILCOUNT("faba bean",5.2,"CaCl2",40)')).toBe(1); // the Mo check is possible, never counted
+    expect(evaluateFormula('=SOIL.FIXSOIL("field pea",,"CaCl2",40)')).toEqual({ error: "#VALUE!", message: "ph is required" });
+    expect(evaluateFormula('=SOIL.FIXSOIL("field pea",Z99,"CaCl2",40)', { blankReferences: true }).value).toBe(""); // a blank pH cell
+    expect(evaluateFormula('=SOIL.FIXSOIL("field pea",6,"CaCl2",Z99)', { blankReferences: true }).value).toMatch(/nitrate-N at sowing: not given/);
     expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",6.2,"water")').value).toMatch(/^none found in the checks made: Mo: /);
     expect(evaluateFormula('=SOIL.FIXSOIL("faba bean",6.2,"")').message).toMatch(/^ph_method is required/);
   });

@@ -137,4 +137,24 @@ describe("SOIL.SUFFICIENCY's help and ABOUT list what exists", () => {
     expect(param("crop")).toMatch(/corn-soybean-wheat/);
     expect(param("table")).toMatch(/range/);
   });
+  it("the help and ABOUT say where unit and depth_cm are needed, from the tables themselves", () => {
+    const about = aboutFunction("SUFFICIENCY");
+    for (const r of SUFFICIENCY_ROWS) {
+      if (r.depth_cm !== undefined) {
+        expect(param("depth_cm")).toContain(r.method === "KCl-40" ? `KCl-40 S ${r.depth_cm}` : `pasture Bray and Olsen P ${r.depth_cm}`);
+        expect(about).toContain(`${r.depth_cm}`);
+      }
+    }
+    expect(param("unit")).toMatch(/Needed for Olsen P/);
+    expect(param("crop")).toMatch(/read before a crop-independent one/);
+    expect(about).toMatch(/unit: needed for Olsen P/);
+  });
+  it("SUFFICIENCY spills over a column of S values with the sampling depth (Anderson et al. 2013, 0-30 cm canola CSTR 6.8-7.5; values invented)", () => {
+    expect(sufficiency([["S"]], [[6], [7], [8], [""]], [["canola"]], [["KCl-40"]], null as never, null as never, null as never, [[30]])).toEqual([
+      ["Below critical range"],
+      ["Critical range (90 % of maximum yield)"],
+      ["Above critical range"],
+      [""],
+    ]);
+  });
 });

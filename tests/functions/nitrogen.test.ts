@@ -107,6 +107,10 @@ describe("root digs: SOIL.NODPCT, SOIL.NODRATING, SOIL.NODPINK, SOIL.NODCOUNT (s
   it("NODRATING refuses more plants adequate than dug (a percentage typed as a count)", () => {
     expect(err(nodrating([[30]], [[70]])[0]![0])).toMatch(/^#VALUE! plants_adequate \(70\) is more than plants_dug \(30\)/);
   });
+  it("NODRATING refuses fewer nodules than plants rated adequate (25 adequate plants, 10 nodules), and notes a dig of fewer than 30 plants (University of Adelaide grower guide)", () => {
+    expect(err(nodrating([[30]], [[25]], [[10]])[0]![0])).toMatch(/^#VALUE! plants_adequate is 25 but only 10 nodules were counted/);
+    expect(nodrating([[3]], [[3]])[0]![0]).toMatch(/only 3 plants dug: the guide rates a dig of about 30 plants/);
+  });
   it("NODPINK: 30 of 40 is 75 %; no nodules is #VALUE!", () => {
     expect(nodpink([[40], [0]], [[30], [0]])[0]![0]).toBe(75);
     expect(err(nodpink([[0]], [[0]])[0]![0])).toMatch(/^#VALUE! nodules is 0/);
@@ -130,15 +134,27 @@ describe("soil screen: SOIL.FIXSOIL and SOIL.FIXSOILCOUNT (levels: GRDC Paddock 
     const ph = [[5.1], [6.4], [5.8]];
     const nitrate = [[120], [60], [""]];
     const text = fixsoil(legumes, ph, [["CaCl2"]], nitrate);
-    expect(text[0]![0]).toMatch(/^3 constraints found: /);
+    expect(text[0]![0]).toMatch(/^2 constraints found: .* Possible, not counted: Mo: /);
     expect(text[1]![0]).toMatch(/^none found in the checks made: /);
     expect(text[2]![0]).toMatch(/^none found in the checks made: Mo: pH 5.8 \(CaCl2\) is above 5.5.* Not checked: .*B: hot-water B not given/);
-    expect(fixsoilcount(legumes, ph, [["CaCl2"]], nitrate)).toEqual([[3], [0], [0]]);
+    expect(fixsoilcount(legumes, ph, [["CaCl2"]], nitrate)).toEqual([[2], [0], [0]]);
   });
-  it("ph_method omitted or blank is #VALUE! saying it is required; a blank pH gives a blank result", () => {
+  it("ph_method omitted or blank is #VALUE! saying it is required; a blank pH cell gives a blank result; ph left out is #VALUE! naming it", () => {
     expect(err(fixsoil([["lentil"]], [[6]], null as never)[0]![0])).toMatch(/^#VALUE! ph_method is required/);
     expect(err(fixsoil([["lentil"]], [[6]], [[""]])[0]![0])).toMatch(/^#VALUE! ph_method is required/);
     expect(fixsoilcount([["lentil"]], [[""]], [["water"]])).toEqual([[""]]);
+    expect(fixsoil([["field pea"]], [[null]], [["CaCl2"]], [[40]])).toEqual([[""]]); // a blank pH cell, as Excel passes it
+    expect(err(fixsoil([["field pea"]], null as never, [["CaCl2"]], [[40]])[0]![0])).toBe("#VALUE! ph is required"); // nothing between the commas
+  });
+  it("a blank nitrate or B cell means not measured (the check is listed as not made), not a blank result; text is refused", () => {
+    expect(fixsoil([["field pea"]], [[6]], [["CaCl2"]], [[""]], [[null]])[0]![0]).toMatch(/nitrate-N at sowing: not given/);
+    expect(fixsoilcount([["field pea"]], [[6]], [["CaCl2"]], [["120"]])).toEqual([[1]]); // numeric text is a number; one factor, however many of its levels it passes
+    expect(err(fixsoil([["field pea"]], [[6]], [["CaCl2"]], [["<0.5"]])[0]![0])).toMatch(/^#VALUE! nitrate_kg_ha: "<0.5" is not a number \(a below- or above-detection value is your call/);
+    expect(specOf(fixsoil)?.params.find((p) => p.name === "nitrate_kg_ha")).toMatchObject({ kind: "number", optional: true, blank: "not measured" });
+  });
+  it("faba bean at 150 kg N/ha: counted 0, the text says possible (GRDC Communities: faba keeps fixing at moderate to high nitrate)", () => {
+    expect(fixsoilcount([["faba bean"]], [[6.5]], [["CaCl2"]], [[150]])).toEqual([[0]]);
+    expect(fixsoil([["faba bean"]], [[6.5]], [["CaCl2"]], [[150]])[0]![0]).toMatch(/Possible, not counted: nitrate-N 150 kg N\/ha/);
   });
   it("declare their arguments in order", () => {
     const args = ["legume", "ph", "ph_method", "nitrate_kg_ha", "hot_water_b_mg_kg"];

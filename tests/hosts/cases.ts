@@ -312,11 +312,18 @@ export const CASES: readonly HostCase[] = [
     expected: err(/^no published nodules-per-plant count for lentil was found/, "#N/A"),
   },
   {
-    name: "FIXSOILCOUNT field pea at pH 5.1 CaCl2 with 120 kg nitrate-N: pH, nitrate and Mo (Sources: GRDC Paddock Practices 2022; Voisin et al. 2002; Cox, GRDC Communities; Molybdenum – NSW fact sheet; all seen; readings invented)",
+    name: "FIXSOILCOUNT field pea at pH 5.1 CaCl2 with 120 kg nitrate-N: pH and nitrate; Mo is possible, not counted (Sources: GRDC Paddock Practices 2022; Voisin et al. 2002; Cox, GRDC Communities; Molybdenum – NSW fact sheet; all seen; readings invented)",
     area: "nitrogen",
     id: "FIXSOILCOUNT",
     args: ["field pea", 5.1, "CaCl2", 120],
-    expected: 3,
+    expected: 2,
+  },
+  {
+    name: "FIXSOIL with a blank nitrate cell lists the nitrate check as not made, never a blank result (Source: Cox, GRDC Communities, > 100 kg/ha; readings invented)",
+    area: "nitrogen",
+    id: "FIXSOIL",
+    args: ["lentil", 6, "CaCl2", col(null)],
+    expected: /nitrate-N at sowing: not given/,
   },
   // ---- lime --------------------------------------------------------------------------------
   {
@@ -421,6 +428,20 @@ export const CASES: readonly HostCase[] = [
     id: "SUFFICIENCY",
     args: ["K", 110, "corn", "Mehlich-3", col(4, 15)],
     expected: [["Optimal"], ["Deficient"]],
+  },
+  {
+    name: "SUFFICIENCY KCl-40 S for canola on 0-30 cm cores: 6 below, 7.2 within the critical range 6.8-7.5 (Source: Anderson, Peverill & Brennan 2013, Crop & Pasture Science 64:523, abstract, seen)",
+    area: "bands",
+    id: "SUFFICIENCY",
+    args: ["S", col(6, 7.2), "canola", "KCl-40", undefined, undefined, undefined, 30],
+    expected: [["Below critical range"], ["Critical range (90 % of maximum yield)"]],
+  },
+  {
+    name: "SUFFICIENCY Olsen P without its unit is #VALUE!: labs report it per kg or per litre of soil and the tables are in both (Sources: NI S.R. 2019/81 Sched. 5; Making More from Sheep Tool 7.3; seen)",
+    area: "bands",
+    id: "SUFFICIENCY",
+    args: ["P", 13, "wheat", "Olsen"],
+    expected: err(/^unit is needed/),
   },
   {
     name: "SUFFICIENCY with no table for the combination is #N/A (a gap in the shipped tables, not a value)",

@@ -15,7 +15,8 @@ import { CHROMIUM, CHROMIUM_ARGS, DIST, ROOT, StaticServer, describeHost, ensure
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const help = require("../../scripts/help.js") as {
   renderHelpSite(input: unknown): Record<string, string>;
-  readBindingDocs(dir?: string): { module: string; functionName: string }[];
+  readBindingDocs(dir?: string): { module: string; functionName: string; params: { name: string; text: string }[] }[];
+  helpSiteFromRepo(root?: string): Record<string, string>;
   GROUPS: { key: string; title: string }[];
   CSP: string;
 };
@@ -56,6 +57,48 @@ describe("the help generator", () => {
     expect(index.indexOf('id="legume-checks"')).toBeGreaterThan(index.indexOf('id="bands"'));
     expect(index.indexOf('id="legume-checks"')).toBeLessThan(index.indexOf('id="nitrogen"'));
     expect(index.indexOf('href="NODSCORE.html"')).toBeGreaterThan(index.indexOf('id="legume-checks"'));
+  });
+
+  describe("each argument shows what it truly takes and whether the function needs it (from the declarations)", () => {
+    let site: Record<string, string>;
+    beforeAll(() => {
+      ensureDist(); // build/ holds the declare() specs the generator reads
+      site = help.helpSiteFromRepo(ROOT);
+    });
+    /** The note after an argument's name on its function's page: "required · number, …". */
+    const noteOf = (id: string, arg: string) => {
+      const m = new RegExp(`<dt><code>${arg}</code> <span class="note">([^<]*)</span></dt>`).exec(site[`${id}.html`] ?? "");
+      if (!m) throw new Error(`${id}.html has no argument ${arg}`);
+      return m[1]!.replace(/&amp;/g, "&");
+    };
+    it("FIXSOIL's readings are numbers whose blank cell means not measured, not texts", () => {
+      for (const id of ["FIXSOIL", "FIXSOILCOUNT"]) {
+        expect(noteOf(id, "nitrate_kg_ha")).toBe("optional · number, or a range of numbers; a blank cell means not measured");
+        expect(noteOf(id, "hot_water_b_mg_kg")).toBe("optional · number, or a range of numbers; a blank cell means not measured");
+        expect(noteOf(id, "ph")).toBe("required · number, or a range of numbers");
+      }
+      expect(noteOf("NODRATING", "nodules")).toBe("optional · number, or a range of numbers; a blank cell means not measured");
+      expect(site["FIXSOIL.html"]).toContain("except where the argument says a blank cell means not measured");
+    });
+    it("SUFFICIENCY's method is needed (unless a table is named), not optional; its unit and depth_cm are shown", () => {
+      expect(noteOf("SUFFICIENCY", "method")).toBe("needed unless table names a built-in table or is your own · text, or a range of texts");
+      expect(noteOf("SUFFICIENCY", "unit")).toBe("optional · text, or a range of texts");
+      expect(noteOf("SUFFICIENCY", "depth_cm")).toBe("optional · number, or a range of numbers");
+    });
+    it("NFIXED's root_factor and NFIXDM's kg_n_per_t are needed numbers or words", () => {
+      expect(noteOf("NFIXED", "root_factor")).toBe("needed always: there is no default factor · number or word, or a range of them");
+      expect(noteOf("NFIXDM", "kg_n_per_t")).toBe("needed always: there is no default rule · number or word, or a range of them");
+      expect(noteOf("NFIXDM", "root_factor")).toBe("optional · number or word, or a range of them");
+    });
+    it("no argument whose own text says it is needed or required is shown as optional", () => {
+      for (const d of docs) {
+        const id = associations.find((a) => a.functionName === d.functionName && a.module === d.module)?.id;
+        if (!id) continue;
+        for (const p of d.params) {
+          if (/^(needed|required)\b/i.test(p.text)) expect({ id, arg: p.name, note: noteOf(id, p.name) }).toEqual({ id, arg: p.name, note: expect.stringMatching(/^(needed|required)/) });
+        }
+      }
+    });
   });
 
   it("an unknown module gets a group of its own rather than being dropped", () => {

@@ -51,6 +51,13 @@ export interface SufficiencyRow {
   readonly scale_top?: number;
   /** Soil sampling depth the table was calibrated for, e.g. "0-30 cm". */
   readonly depth?: string;
+  /** The same depth as a number: the bottom of the 0-to-depth core, cm (SOIL.SUFFICIENCY's depth_cm must equal it). */
+  readonly depth_cm?: number;
+  /**
+   * Present when the table is read only when named by its id, never chosen by the other arguments:
+   * why (another source disagrees for the same crop and depth, and the choice is the consultant's).
+   */
+  readonly only_by_id?: string;
   /** Plant part and growth stage of a tissue table. */
   readonly part?: string;
   readonly stage?: string;
@@ -102,8 +109,8 @@ export const METHODS = nameTable([
   { id: "Colwell", aliases: ["Colwell P", "Colwell K"], value: "Colwell" },
   { id: "KCl-40", aliases: ["KCl40", "KCl 40", "KCl-40 S", "0.25 M KCl"], value: "KCl-40" },
   { id: "DTPA", aliases: ["DTPA-TEA"], value: "DTPA" },
-  { id: "hot CaCl2", aliases: ["hot CaCl2 B", "hot calcium chloride", "CaCl2 hot"], value: "hot CaCl2" },
-  { id: "ammonium acetate", aliases: ["NH4OAc", "NH4OAc K", "ammonium acetate K", "1 N ammonium acetate"], value: "ammonium acetate" },
+  { id: "hot CaCl2", aliases: ["hot CaCl2 B", "hot-CaCl2", "hot-CaCl2 B", "hot calcium chloride", "hot-calcium-chloride", "CaCl2 hot"], value: "hot CaCl2" },
+  { id: "ammonium acetate", aliases: ["NH4OAc", "NH4OAc K", "ammonium acetate K", "ammonium-acetate", "1 N ammonium acetate"], value: "ammonium acetate" },
   { id: "tissue", aliases: ["plant", "plant tissue", "leaf", "plant analysis", "tissue test"], value: "tissue" },
 ]);
 

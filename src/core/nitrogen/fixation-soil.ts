@@ -5,13 +5,16 @@
  * constraint, or that it was not made and why; a legume with no published level for a check gets
  * no check, never an invented one. pH in water and in CaCl2 are different tests: the test is an
  * argument, a level is compared only with a reading of its own test, and a water pH is never
- * converted. Levels and sources: `src/data/nitrogen/legume-checks.json`. Screening aids only: an
- * inoculant's label and local advice govern.
+ * converted. A check its sources leave open is reported as possible and not counted: Mo (its
+ * source states no pH test, and a low pH makes a deficiency only more likely) and a general pulse
+ * nitrate level for a legume a source says keeps fixing at that nitrate (faba bean). Levels and
+ * sources: `src/data/nitrogen/legume-checks.json`. Screening aids only: an inoculant's label and
+ * local advice govern.
  */
 import { SoilError } from "../errors";
 import { nameTable } from "../names";
 import { BOUNDS, check, Bound } from "../validate";
-import { flagged, fmt, Legume, legumeOf, Level, measured, MO_LEVEL, PhLevel, sideWords } from "./legumes";
+import { flagged, fmt, Legume, legumeOf, Level, measured, MO_LEVEL, MO_NOT_COUNTED, PhLevel, sideWords } from "./legumes";
 
 /** Bounds of the soil-test inputs; the upper bounds of nitrate and B are guards against unit slips. */
 export const FIXSOIL_BOUNDS = {
@@ -46,7 +49,11 @@ export type CheckName = "pH" | "nitrate" | "Mo" | "B";
 
 export interface SoilCheck {
   readonly check: CheckName;
-  readonly status: "constraint" | "clear" | "not made";
+  /**
+   * constraint: counted; possible: flagged by a level its sources leave open (reported, not
+   * counted); clear: not flagged; not made: no level, another pH test, or no reading.
+   */
+  readonly status: "constraint" | "possible" | "clear" | "not made";
   /** One clause naming the reading, the level, the source, and on a constraint what it means. */
   readonly text: string;
 }
@@ -97,20 +104,23 @@ function nitrateCheck(legume: Legume, nitrate: number | undefined): SoilCheck {
   const parts = hits.length
     ? hits.map((l) => `${sideWords(nitrate, l)}: ${l.meaning} ${cite(l)}`)
     : sameLevels(legume.nitrate).map((ls) => `${sideWords(nitrate, ls[0]!)} [${ls.map((l) => l.short).join("; ")}]`);
-  const note = hits.length && legume.nitrateNote ? `, but ${legume.nitrateNote}` : "";
+  // A legume a source says keeps fixing at this nitrate: the general level is reported, not counted.
+  const open = hits.length > 0 && legume.nitrateNotCounted !== undefined;
+  const note = open ? `, but ${legume.nitrateNotCounted}` : "";
   return {
     check: "nitrate",
-    status: hits.length ? "constraint" : "clear",
+    status: hits.length ? (open ? "possible" : "constraint") : "clear",
     text: `nitrate-N ${fmt(nitrate)} kg N/ha at sowing is ${parts.join(", and ")}${note}`,
   };
 }
 
+/** Mo: possible at or below pH 5.5 in either test, never counted (MO_NOT_COUNTED says why). */
 function moCheck(ph: number, test: PhTest): SoilCheck {
   const hit = flagged(ph, MO_LEVEL);
   return {
     check: "Mo",
-    status: hit ? "constraint" : "clear",
-    text: `Mo: pH ${fmt(ph)} (${test}) is ${sideWords(ph, MO_LEVEL)}${hit ? `: ${MO_LEVEL.meaning}` : ""} ${cite(MO_LEVEL, "; the source does not state its pH test")}`,
+    status: hit ? "possible" : "clear",
+    text: `Mo: pH ${fmt(ph)} (${test}) is ${sideWords(ph, MO_LEVEL)}${hit ? `: ${MO_LEVEL.meaning}` : ""} ${cite(MO_LEVEL, "; the source does not state its pH test")}${hit ? ` (not counted: ${MO_NOT_COUNTED})` : ""}`,
   };
 }
 
@@ -135,10 +145,11 @@ function boronCheck(legume: Legume, b: number | undefined): SoilCheck {
  * below adequate under pHCa 5.55 (Hackney et al. 2019, Crop Pasture Sci 70:1128; abstract seen).
  * Nitrate-N at sowing: pulses fix little above 100 kg/ha (Cox, GRDC Communities; seen), chickpea
  * likewise (GRDC Communities; seen); pea: fixation starts only below 56, absolutely inhibited
- * above 380 kg N/ha (Voisin et al. 2002; abstract seen). Mo: pH at or below 5.5 (Molybdenum – NSW
- * fact sheet, soilquality.org.au; seen; its pH test is not stated, so the reading is compared as
- * given and the result says so). B: lucerne, hot-water B below 0.34 mg/kg (Haddad & Kaldor 1982;
- * abstract seen).
+ * above 380 kg N/ha (Voisin et al. 2002; abstract seen); faba bean keeps fixing at moderate to
+ * high nitrate (GRDC Communities; GRDC fact sheet 2013; seen), so its flag is possible, not a
+ * constraint. Mo: pH at or below 5.5 (Molybdenum – NSW fact sheet, soilquality.org.au; seen; its
+ * pH test is not stated, so the reading is compared as given, and the flag is possible, not a
+ * constraint). B: lucerne, hot-water B below 0.34 mg/kg (Haddad & Kaldor 1982; abstract seen).
  * @param legume a legume or inoculant-group word (see LEGUME_WORDS)
  * @param ph soil pH, 0–14, measured by `phMethod`
  * @param phMethod "CaCl2" or "water": required, never assumed
@@ -167,29 +178,32 @@ export function nfixSoilChecks(
 /**
  * The soil screen as one text per paddock, each clause naming its source; never a bare OK.
  * "2 constraints found: …", or "none found in the checks made: …" listing every check made, then
- * the checks not made and why.
+ * the possible ones (reported, not counted), then the checks not made and why.
  * Arguments and errors as nfixSoilChecks.
  * @returns the screen's text, each clause naming its source in brackets
- * @example nfixSoilText("field pea", 5.1, "CaCl2", 40) //=> "2 constraints found: pH 5.1 (CaCl2) is below 5.5…"
+ * @example nfixSoilText("field pea", 5.1, "CaCl2", 40) //=> "1 constraint found: pH 5.1 (CaCl2) is below 5.5…"
  * @example nfixSoilText("chickpea", 6.4, "CaCl2", 60) //=> "none found in the checks made: pH 6.4 (CaCl2) is not below 5.5…"
  */
 export function nfixSoilText(legume: string, ph: number, phMethod: string, nitrateKgHa?: string | number, hotWaterB?: string | number): string {
   const checks = nfixSoilChecks(legume, ph, phMethod, nitrateKgHa, hotWaterB);
   const of = (s: SoilCheck["status"]) => checks.filter((c) => c.status === s).map((c) => c.text);
-  const [found, clear, notMade] = [of("constraint"), of("clear"), of("not made")];
+  const [found, possible, clear, notMade] = [of("constraint"), of("possible"), of("clear"), of("not made")];
   const head = found.length
-    ? `${found.length} constraint${found.length > 1 ? "s" : ""} found: ${found.join("; ")}.${clear.length ? ` No constraint: ${clear.join("; ")}.` : ""}`
-    : `none found in the checks made: ${clear.join("; ")}.`;
+    ? `${found.length} constraint${found.length > 1 ? "s" : ""} found: ${found.join("; ")}.`
+    : `none found in the checks made${clear.length ? `: ${clear.join("; ")}` : ""}.`;
+  const clearAfter = found.length && clear.length ? ` No constraint: ${clear.join("; ")}.` : "";
+  const maybe = possible.length ? ` Possible, not counted: ${possible.join("; ")}.` : "";
   const note = legumeOf(legume).note;
-  return `${head}${notMade.length ? ` Not checked: ${notMade.join("; ")}.` : ""}${note ? ` Note: ${note}.` : ""}`;
+  return `${head}${maybe}${clearAfter}${notMade.length ? ` Not checked: ${notMade.join("; ")}.` : ""}${note ? ` Note: ${note}.` : ""}`;
 }
 
 /**
- * The number of soil factors (pH, nitrate, Mo, B) with a constraint on fixation, 0–4.
- * For banding a report column; 0 means none found in the checks made (SOIL.FIXSOIL says which
- * checks those were).
+ * The number of soil factors (pH, nitrate, B) with a constraint on fixation, 0–3, for banding a
+ * report column. The Mo check and a nitrate level a source leaves open (faba bean) are possible,
+ * not constraints, and are not counted; SOIL.FIXSOIL reports them. 0 means none found in the
+ * checks made (SOIL.FIXSOIL says which checks those were).
  * Arguments and errors as nfixSoilChecks.
- * @example nfixSoilCount("field pea", 5.1, "CaCl2", 120) //=> 3
+ * @example nfixSoilCount("field pea", 5.1, "CaCl2", 120) //=> 2
  */
 export function nfixSoilCount(legume: string, ph: number, phMethod: string, nitrateKgHa?: string | number, hotWaterB?: string | number): number {
   return nfixSoilChecks(legume, ph, phMethod, nitrateKgHa, hotWaterB).filter((c) => c.status === "constraint").length;

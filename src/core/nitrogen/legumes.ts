@@ -46,7 +46,11 @@ export interface Legume {
   readonly boron?: BoronLevel;
   /** Published context shown beside a check (e.g. why a legume has no pH level). */
   readonly phNote?: string;
-  readonly nitrateNote?: string;
+  /**
+   * Why a flagged nitrate level is reported as possible and not counted for this legume (a source
+   * says it keeps fixing N at that nitrate), with the citation.
+   */
+  readonly nitrateNotCounted?: string;
   readonly note?: string;
 }
 
@@ -142,7 +146,7 @@ interface RawLegume {
   count: string | null;
   boron: string | null;
   ph_note?: string;
-  nitrate_note?: string;
+  nitrate_not_counted?: string;
   note?: string;
 }
 
@@ -154,7 +158,7 @@ const LEGUMES: Legume[] = (table.legumes as RawLegume[]).map((r) => ({
   count: resolve(COUNT, r.count, r.id),
   boron: resolve(BORON, r.boron, r.id),
   phNote: r.ph_note,
-  nitrateNote: r.nitrate_note,
+  nitrateNotCounted: r.nitrate_not_counted,
   note: r.note,
 }));
 
@@ -165,6 +169,8 @@ export const LEGUME_WORDS: readonly string[] = NAMES.ids;
 
 /** The molybdenum level (all legumes) and the nodulation scale, as the data file gives them. */
 export const MO_LEVEL: PhLevel = { ...level({ id: "mo", ...table.mo_level }), test: table.mo_level.test as PhLevel["test"] };
+/** Why the Mo check is reported as possible and never counted as a constraint. */
+export const MO_NOT_COUNTED: string = table.mo_level.why_not_counted;
 export const NODULATION_SCALE = table.nodulation_scale;
 export const PINK_NODULES = table.pink_nodules;
 

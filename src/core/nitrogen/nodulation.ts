@@ -50,6 +50,15 @@ function adequateOf(plantsDug: number, plantsAdequate: number): number {
 const pctText = (part: number, whole: number) => `${fmt(Number(((100 * part) / whole).toFixed(2)))} %`;
 
 /**
+ * A note for a dig smaller than the guide's: the scale is read from about 30 plants (10 at each of
+ * 3 spots), and a share of a few plants moves in large steps (1 of 3 is 33 %).
+ */
+function fewText(plantsDug: number): string {
+  if (plantsDug >= NODULATION_SCALE.dig_plants) return "";
+  return `; only ${plantsDug} plant${plantsDug === 1 ? "" : "s"} dug: the guide rates a dig of ${NODULATION_SCALE.dig}, so read with care`;
+}
+
+/**
  * Percent of the plants dug that were scored adequately nodulated: 100 × adequate ÷ dug.
  * The University of Adelaide grower guide's measure: score each plant adequate or poor, work out
  * the % of plants adequately nodulated (seen).
@@ -77,10 +86,11 @@ export function nfixNodulatedPct(plantsDug: number, plantsAdequate: number): num
  * @param nodules optional: nodules counted on all plants dug, whole number 0–100000 (or numeric
  *   text); 0 gives None. Blank or omitted means not counted: a dig with no adequate plant is then
  *   Poor, and the text says to count nodules to tell Poor from None
- * @returns "Adequate: …", "Borderline: …", "Poor: …" or "None: …", naming the source
+ * @returns "Adequate: …", "Borderline: …", "Poor: …" or "None: …", naming the source; a dig of
+ *   fewer plants than the guide's about 30 says so in the text (the rating is still the scale's)
  * @throws OUT_OF_RANGE as nfixNodulatedPct, and for a negative or fractional nodule count;
- *   NOT_A_NUMBER for nodule text that is not a number; NOT_APPLICABLE when plants are rated
- *   adequate but 0 nodules were counted
+ *   NOT_A_NUMBER for nodule text that is not a number; NOT_APPLICABLE when fewer nodules were
+ *   counted than plants rated adequate (each such plant has nodules), including 0
  * @example nfixNodulationRating(30, 18) //=> "Borderline: 60 % of plants adequately nodulated…"
  */
 export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, nodulesCounted?: number | string): string {
@@ -89,17 +99,22 @@ export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, 
   const nodules = measured(nodulesCounted, NODULATION_BOUNDS.nodules);
   if (nodules !== undefined) {
     count(nodules, NODULATION_BOUNDS.nodules);
-    if (nodules === 0 && adequate > 0) {
-      throw new SoilError("NOT_APPLICABLE", `plants_adequate is ${adequate} but nodules is 0: an adequately nodulated plant has nodules; check the two counts`);
+    // Each plant rated adequate has at least one nodule (the guide's adequate plants have "most
+    // nodules" red/pink inside), so fewer nodules than adequate plants is a miscount (arithmetic).
+    if (nodules < adequate) {
+      throw new SoilError(
+        "NOT_APPLICABLE",
+        `plants_adequate is ${adequate} but only ${nodules} nodule${nodules === 1 ? " was" : "s were"} counted on the ${plantsDug} plants dug: each adequately nodulated plant has nodules, so at least ${adequate}; check the two counts (nodules is the total on all plants dug)`,
+      );
     }
     if (nodules === 0) {
-      return `${NODULATION_SCALE.none.label}: no nodules on the ${plantsDug} plants dug, ${NODULATION_SCALE.none.meaning} ${source}`;
+      return `${NODULATION_SCALE.none.label}: no nodules on the ${plantsDug} plants dug, ${NODULATION_SCALE.none.meaning}${fewText(plantsDug)} ${source}`;
     }
   }
   const scale = NODULATION_SCALE.levels; // highest first
   const band = scale.find((l) => adequate * 100 >= l.min_pct * plantsDug) ?? scale[scale.length - 1]!;
   const unknownNone = adequate === 0 && nodules === undefined ? "; count nodules to tell Poor from None" : "";
-  return `${band.label}: ${pctText(adequate, plantsDug)} of plants adequately nodulated (${band.range}${unknownNone}) ${source}`;
+  return `${band.label}: ${pctText(adequate, plantsDug)} of plants adequately nodulated (${band.range}${unknownNone})${fewText(plantsDug)} ${source}`;
 }
 
 /** Rank of a rating for comparisons: None 0, Poor 1, Borderline 2, Adequate 3. */

@@ -16,8 +16,8 @@ function cropFor(r: (typeof SUFFICIENCY_ROWS)[number]): string | undefined {
   return r.crops[0];
 }
 const cecFor = (r: (typeof SUFFICIENCY_ROWS)[number]) => (r.cec ? (r.cec.max ?? (r.cec.above as number) + 1) : undefined);
-/** Reads a row by its own table id, so rows that need one (a stage) are reached the same way. */
-const bandOf = (r: (typeof SUFFICIENCY_ROWS)[number], v: number) => sufficiencyBand(r.nutrient, v, cropFor(r), r.method, cecFor(r), r.id);
+/** Reads a row by its own table id, in its own unit and depth, so rows that need one (a stage) are reached the same way. */
+const bandOf = (r: (typeof SUFFICIENCY_ROWS)[number], v: number) => sufficiencyBand(r.nutrient, v, cropFor(r), r.method, cecFor(r), r.id, r.unit, r.depth_cm);
 const tiny = (x: number) => Math.max(1e-9, Math.abs(x) * 1e-9);
 
 describe("each built-in table's own edge rule, at every limit", () => {
@@ -83,8 +83,20 @@ describe("Bray-1 P", () => {
     [12, "Marginal response"],
     [15, "Marginal response"],
     [16, "Generally non-responsive"],
-  ])("Making More from Sheep, pasture: Bray P %s mg/kg is %s", (v, band) => {
-    expect(sufficiencyBand("P", v, "pasture", "Bray-1")).toBe(band);
+  ])("Making More from Sheep, pasture: Bray P %s mg/kg (0-10 cm) is %s", (v, band) => {
+    expect(sufficiencyBand("P", v, "pasture", "Bray-1", undefined, undefined, undefined, 10)).toBe(band);
+  });
+  it("Making More from Sheep: the pasture levels are for a 0-10 cm sample, so depth_cm is needed and must be 10", () => {
+    expect(code(() => sufficiencyBand("P", 13, "pasture", "Bray-1"))).toBe("MISSING_INPUT");
+    expect(errorMessage(() => sufficiencyBand("P", 13, "pasture", "Bray-1"))).toMatch(/depth_cm is needed.*0-10 cm/);
+    expect(code(() => sufficiencyBand("P", 13, "pasture", "Bray-1", undefined, undefined, undefined, 15))).toBe("NO_REFERENCE_DATA");
+  });
+  it("the choice of source by crop is documented, not hidden: barley reads SARE, wheat the Tri-State level, and either can be named", () => {
+    // Sources as above: SARE Table 21.2 (crop-independent) and Tri-State 1995 (rotations with wheat).
+    expect(sufficiencyTableId("P", "barley", "Bray-1")).toBe("sare-bray1-p");
+    expect(sufficiencyTableId("P", "wheat", "Bray-1")).toBe("tristate1995-bray1-p-wheat-alfalfa");
+    expect(sufficiencyBand("P", 20, "wheat", "Bray-1", undefined, "sare-bray1-p")).toBe("Optimum");
+    expect(sufficiencyBand("P", 20, "wheat", "Bray-1")).toBe("Below critical level");
   });
 });
 
@@ -163,20 +175,46 @@ describe("Olsen P", () => {
     [23, "Index 2+"],
     [30, "Index 3"],
     [70, "Index 4"],
-  ])("NI index: %s mg/L is %s", (v, index) => {
-    expect(sufficiencyBand("P", v, undefined, "Olsen")).toBe(index);
+  ])("NI index: %s mg P per litre of soil is %s", (v, index) => {
+    expect(sufficiencyBand("P", v, undefined, "Olsen", undefined, undefined, "mg/dm3")).toBe(index);
   });
-  it("9.5 mg/L, between the printed ranges 0-9 and 10-15, is index 0", () => {
-    expect(sufficiencyBand("P", 9.5, undefined, "Olsen")).toBe("Index 0");
+  it("9.5 mg/dm3, between the printed ranges 0-9 and 10-15, is index 0", () => {
+    expect(sufficiencyBand("P", 9.5, undefined, "Olsen", undefined, undefined, "mg/dm3")).toBe("Index 0");
   });
-  it("above the published scale (71 mg/L and more) is not classified: #N/A", () => {
-    expect(code(() => sufficiencyBand("P", 71, undefined, "Olsen"))).toBe("NO_REFERENCE_DATA");
+  it("above the published scale (71 mg/dm3 and more) is not classified: #N/A", () => {
+    expect(code(() => sufficiencyBand("P", 71, undefined, "Olsen", undefined, undefined, "mg dm-3"))).toBe("NO_REFERENCE_DATA");
+  });
+  it("the issue's case: Olsen P 13 for wheat without a unit is refused, naming both bases and how to proceed", () => {
+    // Australian labs report Olsen P per kg of soil; the NI index is per litre of soil (S.R. 2019/81, 'mg P/l').
+    expect(code(() => sufficiencyBand("P", 13, "wheat", "Olsen"))).toBe("MISSING_INPUT");
+    const m = errorMessage(() => sufficiencyBand("P", 13, "wheat", "Olsen"));
+    expect(m).toMatch(/unit is needed/);
+    expect(m).toMatch(/"mg\/dm3" and "mg\/kg"/);
+    expect(m).toMatch(/bulk density/);
+  });
+  it("Olsen P in mg/kg is never read against the per-litre index: #N/A naming the index and the conversion", () => {
+    expect(code(() => sufficiencyBand("P", 13, "wheat", "Olsen", undefined, undefined, "mg/kg"))).toBe("NO_REFERENCE_DATA");
+    expect(errorMessage(() => sufficiencyBand("P", 13, "wheat", "Olsen", undefined, undefined, "ppm"))).toMatch(/another unit: P Olsen \(any crop; mg\/dm3\).*SOIL\.CONVERT/);
+    expect(code(() => sufficiencyBand("P", 13, "wheat", "Olsen", undefined, "ni2019-olsen-p-index", "mg/kg"))).toBe("NOT_APPLICABLE");
+  });
+  it("mg/L is refused as a unit word (an extract concentration), with mg/dm3 offered for a litre of soil", () => {
+    expect(code(() => sufficiencyBand("P", 13, undefined, "Olsen", undefined, undefined, "mg/L"))).toBe("UNIT_MISMATCH");
+    expect(errorMessage(() => sufficiencyBand("P", 13, undefined, "Olsen", undefined, undefined, "mg/L"))).toMatch(/mg\/dm3/);
+  });
+  it("a rate per area or a charge is not a soil-test basis: #VALUE! saying to convert first", () => {
+    expect(code(() => sufficiencyBand("P", 26, "corn-soybean", "Mehlich-3", undefined, undefined, "lb/ac"))).toBe("UNIT_MISMATCH");
+    expect(code(() => sufficiencyBand("K", 0.3, "corn", "Mehlich-3", 12, undefined, "cmol(+)/kg"))).toBe("UNIT_MISMATCH");
+  });
+  it("naming the NI table still needs the unit: the name says which table, not which basis the value is in", () => {
+    expect(code(() => sufficiencyBand("P", 30, undefined, "Olsen", undefined, "ni2019-olsen-p-index"))).toBe("MISSING_INPUT");
+    expect(sufficiencyBand("P", 30, undefined, "Olsen", undefined, "ni2019-olsen-p-index", "mg/dm3")).toBe("Index 3");
   });
   // Source: Making More from Sheep (AWI and MLA), Tool 7.3 (seen): Olsen P for improved pastures,
   // 0-10 cm, mg P/kg: responsive < 12, marginal response 12-15, generally non responsive > 15.
-  it("pasture reads the pasture table (mg/kg); another crop reads the NI index (mg/L)", () => {
-    expect(sufficiencyBand("P", 13, "pasture", "Olsen")).toBe("Marginal response");
-    expect(sufficiencyBand("P", 13, "wheat", "Olsen")).toBe("Index 1");
+  it("a pasture value per kg (0-10 cm) reads the pasture table; per litre of soil it reads the NI index, which covers grassland", () => {
+    expect(sufficiencyBand("P", 13, "pasture", "Olsen", undefined, undefined, "mg/kg", 10)).toBe("Marginal response");
+    expect(sufficiencyBand("P", 13, "pasture", "Olsen", undefined, undefined, "mg/dm3")).toBe("Index 1");
+    expect(sufficiencyBand("P", 13, "wheat", "Olsen", undefined, undefined, "mg/dm3")).toBe("Index 1");
   });
 });
 
@@ -204,20 +242,44 @@ describe("Colwell P (GRDC Update 2020, southern NSW: critical values for 90-95 %
 describe("KCl-40 sulfur (Anderson, Peverill & Brennan 2013, CPS 64:523, abstract, seen; 0-30 cm)", () => {
   // Source: Anderson et al. (2013) abstract: WA wheat CSTV 2.8, CSTR 2.4-3.2 mg/kg; canola CSTV 7.2,
   // CSTR 6.8-7.5 mg/kg; sampling depth to 30 cm.
-  it("wheat: 2.0 below, 2.8 (the CSTV) within, 4.0 above the critical range", () => {
-    expect(sufficiencyBand("S", 2.0, "wheat", "KCl-40")).toBe("Below critical range");
-    expect(sufficiencyBand("S", 2.8, "wheat", "KCl40")).toMatch(/^Critical range/);
-    expect(sufficiencyBand("S", 4.0, "wheat", "KCl-40")).toBe("Above critical range");
+  const WHEAT = "anderson2013-kcl40-s-wheat";
+  it("wheat, the table named: 2.0 below, 2.8 (the CSTV) within, 4.0 above the critical range", () => {
+    expect(sufficiencyBand("S", 2.0, "wheat", "KCl-40", undefined, WHEAT, undefined, 30)).toBe("Below critical range");
+    expect(sufficiencyBand("S", 2.8, "wheat", "KCl40", undefined, WHEAT, "mg/kg", 30)).toMatch(/^Critical range/);
+    expect(sufficiencyBand("S", 4.0, "wheat", "KCl-40", undefined, WHEAT, undefined, 30)).toBe("Above critical range");
   });
-  it("canola: 7.2 (the CSTV) is within 6.8-7.5; 6.0 below", () => {
-    expect(sufficiencyBand("S", 7.2, "canola", "KCl-40")).toMatch(/^Critical range/);
-    expect(sufficiencyBand("S", 6.0, "canola", "KCl-40")).toBe("Below critical range");
+  it("wheat without the table named is refused: GRDC's fact sheet (2014) gives 4.6 (4 to 5.3) for all soils at the same depth", () => {
+    // Source: GRDC fact sheet 'Soil testing for crop nutrition' (2014), elibrary.grdc.com.au (seen):
+    // 'The critical wheat soil S test value measured in the 0 to 30cm soil layer is 4.6 (4 to 5.3) mgS/kg for all soils'.
+    expect(code(() => sufficiencyBand("S", 4, "wheat", "KCl-40", undefined, undefined, undefined, 30))).toBe("MISSING_INPUT");
+    const m = errorMessage(() => sufficiencyBand("S", 4, "wheat", "KCl-40", undefined, undefined, undefined, 30));
+    expect(m).toMatch(/read only when named/);
+    expect(m).toMatch(/4\.6 \(4 to 5\.3\)/);
+    expect(m).toContain(WHEAT);
+  });
+  it("canola: 7.2 (the CSTV) is within 6.8-7.5; 6.0 below (0-30 cm)", () => {
+    expect(sufficiencyBand("S", 7.2, "canola", "KCl-40", undefined, undefined, undefined, 30)).toMatch(/^Critical range/);
+    expect(sufficiencyBand("S", 6.0, "canola", "KCl-40", undefined, undefined, undefined, 30)).toBe("Below critical range");
+  });
+  it("the criteria are for a 0-30 cm core: depth_cm is needed, and 10 (a topsoil core) is not read against them", () => {
+    expect(code(() => sufficiencyBand("S", 7.2, "canola", "KCl-40"))).toBe("MISSING_INPUT");
+    expect(errorMessage(() => sufficiencyBand("S", 7.2, "canola", "KCl-40"))).toMatch(/depth_cm is needed.*0-30 cm/);
+    expect(code(() => sufficiencyBand("S", 7.2, "canola", "KCl-40", undefined, undefined, undefined, 10))).toBe("NO_REFERENCE_DATA");
+    expect(code(() => sufficiencyBand("S", 7.2, "canola", "KCl-40", undefined, "anderson2013-kcl40-s-canola", undefined, 10))).toBe("NOT_APPLICABLE");
+    expect(code(() => sufficiencyBand("S", 7.2, "canola", "KCl-40", undefined, "anderson2013-kcl40-s-canola"))).toBe("MISSING_INPUT");
+  });
+  it("a depth outside 0-300 cm is refused, even where no table uses it", () => {
+    expect(code(() => sufficiencyBand("S", 7.2, "canola", "KCl-40", undefined, undefined, undefined, 0))).toBe("OUT_OF_RANGE");
+    expect(code(() => sufficiencyBand("P", 25, "corn-soybean", "Mehlich-3", undefined, undefined, undefined, 400))).toBe("OUT_OF_RANGE");
+  });
+  it("a table whose source states no depth takes any depth_cm (Tri-State 2020 states none in the part seen)", () => {
+    expect(sufficiencyBand("P", 25, "corn-soybean", "Mehlich-3", undefined, undefined, undefined, 20)).toBe("Optimal");
   });
   it("the table records its sampling depth", () => {
     expect(sufficiencyTables().find((t) => t.id === "anderson2013-kcl40-s-wheat")!.sampling).toBe("0-30 cm");
   });
   it("a wheat-canola rotation is refused: the tables are for the crop grown", () => {
-    expect(code(() => sufficiencyBand("S", 5, "wheat-canola", "KCl-40"))).toBe("MISSING_INPUT");
+    expect(code(() => sufficiencyBand("S", 5, "wheat-canola", "KCl-40", undefined, undefined, undefined, 30))).toBe("MISSING_INPUT");
   });
   it("no KCl-40 table for barley (#N/A)", () => {
     expect(code(() => sufficiencyBand("S", 5, "barley", "KCl-40"))).toBe("NO_REFERENCE_DATA");
@@ -253,8 +315,10 @@ describe("micronutrients", () => {
   ])("Mehlich-3 %s %s ppm is %s", (n, v, band) => {
     expect(sufficiencyBand(n as string, v as number, undefined, "Mehlich-3")).toBe(band);
   });
-  it("no hot-CaCl2 boron table is held (no readable source names the extraction): #N/A", () => {
+  it("no hot-CaCl2 boron table is held (no readable source names the extraction): #N/A, whichever way the method is spelt", () => {
     expect(code(() => sufficiencyBand("B", 1, "canola", "hot CaCl2"))).toBe("NO_REFERENCE_DATA");
+    expect(code(() => sufficiencyBand("B", 1, "canola", "hot-CaCl2"))).toBe("NO_REFERENCE_DATA");
+    expect(code(() => sufficiencyBand("B", 1, "canola", "Hot-CaCl2 B"))).toBe("NO_REFERENCE_DATA");
   });
 });
 
@@ -314,6 +378,13 @@ describe("plant tissue", () => {
   });
   it("a tissue percentage above 100 is refused", () => {
     expect(code(() => sufficiencyBand("N", 120, "alfalfa", "tissue"))).toBe("OUT_OF_RANGE");
+    expect(code(() => sufficiencyBand("N", 1200, "alfalfa", "tissue", undefined, undefined, "g/kg"))).toBe("OUT_OF_RANGE");
+  });
+  it("a tissue value in g/kg is converted exactly to the table's % (UGA alfalfa N 3.00-5.00 %: 30 and 50 g/kg are in the range)", () => {
+    expect(sufficiencyBand("N", 30, "alfalfa", "tissue", undefined, undefined, "g/kg")).toBe("Sufficient");
+    expect(sufficiencyBand("N", 50, "alfalfa", "tissue", undefined, undefined, "g/kg")).toBe("Sufficient");
+    expect(sufficiencyBand("N", 29.9, "alfalfa", "tissue", undefined, undefined, "g/kg")).toBe("Below sufficiency range");
+    expect(sufficiencyBand("B", 0.002, "alfalfa", "tissue", undefined, undefined, "%")).toBe("Below sufficiency level"); // 20 mg/kg < 30
   });
   it("no tissue table for corn, and none for soybean Ca (the source gives no critical concentration): #N/A", () => {
     expect(code(() => sufficiencyBand("N", 3, "corn", "tissue"))).toBe("NO_REFERENCE_DATA");
@@ -387,6 +458,10 @@ describe("the consultant's own table, passed as a range", () => {
   it("a negative value is refused", () => {
     expect(code(() => sufficiencyBand("Cl", -1, undefined, "water", undefined, TABLE))).toBe("OUT_OF_RANGE");
   });
+  it("unit and depth_cm are refused with your own table: it is read in its own unit and depth, never converted", () => {
+    expect(code(() => sufficiencyBand("Cl", 150, undefined, "water", undefined, TABLE, "mg/kg"))).toBe("NOT_APPLICABLE");
+    expect(code(() => sufficiencyBand("Cl", 150, undefined, "water", undefined, TABLE, undefined, 10))).toBe("NOT_APPLICABLE");
+  });
 });
 
 describe("crops and rotations", () => {
@@ -448,21 +523,32 @@ describe("every table file", () => {
   it("no row is from memory", () => {
     for (const r of SUFFICIENCY_ROWS) expect(r.status).not.toMatch(/from memory/i);
   });
-  it("row ids are unique and every row is reachable: by the choice rules, or by its id where several fit", () => {
+  it("row ids are unique and every row is reachable: by the choice rules (in its unit and depth), or by its id where several fit or it is read only when named", () => {
     const ids = SUFFICIENCY_ROWS.map((r) => r.id);
     expect(new Set(ids).size).toBe(ids.length);
     for (const r of SUFFICIENCY_ROWS) {
       const crop = cropFor(r);
       const chosen = (() => {
         try {
-          return sufficiencyTableId(r.nutrient, crop, r.method, cecFor(r));
+          return sufficiencyTableId(r.nutrient, crop, r.method, cecFor(r), undefined, r.unit, r.depth_cm);
         } catch (e) {
           expect((e as Error).message).toContain(r.id);
-          return sufficiencyTableId(r.nutrient, crop, r.method, cecFor(r), r.id);
+          return sufficiencyTableId(r.nutrient, crop, r.method, cecFor(r), r.id, r.unit, r.depth_cm);
         }
       })();
       expect(chosen).toBe(r.id);
     }
+  });
+  it("a row's depth in words and in cm agree, and only rows whose source states a depth need one", () => {
+    for (const r of SUFFICIENCY_ROWS) {
+      if (r.depth === undefined) expect(r.depth_cm).toBeUndefined();
+      else expect(r.depth).toBe(`0-${r.depth_cm} cm`);
+    }
+  });
+  it("a table read only when named says why, naming the disagreeing source", () => {
+    const only = SUFFICIENCY_ROWS.filter((r) => r.only_by_id);
+    expect(only.map((r) => r.id)).toEqual(["anderson2013-kcl40-s-wheat"]);
+    for (const r of only) expect(r.only_by_id).toMatch(/disagree/);
   });
   it("sufficiencyTables lists every table with its source and edge rule", () => {
     const list = sufficiencyTables();

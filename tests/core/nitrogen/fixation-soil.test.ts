@@ -8,7 +8,12 @@
  * - nitrate: Cox (DAF Qld), GRDC Communities, "available soil N > 100 kg/ha"; GRDC Communities,
  *   chickpeas "> 100 kg N/ha"; Voisin et al. (2002) pea (abstract): initiated only below 56, absolute
  *   inhibition over 380 kg N/ha.
- * - Mo: Molybdenum – NSW fact sheet (soilquality.org.au): "liming to bring pH above 5.5".
+ * - Mo: Molybdenum – NSW fact sheet (soilquality.org.au): "liming to bring pH above 5.5"; its pH
+ *   test is not stated, so the flag is "possible" and never counted (this project's rule).
+ * - faba bean and nitrate: GRDC Communities, "Think twice before sowing chickpeas into high Nitrogen
+ *   soils": faba bean "continues to fix N in the presence of moderate to high soil nitrate"; GRDC
+ *   fact sheet (2013) "Nitrogen fixation and N benefits of chickpeas and faba beans": "more
+ *   efficient at fixing N than chickpeas, principally because of their nitrate tolerance".
  * - B: Haddad & Kaldor (1982) (abstract): lucerne, hot-water B 0.34 µg/g.
  * Paddock readings are invented.
  */
@@ -86,8 +91,17 @@ describe("nitrate-N at sowing", () => {
     expect(nfixSoilText("field pea", 6, "CaCl2", 380)).not.toMatch(/absolute/);
     expect(nfixSoilText("field pea", 6, "CaCl2", 380.01)).toMatch(/above 380: nitrate inhibition of fixation by pea was absolute/);
   });
-  it("faba bean: flagged above 100, with the published note that faba keeps fixing in moderate to high nitrate", () => {
-    expect(nfixSoilText("faba bean", 6.5, "CaCl2", 150)).toMatch(/above 100: .*, but faba bean continues to fix N in the presence of moderate to high soil nitrate/);
+  it("faba bean at 150 kg N/ha: the general pulse level is reported as possible, not counted, because faba keeps fixing in moderate to high nitrate", () => {
+    const t = nfixSoilText("faba bean", 6.5, "CaCl2", 150);
+    expect(status("nitrate", "faba bean", 6.5, "CaCl2", 150)).toBe("possible");
+    expect(t).toMatch(/^none found in the checks made: /);
+    expect(t).toMatch(/Possible, not counted: nitrate-N 150 kg N\/ha at sowing is above 100: .*, but faba bean continues to fix N in the presence of moderate to high soil nitrate .*nitrate tolerance \[GRDC fact sheet 2013/);
+    expect(nfixSoilCount("faba bean", 6.5, "CaCl2", 150)).toBe(0);
+    expect(status("nitrate", "faba bean", 6.5, "CaCl2", 100)).toBe("clear");
+  });
+  it("chickpea at 150 kg N/ha stays a counted constraint: its sources agree", () => {
+    expect(status("nitrate", "chickpea", 6.5, "CaCl2", 150)).toBe("constraint");
+    expect(nfixSoilCount("chickpea", 6.5, "CaCl2", 150)).toBe(1);
   });
   it("pastures and soybean: no published suppression level: not made", () => {
     for (const l of ["lucerne", "subterranean clover", "soybean", "vetch"]) expect(status("nitrate", l, 6, "CaCl2", 300)).toBe("not made");
@@ -109,15 +123,27 @@ describe("nitrate-N at sowing", () => {
 });
 
 describe("Mo supply at low pH (Molybdenum – NSW fact sheet: liming to bring pH above 5.5 usually fixes Mo deficiency)", () => {
-  it("at 5.5 flagged (the sheet says above 5.5 fixes it), 5.51 not, 5.49 flagged", () => {
-    expect(status("Mo", "lupin", 5.5, "CaCl2")).toBe("constraint");
+  it("at 5.5 flagged as possible (the sheet says above 5.5 fixes it), 5.51 not, 5.49 possible", () => {
+    expect(status("Mo", "lupin", 5.5, "CaCl2")).toBe("possible");
     expect(status("Mo", "lupin", 5.51, "CaCl2")).toBe("clear");
-    expect(status("Mo", "lupin", 5.49, "water")).toBe("constraint");
+    expect(status("Mo", "lupin", 5.49, "water")).toBe("possible");
   });
   it("applies to every legume and says that the source does not state its pH test", () => {
-    for (const l of LEGUME_WORDS) expect(status("Mo", l, 5.0, "water")).toBe("constraint");
-    expect(nfixSoilText("soybean", 5.0, "water")).toMatch(/Mo: pH 5 \(water\) is at or below 5\.5: .*; the source does not state its pH test\]/);
+    for (const l of LEGUME_WORDS) expect(status("Mo", l, 5.0, "water")).toBe("possible");
+    expect(nfixSoilText("soybean", 5.0, "water")).toMatch(/Possible, not counted: Mo: pH 5 \(water\) is at or below 5\.5: .*; the source does not state its pH test\] \(not counted: /);
     expect(table.mo_level.source).toMatch(/Liming to bring pH above 5\.5 usually fixes molybdenum deficiency in the long term/);
+  });
+  it("the rule: never counted, in either pH test, since the source states no test and pH alone cannot find a deficiency", () => {
+    for (const test of ["water", "CaCl2"]) {
+      for (const ph of [3, 4.5, 5.0, 5.5]) expect(nfixSoilCount("soybean", ph, test)).toBe(0); // soybean: no pH, nitrate or B level
+    }
+    expect(table.mo_level.counted).toBe(false);
+    expect(table.mo_level.why_not_counted).toMatch(/no pH test/);
+  });
+  it("the issue's case: field pea at pH 5.2 in water or CaCl2 counts only the CaCl2 pH constraint, never Mo", () => {
+    expect(nfixSoilCount("field pea", 5.2, "water")).toBe(0);
+    expect(nfixSoilCount("field pea", 5.2, "CaCl2")).toBe(1);
+    expect(nfixSoilText("field pea", 5.2, "water")).toMatch(/^none found in the checks made\. Possible, not counted: Mo: /);
   });
 });
 
@@ -140,9 +166,10 @@ describe("B where a source gives a soil-test level", () => {
 describe("the screen as text and as a count", () => {
   it("constraints found: the count first, each with its source", () => {
     const t = nfixSoilText("field pea", 5.1, "CaCl2", 120);
-    expect(t).toMatch(/^3 constraints found: pH 5\.1 \(CaCl2\) is below 5\.5/);
+    expect(t).toMatch(/^2 constraints found: pH 5\.1 \(CaCl2\) is below 5\.5/);
+    expect(t).toMatch(/\. Possible, not counted: Mo: pH 5\.1/);
     expect(t).toMatch(/Not checked: B: no published soil-test level for field pea found\.$/);
-    expect(nfixSoilCount("field pea", 5.1, "CaCl2", 120)).toBe(3);
+    expect(nfixSoilCount("field pea", 5.1, "CaCl2", 120)).toBe(2);
   });
   it("none found: never a bare OK, it lists the checks made and those not made", () => {
     const t = nfixSoilText("chickpea", 6.4, "CaCl2", 60);
@@ -184,11 +211,19 @@ describe("properties (readings invented)", () => {
       }),
     );
   });
-  it("a lower pH never removes a pH or Mo constraint", () => {
+  it("a lower pH never removes a pH constraint or a possible Mo flag", () => {
+    const flaggedAt = (c: string, l: string, ph: number, t: string) => ["constraint", "possible"].includes(status(c, l, ph, t));
     fc.assert(
       fc.property(legume, fc.double({ min: 0, max: 14, noNaN: true }), fc.double({ min: 0, max: 14, noNaN: true }), fc.constantFrom("CaCl2", "water"), (l, a, b, t) => {
         const [lo, hi] = a <= b ? [a, b] : [b, a];
-        return (["pH", "Mo"] as const).every((c) => status(c, l, hi, t) !== "constraint" || status(c, l, lo, t) === "constraint");
+        return (["pH", "Mo"] as const).every((c) => !flaggedAt(c, l, hi, t) || flaggedAt(c, l, lo, t));
+      }),
+    );
+  });
+  it("Mo is never a constraint, and the count never exceeds 3 (pH, nitrate, B)", () => {
+    fc.assert(
+      fc.property(legume, fc.double({ min: 0, max: 14, noNaN: true }), fc.constantFrom("CaCl2", "water"), nitrate, (l, ph, t, n) => {
+        return status("Mo", l, ph, t) !== "constraint" && nfixSoilCount(l, ph, t, n) <= 3;
       }),
     );
   });
@@ -197,7 +232,7 @@ describe("properties (readings invented)", () => {
       fc.property(legume, fc.double({ min: 3, max: 9, noNaN: true }), nitrate, (l, ph, n) => {
         const k = nfixSoilCount(l, ph, "CaCl2", n);
         const t = nfixSoilText(l, ph, "CaCl2", n);
-        return k === 0 ? t.startsWith("none found in the checks made: ") : t.startsWith(`${k} constraint`);
+        return k === 0 ? /^none found in the checks made[.:]/.test(t) : t.startsWith(`${k} constraint`);
       }),
     );
   });

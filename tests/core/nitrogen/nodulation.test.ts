@@ -85,6 +85,20 @@ describe("nfixNodulationRating on the University of Adelaide grower guide's scal
   it("plants rated adequate with 0 nodules counted is NOT_APPLICABLE (the counts disagree)", () => {
     expect(code(() => nfixNodulationRating(30, 3, 0))).toBe("NOT_APPLICABLE");
   });
+  it("the issue's case: 25 plants adequate but 10 nodules on all 30 plants is refused (each adequate plant has nodules; arithmetic)", () => {
+    expect(code(() => nfixNodulationRating(30, 25, 10))).toBe("NOT_APPLICABLE");
+    expect(message(() => nfixNodulationRating(30, 25, 10))).toMatch(/plants_adequate is 25 but only 10 nodules were counted .* at least 25/);
+    expect(code(() => nfixNodulationRating(30, 25, 24))).toBe("NOT_APPLICABLE");
+    expect(label(nfixNodulationRating(30, 25, 25))).toBe("Adequate"); // the least count consistent with 25 adequate plants
+  });
+  it("a dig smaller than the guide's about 30 plants (10 at each of 3 spots) is rated on the scale and says so", () => {
+    // Source: University of Adelaide grower guide: 'collect about 30 plants, 10 at each of 3 sample spots'.
+    expect(table.nodulation_scale.dig_plants).toBe(30);
+    expect(nfixNodulationRating(3, 3)).toMatch(/^Adequate: 100 % .*only 3 plants dug: the guide rates a dig of about 30 plants \(10 at each of 3 sample spots\), so read with care/);
+    expect(nfixNodulationRating(29, 29)).toMatch(/only 29 plants dug/);
+    expect(nfixNodulationRating(30, 30)).not.toMatch(/read with care/);
+    expect(nfixNodulationRating(10, 0, 0)).toMatch(/^None: .*only 10 plants dug/);
+  });
   it("every rating names its source and gives the percentage, two decimals", () => {
     const r = nfixNodulationRating(30, 20);
     expect(r).toBe("Borderline: 66.67 % of plants adequately nodulated (50 to under 70 %) [University of Adelaide grower guide]");
@@ -107,7 +121,8 @@ describe("nfixNodulationRating on the University of Adelaide grower guide's scal
 
 describe("properties (counts invented)", () => {
   const dig = fc.integer({ min: 1, max: 200 }).chain((dug) =>
-    fc.tuple(fc.constant(dug), fc.integer({ min: 0, max: dug }), fc.integer({ min: 0, max: dug }), fc.option(fc.integer({ min: 1, max: 5000 }), { nil: undefined })),
+    // At least as many nodules as plants dug: every plant rated adequate has nodules.
+    fc.tuple(fc.constant(dug), fc.integer({ min: 0, max: dug }), fc.integer({ min: 0, max: dug }), fc.option(fc.integer({ min: dug, max: 5000 }), { nil: undefined })),
   );
   it("more adequately nodulated plants never lowers the rating", () => {
     fc.assert(
