@@ -10,12 +10,6 @@ if (!fs.existsSync(entry)) {
   process.exit(3);
 }
 const { main } = require(entry);
-process.stdout.on("error", (e) => { if (e.code === "EPIPE") process.exit(0); });
-const io = { out: (l) => process.stdout.write(`${l}\n`), err: (l) => process.stderr.write(`${l}\n`) };
-main(process.argv.slice(2), io).then(
-  (code) => process.exit(code),
-  (e) => {
-    process.stderr.write(`soilcell: unexpected failure: ${e && e.message ? e.message : e}\n`);
-    process.exit(3);
-  },
-);
+const { runAsProcess } = require(path.join(__dirname, "..", "build", "src", "cli", "io.js"));
+// The exit code is set, never process.exit: piped output of any size drains before Node exits.
+runAsProcess(main);

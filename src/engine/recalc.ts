@@ -42,6 +42,10 @@ export interface CellProblem {
 export interface RecalcSummary {
   readonly input: string;
   readonly output: string;
+  /** The values copy written beside the output (RecalcOptions.valuesCopy), when one was asked for. */
+  readonly valuesOutput?: string;
+  /** The values copy written beside the output, when one was asked for. */
+  readonly valuesCopy?: string;
   readonly sheets: number;
   /** Formula cells in the workbook. */
   readonly formulaCells: number;
@@ -69,6 +73,11 @@ export interface RecalcOptions {
    * stay), and the workbook's custom properties say which soilcell version computed it and when.
    */
   readonly values?: boolean;
+  /**
+   * Also write such a values copy to this path, from the same computation, beside the Excel form
+   * written to `output` (the same safety rules hold for it).
+   */
+  readonly valuesCopy?: string;
 }
 
 export class RecalcRefused extends Error {
@@ -80,8 +89,17 @@ export class RecalcRefused extends Error {
 
 /** The default output name: beside the input, with a suffix. */
 export function defaultOutputPath(input: string): string {
-  const ext = path.extname(input);
-  return path.join(path.dirname(input), `${path.basename(input, ext)}.recalc${ext || ".xlsx"}`);
+  return withSuffix(input, "recalc");
+}
+
+/** The name of the values copy of an output: beside it, ".values" added before the extension. */
+export function valuesCopyPath(output: string): string {
+  return withSuffix(output, "values");
+}
+
+function withSuffix(file: string, suffix: string): string {
+  const ext = path.extname(file);
+  return path.join(path.dirname(file), `${path.basename(file, ext)}.${suffix}${ext || ".xlsx"}`);
 }
 
 const MAX_MESSAGE = 300;
@@ -125,6 +143,15 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const started = process.hrtime.bigint();
   const say = options.progress ?? (() => undefined);
   checkPaths(input, output);
+  const copy = options.valuesCopy;
+  if (copy !== undefined) {
+    checkPaths(input, copy);
+    if (path.resolve(copy) === path.resolve(output)) throw new RecalcRefused(`the values copy and the output are both ${output}; give them different names`);
+  }
+  if (options.valuesCopy !== undefined && !options.values) {
+    checkPaths(input, options.valuesCopy);
+    if (path.resolve(options.valuesCopy) === path.resolve(output)) throw new RecalcRefused(`refusing to write the values copy over the recalculated workbook ${output}; choose another name`);
+  }
   let bytes: Buffer;
   try {
     bytes = fs.readFileSync(input);
@@ -148,10 +175,27 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);
   writeAtomically(output, pkg.toBuffer());
+  if (copy !== undefined) {
+    // The sheets are rewritten from the workbook as read (the package's parts are replaced, not
+    // patched again), so the copy differs from the output only where values take the formulas' place.
+    say(`writing ${path.basename(copy)}`);
+    writeResults(book, plan, host, pkg, true);
+    markValuesCopy(pkg);
+    writeAtomically(copy, pkg.toBuffer());
+  }
+  if (options.valuesCopy !== undefined && !options.values) {
+    // The same results again, SOIL cells as values: the sheets are rewritten from the workbook as
+    // read (the package's edits so far are replaced), so nothing is computed twice.
+    say(`writing ${path.basename(options.valuesCopy)}`);
+    writeResults(book, plan, host, pkg, true);
+    markValuesCopy(pkg);
+    writeAtomically(options.valuesCopy, pkg.toBuffer());
+  }
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
     input,
     output,
+    ...(options.valuesCopy !== undefined ? { valuesCopy: options.valuesCopy } : {}),
     sheets: pkg.sheets.length,
     formulaCells: plan.formulaCells,
     computedCells: computed,

@@ -1,0 +1,85 @@
+/**
+ * What a season run shows while it works, on standard error:
+ * - on a terminal, a progress bar (cli-progress): workbooks done of the total, formula cells
+ *   computed, time elapsed and the estimate, and what is being done now; refusals after it;
+ * - otherwise plain lines: for one workbook the engine's own (reading…, computing…, writing…),
+ *   for several one line per workbook as it finishes;
+ * - with --json, nothing (standard output is the JSON alone; refusals are in it).
+ * A refusal is always one line "soilcell: …" (naming the workbook when there are several).
+ */
+import cliProgress from "cli-progress";
+import { SeasonItem } from "../engine/season/inputs";
+import { FileResult } from "../engine/season/pool";
+import { Io } from "./io";
+import { count } from "./render/season";
+
+export interface Progress {
+  progress(item: SeasonItem, line: string): void;
+  done(result: FileResult): void;
+  /** Ends the display (the bar is cleared) and prints what waited for it. */
+  stop(): void;
+}
+
+export type ProgressMode = "json" | "bar" | "lines";
+
+/** The refusal line for a workbook. */
+function refusalLine(r: FileResult, several: boolean): string | undefined {
+  const o = r.outcome;
+  if (o.kind === "recalculated") return undefined;
+  const what = o.kind === "failed" ? `${o.reason} (a failure in soilcell itself: please report it)` : o.reason;
+  return several ? `soilcell: ${r.item.input}: ${what}` : `soilcell: ${what}`;
+}
+
+export function progressFor(io: Io, mode: ProgressMode, total: number): Progress {
+  const several = total > 1;
+  if (mode === "json") return { progress: () => undefined, done: () => undefined, stop: () => undefined };
+  if (mode === "lines" || !io.tty) {
+    let finished = 0;
+    return {
+      progress: (_item, line) => {
+        if (!several) io.err(line);
+      },
+      done: (r) => {
+        finished += 1;
+        const refusal = refusalLine(r, several);
+        if (refusal) io.err(refusal);
+        else if (several && r.outcome.kind === "recalculated") {
+          const s = r.outcome.summary;
+          io.err(`[${finished}/${total}] ${r.item.input}: ${count(s.computedCells)} formula cells, ${count(s.errors.length)} in error, ${s.seconds.toFixed(1)} s`);
+        }
+      },
+      stop: () => undefined,
+    };
+  }
+  const bar = new cliProgress.SingleBar(
+    {
+      stream: io.tty,
+      format: "recalc {bar} {value}/{total} workbooks | {cells} formula cells | {duration_formatted} elapsed, about {eta_formatted} to go | {now}",
+      barsize: 24,
+      hideCursor: true,
+      clearOnComplete: true,
+      etaBuffer: 8,
+      fps: 5,
+      linewrap: false,
+    },
+    cliProgress.Presets.shades_classic,
+  );
+  const waiting: string[] = [];
+  let cells = 0;
+  let value = 0;
+  bar.start(total, 0, { cells: "0", now: "starting" });
+  return {
+    progress: (item, line) => bar.update(value, { now: `${item.input}: ${line}`.slice(0, 60) }),
+    done: (r) => {
+      value += 1;
+      if (r.outcome.kind === "recalculated") cells += r.outcome.summary.computedCells;
+      const refusal = refusalLine(r, several);
+      if (refusal) waiting.push(refusal);
+      bar.update(value, { cells: count(cells), now: `done ${r.item.input}`.slice(0, 60) });
+    },
+    stop: () => {
+      bar.stop();
+      for (const l of waiting) io.err(l);
+    },
+  };
+}
