@@ -22,7 +22,7 @@ import { Ctx, Host, ResourceLimit, Uncomputable, ev, firstScalar, intersect, toA
 import "./formula/functions";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { toStoredFormula, toTypedFormula } from "./formula-text";
-import { ModeCode, Plan, planRecalc } from "./plan";
+import { ModeCode, Plan, planRecalc, readsSpillOf } from "./plan";
 import { Circular, RecalcHost } from "./host";
 import { CellWrite, DynamicFormula, cellXml, rewriteSheet } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
@@ -42,8 +42,6 @@ export interface CellProblem {
 export interface RecalcSummary {
   readonly input: string;
   readonly output: string;
-  /** The values copy written beside the output (RecalcOptions.valuesCopy), when one was asked for. */
-  readonly valuesOutput?: string;
   /** The values copy written beside the output, when one was asked for. */
   readonly valuesCopy?: string;
   readonly sheets: number;
@@ -143,11 +141,6 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const started = process.hrtime.bigint();
   const say = options.progress ?? (() => undefined);
   checkPaths(input, output);
-  const copy = options.valuesCopy;
-  if (copy !== undefined) {
-    checkPaths(input, copy);
-    if (path.resolve(copy) === path.resolve(output)) throw new RecalcRefused(`the values copy and the output are both ${output}; give them different names`);
-  }
   if (options.valuesCopy !== undefined && !options.values) {
     checkPaths(input, options.valuesCopy);
     if (path.resolve(options.valuesCopy) === path.resolve(output)) throw new RecalcRefused(`refusing to write the values copy over the recalculated workbook ${output}; choose another name`);
@@ -175,14 +168,6 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);
   writeAtomically(output, pkg.toBuffer());
-  if (copy !== undefined) {
-    // The sheets are rewritten from the workbook as read (the package's parts are replaced, not
-    // patched again), so the copy differs from the output only where values take the formulas' place.
-    say(`writing ${path.basename(copy)}`);
-    writeResults(book, plan, host, pkg, true);
-    markValuesCopy(pkg);
-    writeAtomically(copy, pkg.toBuffer());
-  }
   if (options.valuesCopy !== undefined && !options.values) {
     // The same results again, SOIL cells as values: the sheets are rewritten from the workbook as
     // read (the package's edits so far are replaced), so nothing is computed twice.
@@ -214,6 +199,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
  * and cleared cells beside it; everything else is copied as it was.
  */
 function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage, values: boolean) {
+  const asValue = values ? valuesCopyCells(book, plan) : undefined;
   const problems: { sheet: number; row: number; col: number; p: CellProblem }[] = [];
   const kept: CellProblem[] = [];
   let soilCells = 0;
@@ -282,7 +268,7 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
     if (plan.soil[i]) soilCells++;
     const value = host.noValue(i) ? undefined : writable(top);
     if (isError(top)) problems.push({ sheet: sheet.index, row, col, p: problemOf(sheet.name, row, col, formulaText(sheet, f), top) });
-    if (values && plan.soil[i]) {
+    if (asValue?.[i]) {
       // A values copy: the SOIL formula gives way to its value, so any program shows the number.
       formsChanged = true;
       return cellXml({ kind: "value", row, col, value: value ?? null }, sheet.xml.slice(sheet.cells.start[k] as number, sheet.cells.end[k] as number), prefix);
@@ -321,6 +307,31 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
   if (formsChanged) dropCalcChain(pkg);
   problems.sort((x, y) => x.sheet - y.sheet || x.row - y.row || x.col - y.col);
   return { errors: problems.map((x) => x.p), kept, soilCells, spilled, computed };
+}
+
+/**
+ * The planned cells a values copy writes as values: every SOIL formula, and every formula that
+ * reads one of those through the spill operator (A1# of a cell that is no longer a formula would
+ * be #REF! once recalculated). The plan's order puts each anchor before its readers.
+ */
+function valuesCopyCells(book: Book, plan: Plan): Uint8Array {
+  const out = new Uint8Array(plan.n);
+  const isAnchor = (sheet: number, row: number, col: number) => {
+    const j = plan.at(sheet, row, col);
+    return j >= 0 && out[j] === 1;
+  };
+  for (let o = 0; o < plan.order.length; o++) {
+    const i = plan.order[o] as number;
+    if (plan.soil[i]) {
+      out[i] = 1;
+      continue;
+    }
+    const sheet = book.sheets[plan.sheet[i] as number]!;
+    const node = sheet.formulas.node[plan.formula[i] as number];
+    const k = plan.cell[i] as number;
+    if (node && readsSpillOf(book, node, sheet.index, sheet.cells.row[k] as number, sheet.cells.col[k] as number, isAnchor)) out[i] = 1;
+  }
+  return out;
 }
 
 function typedOf(text: string): string {

@@ -1,7 +1,8 @@
 /**
  * Runs a season's workbooks: one after another in this thread (one job), or in worker threads,
- * one workbook per worker at a time, each worker taking the next as it finishes. A worker that
- * dies (out of memory, say) fails only its own workbook; a new worker takes up the rest.
+ * one workbook per worker at a time, each worker taking the next as it finishes, largest file
+ * first (so one big workbook does not start last and keep the run waiting). A worker that dies
+ * (out of memory, say) fails only its own workbook; a new worker takes up the rest.
  */
 import fs from "fs";
 import os from "os";
@@ -40,6 +41,14 @@ function workerScript(): string {
   throw new Error("the season worker is not built; run `npm run build:node`");
 }
 
+function sizeOf(item: SeasonItem): number {
+  try {
+    return fs.statSync(item.input).size;
+  } catch {
+    return 0; // refused when its turn comes, with the reason
+  }
+}
+
 /** Recalculates every item; results in the items' order, whatever order they finish in. */
 export async function runSeason(items: readonly SeasonItem[], options: PoolOptions): Promise<FileResult[]> {
   const jobs = Math.max(1, Math.min(Math.floor(options.jobs), items.length));
@@ -58,6 +67,7 @@ export async function runSeason(items: readonly SeasonItem[], options: PoolOptio
     return results;
   }
   const script = workerScript();
+  const order = items.map((_, i) => i).sort((a, b) => sizeOf(items[b] as SeasonItem) - sizeOf(items[a] as SeasonItem) || a - b);
   let next = 0;
   await new Promise<void>((resolve) => {
     let running = 0;
@@ -76,7 +86,7 @@ export async function runSeason(items: readonly SeasonItem[], options: PoolOptio
           void worker.terminate();
           return;
         }
-        current = next++;
+        current = order[next++] as number;
         started = process.hrtime.bigint();
         const job: Job = { id: current, item: items[current] as SeasonItem, ...(options.maxCells !== undefined ? { maxCells: options.maxCells } : {}) };
         worker.postMessage(job);
