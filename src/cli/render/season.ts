@@ -49,8 +49,10 @@ function renderMany(s: SeasonSummary, out: (l: string) => void): void {
   const t = s.totals;
   const notDone = [t.refused ? `${count(t.refused)} refused` : "", t.failed ? `${count(t.failed)} failed` : ""].filter(Boolean).join(", ");
   out(`${count(t.recalculated)} of ${plural(t.workbooks, "workbook")} recalculated${notDone ? `, ${notDone}` : ""}, in ${seconds(s.seconds)} (${plural(s.jobs, "job")}; ${seconds(s.workbookSeconds)} of work)`);
-  out(`  ${count(t.computedCells)} formula cells computed (${count(t.soilFormulaCells)} SOIL formulas, ${count(t.spilledCells)} spilled cells), ${count(t.keptCells)} kept as saved, in ${plural(t.sheets, "sheet")}`);
-  out(`  ${plural(t.cellsInError, "cell")} in error${t.cellsInError ? `, in ${plural(t.withErrors, "workbook")}` : ""}`);
+  if (t.recalculated) {
+    out(`  ${count(t.computedCells)} formula cells computed (${count(t.soilFormulaCells)} SOIL formulas, ${count(t.spilledCells)} spilled cells), ${count(t.keptCells)} kept as saved, in ${plural(t.sheets, "sheet")}`);
+    out(`  ${plural(t.cellsInError, "cell")} in error${t.cellsInError ? `, in ${plural(t.withErrors, "workbook")}` : ""}`);
+  }
   const written = s.files.filter((f) => f.status === "recalculated");
   if (written.length) {
     const first = written[0] as SeasonFile;
