@@ -30,6 +30,12 @@ function refusalLine(r: FileResult, several: boolean): string | undefined {
   return several ? `soilcell: ${r.item.input}: ${what}` : `soilcell: ${what}`;
 }
 
+/** Seconds as m:ss. */
+function clock(seconds: number): string {
+  const s = Math.max(0, Math.round(seconds));
+  return `${Math.floor(s / 60)}:${String(s % 60).padStart(2, "0")}`;
+}
+
 export function progressFor(io: Io, mode: ProgressMode, total: number): Progress {
   const several = total > 1;
   if (mode === "json") return { progress: () => undefined, done: () => undefined, stop: () => undefined };
@@ -54,13 +60,22 @@ export function progressFor(io: Io, mode: ProgressMode, total: number): Progress
   const bar = new cliProgress.SingleBar(
     {
       stream: io.tty,
-      format: "recalc {bar} {value}/{total} workbooks | {cells} formula cells | {duration_formatted} elapsed, about {eta_formatted} to go | {now}",
-      barsize: 24,
-      hideCursor: true,
+      format: (options, params, payload: { cells: string; now: string }) => {
+        const bar = cliProgress.Format.BarFormat(params.progress, options);
+        const elapsed = (Date.now() - params.startTime) / 1000;
+        // No estimate before the first workbook is done (the library would print "NF").
+        const eta = params.value > 0 && Number.isFinite(params.eta) ? `${clock(params.eta)} to go` : "estimating";
+        // What matters first: an 80-column terminal shows up to the estimate.
+        return `${bar} ${params.value}/${params.total} workbooks | ${payload.cells} cells | ${clock(elapsed)} elapsed, ${eta} | ${payload.now}`;
+      },
+      barsize: 16,
+      // The line is cut to the terminal's width and the cursor left alone, so a run stopped with
+      // Ctrl-C leaves the terminal as it was.
+      hideCursor: false,
+      linewrap: true,
       clearOnComplete: true,
       etaBuffer: 8,
       fps: 5,
-      linewrap: false,
     },
     cliProgress.Presets.shades_classic,
   );

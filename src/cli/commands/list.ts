@@ -85,7 +85,9 @@ function listOne(name: string, json: boolean, io: Io): number {
   const f = registered(name);
   if (!f) {
     const key = name.toUpperCase().replace(/^SOIL[._]/, "");
-    const near = REGISTRY.filter((r) => r.id.startsWith(key.slice(0, 3)) || r.id.includes(key)).map((r) => r.formulaName);
+    // The closest names first: those the name begins, then those holding it, then a shared start.
+    const tiers = [(id: string) => id.startsWith(key), (id: string) => id.includes(key) || key.startsWith(id), (id: string) => id.startsWith(key.slice(0, 3))];
+    const near = (tiers.map((t) => REGISTRY.filter((r) => key.length > 0 && t(r.id))).find((l) => l.length) ?? []).map((r) => r.formulaName);
     throw new UsageError(`no function "${name}"${near.length ? `; did you mean ${listWords(near)}?` : ""} (soilcell list shows them all)`);
   }
   const info = functionInfo(f);
