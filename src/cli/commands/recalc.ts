@@ -94,7 +94,7 @@ export const command: Command = {
       }
     }
     if (json) io.out(JSON.stringify(summary, null, 2));
-    else renderSeason(summary, (l) => io.out(l), summaryFile && written ? [`summary written to ${summaryFile.file}`] : []);
+    else renderSeason(summary, (l) => io.out(l), summaryFile && written ? summaryFile.file : undefined);
     return code;
   },
 };

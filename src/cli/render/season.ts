@@ -45,7 +45,7 @@ function renderGroup(g: ErrorGroup, out: (l: string) => void): void {
 }
 
 /** Several workbooks: the season's totals, what was refused and why, cells in error by message. */
-function renderMany(s: SeasonSummary, out: (l: string) => void): void {
+function renderMany(s: SeasonSummary, out: (l: string) => void, hints: boolean): void {
   const t = s.totals;
   const notDone = [t.refused ? `${count(t.refused)} refused` : "", t.failed ? `${count(t.failed)} failed` : ""].filter(Boolean).join(", ");
   out(`${count(t.recalculated)} of ${plural(t.workbooks, "workbook")} recalculated${notDone ? `, ${notDone}` : ""}, in ${seconds(s.seconds)} (${plural(s.jobs, "job")}; ${seconds(s.workbookSeconds)} of work)`);
@@ -76,16 +76,16 @@ function renderMany(s: SeasonSummary, out: (l: string) => void): void {
     out("");
     out(`${plural(s.kept.length, "formula")} use functions the headless engine does not have; their values were kept as saved, e.g. ${s.kept[0]?.file}!${sheetCell(s.kept[0]?.sheet ?? "", s.kept[0]?.cell ?? "")}`);
   }
-  if (s.errors.length || s.kept.length) out("every cell, with its formula: --summary FILE.json or --json; one row per workbook: --summary FILE.csv");
+  if (hints && (s.errors.length || s.kept.length)) out("every cell, with its formula: --summary FILE.json or --json; one row per workbook: --summary FILE.csv");
 }
 
-/** The summary in words, line by line; `notes` go just before the closing caution. */
-export function renderSeason(s: SeasonSummary, out: (l: string) => void, notes: readonly string[] = []): void {
+/** The summary in words, line by line; `summaryFile`, when one was written, is named before the closing caution. */
+export function renderSeason(s: SeasonSummary, out: (l: string) => void, summaryFile?: string): void {
   const only = s.files.length === 1 ? s.files[0] : undefined;
   if (only?.status === "recalculated") renderOne(s, only, out);
-  else if (!only) renderMany(s, out);
+  else if (!only) renderMany(s, out, summaryFile === undefined);
   // One workbook refused: its one line on stderr says it all.
-  for (const n of notes) out(n);
+  if (summaryFile !== undefined) out(`summary written to ${summaryFile}`);
   if (s.totals.recalculated) out(s.caution);
 }
 

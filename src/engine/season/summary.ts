@@ -4,29 +4,27 @@
  * text, JSON or a CSV table; nothing here is worded for a terminal.
  */
 import { CAUTION, soilcellVersion } from "../../core/about";
-import { CellProblem } from "../recalc";
+import { CellProblem, RecalcSummary } from "../recalc";
 import { InputRefusal } from "./inputs";
 import { FileResult } from "./pool";
 
 export type FileStatus = "recalculated" | "refused" | "failed";
 
+/** What a workbook's run computed (a refused workbook: all 0), summed over the season in the totals. */
+export interface SeasonCounts extends Pick<RecalcSummary, "sheets" | "formulaCells" | "computedCells" | "keptCells" | "soilFormulaCells" | "spilledCells"> {
+  readonly cellsInError: number;
+  /** Formulas the engine does not have, fed by nothing recomputed, left as saved without a value. */
+  readonly withoutValue: number;
+}
+
 /** One workbook's row (the `--summary` table has these columns). */
-export interface SeasonFile {
+export interface SeasonFile extends SeasonCounts {
   readonly input: string;
   readonly status: FileStatus;
   /** Why it was refused or failed; empty when recalculated. */
   readonly reason: string;
   readonly output: string;
   readonly valuesCopy: string;
-  readonly sheets: number;
-  readonly formulaCells: number;
-  readonly computedCells: number;
-  readonly keptCells: number;
-  readonly soilFormulaCells: number;
-  readonly spilledCells: number;
-  readonly cellsInError: number;
-  /** Formulas the engine does not have, fed by nothing recomputed, left as saved without a value. */
-  readonly withoutValue: number;
   readonly seconds: number;
 }
 
@@ -47,21 +45,13 @@ export interface ErrorGroup {
   readonly formula: string;
 }
 
-export interface SeasonTotals {
+export interface SeasonTotals extends SeasonCounts {
   readonly workbooks: number;
   readonly recalculated: number;
   readonly refused: number;
   readonly failed: number;
   /** Recalculated workbooks with at least one cell in error. */
   readonly withErrors: number;
-  readonly sheets: number;
-  readonly formulaCells: number;
-  readonly computedCells: number;
-  readonly keptCells: number;
-  readonly soilFormulaCells: number;
-  readonly spilledCells: number;
-  readonly cellsInError: number;
-  readonly withoutValue: number;
 }
 
 export interface SeasonSummary {
@@ -87,7 +77,7 @@ export function sheetCell(sheet: string, cell: string): string {
   return /^[A-Za-z_][A-Za-z0-9_.]*$/.test(sheet) ? `${sheet}!${cell}` : `'${sheet.replace(/'/g, "''")}'!${cell}`;
 }
 
-const ZERO = { sheets: 0, formulaCells: 0, computedCells: 0, keptCells: 0, soilFormulaCells: 0, spilledCells: 0, cellsInError: 0, withoutValue: 0 };
+const ZERO: SeasonCounts = { sheets: 0, formulaCells: 0, computedCells: 0, keptCells: 0, soilFormulaCells: 0, spilledCells: 0, cellsInError: 0, withoutValue: 0 };
 
 function rowOf(r: FileResult): SeasonFile {
   const o = r.outcome;
@@ -140,7 +130,7 @@ export function seasonSummary(refused: readonly InputRefusal[], results: readonl
   const errorGroups = [...groups.values()]
     .map((g): ErrorGroup => ({ error: g.error, message: g.message, count: g.cells.length, workbooks: g.files.size, cells: g.cells, formula: g.formula }))
     .sort((a, b) => b.count - a.count);
-  const sum = (k: keyof typeof ZERO) => files.reduce((n, f) => n + f[k], 0);
+  const sum = (k: keyof SeasonCounts) => files.reduce((n, f) => n + f[k], 0);
   const count = (s: FileStatus) => files.filter((f) => f.status === s).length;
   const totals: SeasonTotals = {
     workbooks: files.length,
