@@ -20,7 +20,7 @@ export interface Progress {
   stop(): void;
 }
 
-export type ProgressMode = "json" | "bar" | "lines";
+export type ProgressMode = "quiet" | "bar" | "lines";
 
 /** The refusal line for a workbook. */
 function refusalLine(r: FileResult, several: boolean): string | undefined {
@@ -38,7 +38,7 @@ function clock(seconds: number): string {
 
 export function progressFor(io: Io, mode: ProgressMode, total: number): Progress {
   const several = total > 1;
-  if (mode === "json") return { progress: () => undefined, done: () => undefined, stop: () => undefined };
+  if (mode === "quiet") return { progress: () => undefined, done: () => undefined, stop: () => undefined };
   if (mode === "lines" || !io.tty) {
     let finished = 0;
     return {

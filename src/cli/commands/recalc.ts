@@ -70,7 +70,7 @@ export const command: Command = {
     if (!json) for (const r of inputs.refused) io.err(total > 1 ? `soilcell: ${r.input}: ${r.reason}` : `soilcell: ${r.reason}`);
 
     const started = process.hrtime.bigint();
-    const progress = progressFor(io, json ? "json" : io.tty ? "bar" : "lines", inputs.items.length);
+    const progress = progressFor(io, json || !inputs.items.length ? "quiet" : io.tty ? "bar" : "lines", inputs.items.length);
     let results;
     try {
       results = await runSeason(inputs.items, { jobs, onProgress: (item, line) => progress.progress(item, line), onDone: (r) => progress.done(r) });
