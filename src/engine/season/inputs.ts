@@ -13,7 +13,10 @@
 import fs from "fs";
 import path from "path";
 import { globSync, isDynamicPattern } from "tinyglobby";
-import { defaultOutputPath } from "../recalc";
+import { defaultOutputPath, valuesCopyPath } from "../recalc";
+
+/** The values copy's name beside an output: `NAME.recalc.xlsx` → `NAME.recalc.values.xlsx`. */
+export { valuesCopyPath };
 
 /** One workbook of the run, and where its results go. */
 export interface SeasonItem {
@@ -60,12 +63,6 @@ const OWN_OUTPUT = /\.recalc(\.values)?\.xls[xm]$/i;
 export function isSeasonWorkbook(name: string): boolean {
   const base = path.basename(name);
   return WORKBOOK.test(base) && !OWN_OUTPUT.test(base) && !base.startsWith("~$") && !base.startsWith(".");
-}
-
-/** The values copy's name beside an output: `NAME.recalc.xlsx` → `NAME.recalc.values.xlsx`. */
-export function valuesCopyPath(output: string): string {
-  const ext = path.extname(output);
-  return path.join(path.dirname(output), `${path.basename(output, ext)}.values${ext || ".xlsx"}`);
 }
 
 interface Found {
