@@ -24,7 +24,7 @@
 const fs = require("fs");
 const os = require("os");
 const path = require("path");
-const { spawnSync, execFileSync } = require("child_process");
+const { spawn, spawnSync, execFileSync } = require("child_process");
 
 const ROOT = path.join(__dirname, "..");
 // SOILCELL_BENCH_BUILD points at another compiled tree (a what-if copy) to measure instead of build/.
@@ -415,14 +415,33 @@ async function seasonPart(o, say) {
   const season = (jobs) => soilcellRun(["recalc", dir, "-o", path.join(OUT_DIR, `season-40-out-${jobs}`) + path.sep, "--jobs", String(jobs), "--json"]);
   const problems = [];
   season(1); // untimed: files into the page cache, outputs created
+  // The control: the files split over `cores` separate --jobs 1 processes run at once. What it
+  // gains over serial is what this machine gives two busy processes at that moment (other work on
+  // a shared machine takes the rest); in-process workers cannot be expected to beat it.
+  const control = async () => {
+    const t0 = now();
+    const parts = Array.from({ length: cores }, (_, k) => files.filter((_, i) => i % cores === k));
+    await Promise.all(
+      parts.map(
+        (part, k) =>
+          new Promise((resolve) => {
+            const c = spawn(process.execPath, [BIN, "recalc", ...part, "-o", path.join(OUT_DIR, `season-40-control-${k}`) + path.sep, "--jobs", "1", "--json"], { cwd: ROOT, stdio: "ignore" });
+            c.on("exit", resolve);
+          }),
+      ),
+    );
+    return now() - t0;
+  };
   const serial = [];
   const parallel = [];
   const serialCpu = [];
   const parallelCpu = [];
+  const controls = [];
   for (let i = 0; i < o.rounds; i++) {
-    say(`season: round ${i + 1} of ${o.rounds}, --jobs 1 and --jobs ${cores}`);
+    say(`season: round ${i + 1} of ${o.rounds}, --jobs 1, --jobs ${cores}, and ${cores} processes at once`);
     const a = season(1);
     const b = season(cores);
+    controls.push(await control());
     serial.push(a.seconds);
     parallel.push(b.seconds);
     serialCpu.push(a.cpuSeconds);
@@ -463,6 +482,8 @@ async function seasonPart(o, say) {
     serialCoresUsed: median(serialCpu) / serialS,
     parallelCoresUsed: median(parallelCpu) / parallelS,
     serialOverParallel: serialS / parallelS,
+    controlSeconds: median(controls),
+    serialOverControl: serialS / median(controls),
     perFileNpxSeconds: npxSum,
     npxFilesTimed: o.npxFiles,
     perFileNodeSeconds: nodeSum,
@@ -681,6 +702,7 @@ async function main() {
     lines.push(`  one run, --jobs ${se.jobs} (parallel)           ${fmtS(se.parallelSeconds).padEnd(9)} CPU ${fmtS(se.parallelCpuSeconds)} (${se.parallelCoresUsed.toFixed(2)} cores busy)   serial/parallel ${fmtX(se.serialOverParallel)}`);
     lines.push(`  ${se.files} runs of \`npx soilcell recalc FILE\`   ${fmtS(se.perFileNpxSeconds).padEnd(9)} ×${(se.npxOverSeason).toFixed(1)} the parallel season run${se.npxFilesTimed < se.files ? ` (${se.npxFilesTimed} timed, scaled)` : ""}`);
     lines.push(`  ${se.files} runs of \`node bin/soilcell.js …\`  ${fmtS(se.perFileNodeSeconds).padEnd(9)} ×${(se.nodeOverSeason).toFixed(1)} the parallel season run`);
+    lines.push(`  control: ${se.jobs} --jobs 1 processes at once, ${se.files / se.jobs} files each   ${fmtS(se.controlSeconds).padEnd(9)} serial/control ${fmtX(se.serialOverControl)} (what the machine gave ${se.jobs} processes just then)`);
     for (const p of se.problems) lines.push(`  PROBLEM: ${p}`);
   }
   if (t.length) {
