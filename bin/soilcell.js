@@ -1,7 +1,7 @@
 #!/usr/bin/env -S node --max-old-space-size=8192
-// The soilcell command. A 100,000-sample season fits Node's default heap; the higher limit leaves
-// room for larger workbooks (override with NODE_OPTIONS, or run node yourself). The TypeScript
-// sources are compiled into build/ by `npm run build:node` (run automatically by `npm ci`).
+// The soilcell command, with room for a season of 100,000 samples (8 GB heap limit; override
+// with NODE_OPTIONS or by running node yourself). The TypeScript sources are compiled into build/ by `npm run build:node`
+// (run automatically by `npm ci` / `npm install`).
 const path = require("path");
 const fs = require("fs");
 const entry = path.join(__dirname, "..", "build", "src", "cli", "main.js");
@@ -9,4 +9,7 @@ if (!fs.existsSync(entry)) {
   process.stderr.write("soilcell: not built yet; run `npm run build:node` in the soilcell folder first\n");
   process.exit(3);
 }
-require(entry).runFromProcess(process.argv.slice(2));
+const { main } = require(entry);
+const { runAsProcess } = require(path.join(__dirname, "..", "build", "src", "cli", "io.js"));
+// The exit code is set, never process.exit: piped output of any size drains before Node exits.
+runAsProcess(main);

@@ -5,6 +5,7 @@
  * (tests may ask for references to read as blank cells instead).
  */
 import { Book } from "./book";
+import { a1 } from "./cellref";
 import { Ctx, Host, NotComputed, Uncomputable, ev, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { FormulaSyntaxError } from "./formula/lexer";
@@ -53,7 +54,14 @@ function firstReference(n: Node): string | undefined {
   const stack: Node[] = [n];
   while (stack.length) {
     const x = stack.pop() as Node;
-    if (x.k === "ref" || x.k === "name" || x.k === "spill") return x.k === "name" ? `the name ${x.name}` : "a cell reference";
+    if (x.k === "name") return `the name ${x.name}`;
+    if (x.k === "spill") return "a spill reference (#)";
+    if (x.k === "ref") {
+      // Parsed at A1, so relative offsets are the positions typed.
+      const top = a1({ row: x.r1, col: x.c1 });
+      const text = x.r2 === x.r1 && x.c2 === x.c1 ? top : `${top}:${a1({ row: x.r2, col: x.c2 })}`;
+      return `the reference ${x.sheet === undefined ? "" : `${x.sheet}!`}${text}`;
+    }
     if (x.k === "fn") stack.push(...x.args);
     else if (x.k === "bin" || x.k === "range" || x.k === "isect") stack.push(x.a, x.b);
     else if (x.k === "neg" || x.k === "plus" || x.k === "at" || x.k === "pct") stack.push(x.x);
@@ -63,21 +71,61 @@ function firstReference(n: Node): string | undefined {
 }
 
 /**
+ * Where a formula separates arguments with ";" (as Excel shows formulas under many European
+ * regional settings), the refusal and the same formula as Excel stores it. Not accepted as typed:
+ * whether "1,3" is a decimal or two arguments depends on the settings, which eval does not guess;
+ * the rewrite is shown for the user to check and run. Undefined when there is no such ";".
+ */
+function semicolonHint(text: string): string | undefined {
+  let quote: string | undefined;
+  let braces = 0;
+  let semis = 0;
+  let commas = 0;
+  let out = "";
+  for (const ch of text) {
+    if (quote) {
+      if (ch === quote) quote = undefined; // a doubled quote re-opens at once: same text either way
+      out += ch;
+      continue;
+    }
+    if (ch === '"' || ch === "'") quote = ch;
+    else if (ch === "{") braces += 1;
+    else if (ch === "}") braces -= 1;
+    else if (braces === 0 && ch === ";") {
+      semis += 1;
+      out += ",";
+      continue;
+    } else if (braces === 0 && ch === ",") {
+      commas += 1;
+      out += ".";
+      continue;
+    }
+    out += ch;
+  }
+  if (semis === 0) return undefined;
+  const said = 'the formula separates its arguments with ";", as Excel shows formulas under some regional settings; soilcell reads formulas as Excel stores them, with ","';
+  const decimals = commas ? ' and "." for decimals' : "";
+  if (braces !== 0 || text.includes("{")) return `${said}${decimals}: write it with "," between arguments${decimals}`;
+  return `${said}${decimals}; as stored it reads =${out} (check it, then run that)`;
+}
+
+/**
  * Evaluates `formula` (typed form "=SOIL.CEC(…)" or Excel's stored form) on its own.
  * @example evaluateFormula('=SOIL.CONVERT(10,"mg/kg","kg/ha",15,1.3)') //=> { value: 19.5 }
  */
 export function evaluateFormula(formula: string, options: { blankReferences?: boolean } = {}): EvalResult {
   const text = formula.trim().replace(/^=/, "");
+  const semicolons = semicolonHint(text);
+  if (semicolons) return { error: "#VALUE!", message: semicolons };
   let node: Node;
   try {
     node = parseFormula(text, 0, 0, SOIL_NAMES);
   } catch (e) {
     if (!(e instanceof FormulaSyntaxError)) throw e;
-    const hint = text.includes(";") && !text.includes(",") ? ' (use "," between arguments, as Excel stores formulas, not ";")' : "";
-    return { error: "#VALUE!", message: `the formula cannot be read: ${e.message}${hint}` };
+    return { error: "#VALUE!", message: `the formula cannot be read: ${e.message}` };
   }
   const ref = options.blankReferences ? undefined : firstReference(node);
-  if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; put the formula in a workbook and use soilcell recalc` };
+  if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; give the values themselves (e.g. {1;2;3} for a column), or put the formula in a workbook and use soilcell recalc` };
   const ctx: Ctx = { host: HOST, sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
   let v: ReturnType<typeof ev>;
   try {

@@ -194,6 +194,27 @@ function placeRef(book: Book, n: RefNode, sheet: number, row: number, col: numbe
 }
 
 /**
+ * Whether a formula at (sheet,row,col) reads, through the spill operator (A1#), an anchor for which
+ * `isAnchor` holds (names followed to a bounded depth); an operator over something that is not a
+ * plain reference counts, as its target is not known.
+ */
+export function readsSpillOf(book: Book, node: Node, sheet: number, row: number, col: number, isAnchor: (sheet: number, row: number, col: number) => boolean, depth = 0): boolean {
+  const info = treeInfo(node);
+  if (info.opaqueSpill) return true;
+  const scratch = { sheet: 0, r1: 0, c1: 0, r2: 0, c2: 0 };
+  for (const ref of info.spills) if (placeRef(book, ref, sheet, row, col, scratch) && isAnchor(scratch.sheet, scratch.r1, scratch.c1)) return true;
+  if (depth < 32) {
+    for (const nm of info.names) {
+      const from = nm.sheet === undefined ? sheet : book.sheetIndex(nm.sheet);
+      if (from === undefined) continue;
+      const d = book.definedName(nm.name, from);
+      if (d?.node && readsSpillOf(book, d.node, from, row, col, isAnchor, depth + 1)) return true;
+    }
+  }
+  return false;
+}
+
+/**
  * Visits every rectangle a formula reads at (sheet,row,col), names followed (to a bounded depth);
  * stops when `visit` returns true. Returns true when stopped.
  */

@@ -23,7 +23,7 @@ import { Ctx, Host, ResourceLimit, Uncomputable, ev, firstScalar, intersect, toA
 import "./formula/functions";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { toStoredFormula, toTypedFormula } from "./formula-text";
-import { ModeCode, Plan, planRecalc } from "./plan";
+import { ModeCode, Plan, planRecalc, readsSpillOf } from "./plan";
 import { Circular, RecalcHost } from "./host";
 import { CellWrite, DynamicFormula, cellXml, rewriteSheet } from "./sheet-patch";
 import { SOIL_NAMES, SOIL_SIGNATURES, soilCall } from "./soil";
@@ -43,8 +43,8 @@ export interface CellProblem {
 export interface RecalcSummary {
   readonly input: string;
   readonly output: string;
-  /** Where the values copy was written, when one was asked for beside the workbook. */
-  readonly valuesOutput?: string;
+  /** The values copy written beside the output, when one was asked for. */
+  readonly valuesCopy?: string;
   readonly sheets: number;
   /** Formula cells in the workbook. */
   readonly formulaCells: number;
@@ -73,10 +73,10 @@ export interface RecalcOptions {
    */
   readonly values?: boolean;
   /**
-   * Also write such a values copy here, beside the recalculated workbook (computed once: the
-   * second file is written from the same results).
+   * Also write such a values copy to this path, from the same computation, beside the Excel form
+   * written to `output` (the same safety rules hold for it).
    */
-  readonly valuesOutput?: string;
+  readonly valuesCopy?: string;
 }
 
 export class RecalcRefused extends Error {
@@ -88,8 +88,17 @@ export class RecalcRefused extends Error {
 
 /** The default output name: beside the input, with a suffix. */
 export function defaultOutputPath(input: string): string {
-  const ext = path.extname(input);
-  return path.join(path.dirname(input), `${path.basename(input, ext)}.recalc${ext || ".xlsx"}`);
+  return withSuffix(input, "recalc");
+}
+
+/** The name of the values copy of an output: beside it, ".values" added before the extension. */
+export function valuesCopyPath(output: string): string {
+  return withSuffix(output, "values");
+}
+
+function withSuffix(file: string, suffix: string): string {
+  const ext = path.extname(file);
+  return path.join(path.dirname(file), `${path.basename(file, ext)}.${suffix}${ext || ".xlsx"}`);
 }
 
 const MAX_MESSAGE = 300;
@@ -133,10 +142,9 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const started = process.hrtime.bigint();
   const say = options.progress ?? (() => undefined);
   checkPaths(input, output);
-  const valuesOutput = options.valuesOutput;
-  if (valuesOutput !== undefined) {
-    checkPaths(input, valuesOutput);
-    if (path.resolve(valuesOutput) === path.resolve(output)) throw new RecalcRefused(`the values copy and the recalculated workbook cannot both be ${output}`);
+  if (options.valuesCopy !== undefined && !options.values) {
+    checkPaths(input, options.valuesCopy);
+    if (path.resolve(options.valuesCopy) === path.resolve(output)) throw new RecalcRefused(`refusing to write the values copy over the recalculated workbook ${output}; choose another name`);
   }
   let bytes: Buffer;
   try {
@@ -161,17 +169,19 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);
   writeAtomically(output, pkg.toBuffer());
-  if (valuesOutput !== undefined && !options.values) {
-    // The same results again, SOIL cells as values; the sheets are rewritten from the file's own XML.
+  if (options.valuesCopy !== undefined && !options.values) {
+    // The same results again, SOIL cells as values: the sheets are rewritten from the workbook as
+    // read (the package's edits so far are replaced), so nothing is computed twice.
+    say(`writing ${path.basename(options.valuesCopy)}`);
     writeResults(book, plan, host, pkg, true);
     markValuesCopy(pkg);
-    writeAtomically(valuesOutput, pkg.toBuffer());
+    writeAtomically(options.valuesCopy, pkg.toBuffer());
   }
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
     input,
     output,
-    ...(valuesOutput !== undefined && !options.values ? { valuesOutput } : {}),
+    ...(options.valuesCopy !== undefined ? { valuesCopy: options.valuesCopy } : {}),
     sheets: pkg.sheets.length,
     formulaCells: plan.formulaCells,
     computedCells: computed,
@@ -190,6 +200,7 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
  * and cleared cells beside it; everything else is copied as it was.
  */
 function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage, values: boolean) {
+  const asValue = values ? valuesCopyCells(book, plan) : undefined;
   const problems: { sheet: number; row: number; col: number; p: CellProblem }[] = [];
   const kept: CellProblem[] = [];
   let soilCells = 0;
@@ -258,7 +269,7 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
     if (plan.soil[i]) soilCells++;
     const value = host.noValue(i) ? undefined : writable(top);
     if (isError(top)) problems.push({ sheet: sheet.index, row, col, p: problemOf(sheet.name, row, col, formulaText(sheet, f), top) });
-    if (values && plan.soil[i]) {
+    if (asValue?.[i]) {
       // A values copy: the SOIL formula gives way to its value, so any program shows the number.
       formsChanged = true;
       return cellXml({ kind: "value", row, col, value: value ?? null }, sheet.xml.slice(sheet.cells.start[k] as number, sheet.cells.end[k] as number), prefix);
@@ -297,6 +308,31 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
   if (formsChanged) dropCalcChain(pkg);
   problems.sort((x, y) => x.sheet - y.sheet || x.row - y.row || x.col - y.col);
   return { errors: problems.map((x) => x.p), kept, soilCells, spilled, computed };
+}
+
+/**
+ * The planned cells a values copy writes as values: every SOIL formula, and every formula that
+ * reads one of those through the spill operator (A1# of a cell that is no longer a formula would
+ * be #REF! once recalculated). The plan's order puts each anchor before its readers.
+ */
+function valuesCopyCells(book: Book, plan: Plan): Uint8Array {
+  const out = new Uint8Array(plan.n);
+  const isAnchor = (sheet: number, row: number, col: number) => {
+    const j = plan.at(sheet, row, col);
+    return j >= 0 && out[j] === 1;
+  };
+  for (let o = 0; o < plan.order.length; o++) {
+    const i = plan.order[o] as number;
+    if (plan.soil[i]) {
+      out[i] = 1;
+      continue;
+    }
+    const sheet = book.sheets[plan.sheet[i] as number]!;
+    const node = sheet.formulas.node[plan.formula[i] as number];
+    const k = plan.cell[i] as number;
+    if (node && readsSpillOf(book, node, sheet.index, sheet.cells.row[k] as number, sheet.cells.col[k] as number, isAnchor)) out[i] = 1;
+  }
+  return out;
 }
 
 function typedOf(text: string): string {

@@ -70,7 +70,7 @@ describe("soilcell recalc", () => {
     const r = run("recalc", input);
     expect(r.status).toBe(0);
     expect(fs.existsSync(path.join(dir, "in.recalc.xlsx"))).toBe(true);
-    expect(r.stdout).toMatch(/1 formula cells \(1 computed, 0 kept as the file had them; 1 SOIL formulas/);
+    expect(r.stdout).toMatch(/1 formula cells recalculated \(1 SOIL formulas/);
     expect(r.stdout).toMatch(/0 cells in error/);
     expect(r.stdout).toMatch(/estimates/);
     const again = run("recalc", input, "-o", input);

@@ -1,253 +1,261 @@
 /**
- * `soilcell recalc` over a season: many workbooks, folders and globs, worker threads, the season
- * summary (text, CSV, JSON), exit codes over the whole run, and a CLI that explains itself. Run as
- * a user would, through bin/soilcell.js (needs `npm run build:node`, which `npm test` runs).
- * Workbooks are invented (a made-up lab's samples). Expected SOIL values: Source: IUPAC/CIAAW
- * atomic weights (Ca 40.078, so 200.39 mg/kg Ca = 1 cmol(+)/kg), as in tests/core.
+ * `soilcell recalc` over a season, run as a user runs it (the built command, from a working
+ * folder, output piped): folders, patterns, mixed inputs, -o DIR/ mirroring the tree, lock files
+ * and earlier outputs skipped, one broken workbook never stopping the others, the summary (text,
+ * JSON, CSV), exit codes over the whole run, and JSON of any size arriving whole through a pipe.
+ *
+ * Workbooks are generated (tests/helpers/season.ts): invented Ca values of 400.78 mg/kg times the
+ * row number; SOIL.CMOL gives 2 cmol(+)/kg per 400.78 mg/kg (Source: IUPAC/CIAAW standard atomic
+ * weight of Ca, 40.078, so 200.39 mg/kg per cmol(+)/kg, as tests/core).
  */
-import { spawn, spawnSync } from "child_process";
 import fs from "fs";
 import path from "path";
+import { cachedValues } from "../helpers/xlsx";
 import { tempDir } from "../helpers/workbook";
-import { c, cachedValues, f, row, xlsxBytes } from "../helpers/xlsx";
+import { farmBook, filesUnder, put, soilcellIn } from "../helpers/season";
 
-const BIN = path.join(__dirname, "../../bin/soilcell.js");
-const run = (args: string[], cwd?: string) => spawnSync(process.execPath, [BIN, ...args], { encoding: "utf8", cwd, maxBuffer: 64 * 1024 ** 2 });
-
-/** An invented lab sheet: `n` samples of Ca (mg/kg) with a SOIL.CMOL column and a native column over it. */
-function labBook(n: number, caBase: number, bad = false): Buffer {
-  const rows = [row(1, c("A1", "Sample"), c("B1", "Ca mg/kg"), c("C1", "Ca cmol(+)/kg"), c("D1", "twice"))];
-  for (let i = 0; i < n; i++) {
-    const r = i + 2;
-    const ca = bad && i === 0 ? c(`B${r}`, "<0.5") : c(`B${r}`, caBase + 200.39 * i);
-    rows.push(row(r, c(`A${r}`, `S${i + 1}`), ca, f(`C${r}`, `_xldudf_SOIL_CMOL(B${r},"Ca")`, 0), f(`D${r}`, `C${r}*2`, 0)));
-  }
-  return xlsxBytes({ sheets: [{ name: "Lab", rows: rows.join("") }] });
+interface Summary {
+  totals: { workbooks: number; recalculated: number; refused: number; failed: number; computedCells: number; soilFormulaCells: number; cellsInError: number; withErrors: number };
+  files: { input: string; status: string; reason: string; output: string; valuesCopy: string; cellsInError: number; formulaCells: number }[];
+  errorGroups: { error: string; message: string; count: number; workbooks: number; cells: string[]; formula: string }[];
+  errors: { file: string; sheet: string; cell: string; error: string; message: string; formula: string }[];
+  exitCode: number;
+  caution: string;
 }
 
-/** 30 workbooks in two farm folders, two of them broken (not a zip; a bad CRC), one with a lab "<0.5". */
-function season(dir: string): void {
-  for (let i = 0; i < 30; i++) {
-    const farm = path.join(dir, i < 15 ? "north farm" : "south", i % 2 ? "2025" : "");
-    fs.mkdirSync(farm, { recursive: true });
-    const file = path.join(farm, `paddock-${String(i + 1).padStart(2, "0")}.xlsx`);
-    if (i === 7) fs.writeFileSync(file, "this is not a workbook");
-    else if (i === 21) {
-      const bytes = labBook(3, 200.39);
-      // Change one byte of the sheet's compressed data: the part is damaged.
-      const at = bytes.indexOf(Buffer.from("xl/worksheets/sheet1.xml")) + 40;
-      bytes[at] = (bytes[at] as number) ^ 0xff;
-      fs.writeFileSync(file, bytes);
-    } else fs.writeFileSync(file, labBook(3, 200.39 * (i + 1), i === 3));
+/** 28 good workbooks in a tree of folders, two broken ones, and what must be skipped. */
+function makeSeason(root: string): { good: string[]; broken: string[] } {
+  const good: string[] = [];
+  for (let i = 1; i <= 28; i++) {
+    const folder = i <= 10 ? "north" : i <= 20 ? path.join("south", "paddocks") : "";
+    const name = path.join("season", folder, `farm-${String(i).padStart(2, "0")}.xlsx`);
+    put(path.join(root, name), farmBook(5, i % 7 === 0 ? 1 : 0));
+    good.push(name);
   }
-  // Not inputs: an Office lock file, an earlier output, a text file.
-  fs.writeFileSync(path.join(dir, "south", "~$paddock-16.xlsx"), "lock");
-  fs.writeFileSync(path.join(dir, "south", "paddock-16.recalc.xlsx"), labBook(1, 1));
-  fs.writeFileSync(path.join(dir, "south", "notes.txt"), "not a workbook");
+  const broken = [path.join("season", "north", "broken-text.xlsx"), path.join("season", "south", "broken-truncated.xlsx")];
+  put(path.join(root, broken[0]!), "this is not a workbook\n");
+  put(path.join(root, broken[1]!), farmBook(40).subarray(0, 300));
+  // Never inputs: an Office lock file, an earlier output, the values copy of one, a macOS
+  // companion file, a hidden folder, and files that are not workbooks.
+  put(path.join(root, "season", "north", "~$farm-01.xlsx"), "lock");
+  put(path.join(root, "season", "north", "farm-01.recalc.xlsx"), farmBook(1));
+  put(path.join(root, "season", "north", "farm-01.recalc.values.xlsx"), farmBook(1));
+  put(path.join(root, "season", "._farm-21.xlsx"), "AppleDouble");
+  put(path.join(root, "season", ".cache", "old.xlsx"), "cache");
+  put(path.join(root, "season", "notes.csv"), "a,b\n");
+  put(path.join(root, "season", "farm-list.xls"), "old binary format");
+  return { good: good.sort(), broken };
 }
 
-describe("soilcell recalc over a season folder", () => {
-  let dir: string;
-  let out: string;
-  let r: ReturnType<typeof run>;
+const recalcName = (p: string) => p.replace(/\.xlsx$/, ".recalc.xlsx");
+
+describe("a season folder of 30 generated workbooks, two of them broken", () => {
+  let root: string;
+  let good: string[];
+  let broken: string[];
+  let run: ReturnType<typeof soilcellIn>;
+
   beforeAll(() => {
-    dir = tempDir("soilcell-season-");
-    season(path.join(dir, "season"));
-    out = path.join(dir, "out");
-    r = run(["recalc", path.join(dir, "season"), "-o", out, "--jobs", "2", "--summary", path.join(dir, "summary.csv")]);
-  }, 120_000);
+    root = tempDir("soilcell-season-");
+    ({ good, broken } = makeSeason(root));
+    run = soilcellIn(root, "recalc", "season", "-o", "out/", "--summary", "season.csv");
+  });
 
-  it("recalculates the 28 good workbooks, refuses the 2 broken ones with their reasons, exit 2", () => {
+  it("exits 2: some workbook was refused", () => {
+    expect(run.status).toBe(2);
+  });
+
+  it("writes the 28 good outputs under out/, mirroring the folder tree, and nothing for the broken ones", () => {
+    expect(filesUnder(path.join(root, "out"))).toEqual(good.map((g) => recalcName(path.relative("season", g))).sort());
+    expect(filesUnder(path.join(root, "out")).some((f) => /broken/.test(f))).toBe(false);
+  });
+
+  it("computes every workbook (spot check: 400.78 mg/kg Ca is 2 cmol(+)/kg)", async () => {
+    const values = await cachedValues(path.join(root, "out", "north", "farm-03.recalc.xlsx"));
+    expect(values.get("Lab!B2") as number).toBeCloseTo(2, 12);
+    expect(values.get("Lab!B6") as number).toBeCloseTo(10, 12);
+  });
+
+  it("says which workbooks were refused and why, one line each, and summarises the season", () => {
+    const refusals = run.stderr.split("\n").filter((l) => l.startsWith("soilcell: "));
+    expect(refusals.sort()).toEqual([
+      `soilcell: ${broken[0]}: not an .xlsx workbook (the file is not a zip package)`,
+      expect.stringMatching(new RegExp(`^soilcell: ${broken[1]!.replace(/[/\\.]/g, "\\$&")}: .*(damaged|truncated)`)),
+    ]);
+    expect(run.stdout).toMatch(/^28 of 30 workbooks recalculated, 2 refused, in \d+\.\d s \(\d+ jobs?; /m);
+    expect(run.stdout).toMatch(/^ {2}144 formula cells computed \(144 SOIL formulas, 0 spilled cells\)/m);
+    expect(run.stdout).toMatch(/^ {2}4 cells in error, in 4 workbooks$/m);
+    expect(run.stdout).toContain("not recalculated (nothing written for them):");
+    expect(run.stdout).toContain(`  ${broken[0]}: not an .xlsx workbook`);
+    // Cells in error grouped by message, each as file!sheet!cell.
+    expect(run.stdout).toContain('cells in error, by message (1 kind):\n  #VALUE! unknown ion "Xx"; use Ca, Mg, K, Na, NH4, H, Al or Mn\n    4 cells in 4 workbooks, e.g. =SOIL.CMOL(A7,"Xx")');
+    expect(run.stdout).toContain(`${path.join("season", "north", "farm-07.xlsx")}!Lab!B7`);
+    expect(run.stdout.trimEnd().split("\n").pop()).toMatch(/^Results are estimates/);
+  });
+
+  it("prints one plain progress line per workbook when standard error is not a terminal", () => {
+    // [done/total]: the broken two are counted as they are refused, in their own lines.
+    const lines = run.stderr.split("\n").filter((l) => /^\[\d+\/30\] /.test(l));
+    expect(lines).toHaveLength(28);
+    expect(lines.join("\n")).toMatch(/\[\d+\/30\] season\/farm-22\.xlsx: 5 formula cells, 0 in error, \d+\.\d s/);
+  });
+
+  it("--summary FILE.csv writes one row per workbook, lock files, hidden files and earlier outputs not among them", () => {
+    const rows = fs.readFileSync(path.join(root, "season.csv"), "utf8").trimEnd().split("\r\n");
+    expect(rows[0]).toBe("file,status,reason,output,values_copy,sheets,formula_cells,computed_cells,kept_cells,soil_formula_cells,spilled_cells,cells_in_error,without_value,seconds");
+    expect(rows).toHaveLength(31);
+    const byFile = new Map(rows.slice(1).map((r) => [r.split(",")[0], r]));
+    expect([...byFile.keys()].sort()).toEqual([...good, ...broken].sort());
+    expect(byFile.get(path.join("season", "farm-22.xlsx"))).toMatch(/^season\/farm-22\.xlsx,recalculated,,out\/farm-22\.recalc\.xlsx,,1,5,5,0,5,0,0,0,\d+(\.\d+)?$/);
+    expect(byFile.get(path.join("season", "farm-21.xlsx"))).toMatch(/^season\/farm-21\.xlsx,recalculated,,out\/farm-21\.recalc\.xlsx,,1,6,6,0,6,0,1,0,/);
+    expect(byFile.get(broken[0]!)).toBe(`${broken[0]},refused,not an .xlsx workbook (the file is not a zip package),,,0,0,0,0,0,0,0,0,0`);
+  });
+
+  it("the same season in one job writes the same bytes (parallel runs change nothing in the files)", () => {
+    const serial = soilcellIn(root, "recalc", "season", "-o", "out-serial/", "--jobs", "1");
+    expect(serial.status).toBe(2);
+    for (const f of filesUnder(path.join(root, "out"))) {
+      expect({ f, same: fs.readFileSync(path.join(root, "out", f)).equals(fs.readFileSync(path.join(root, "out-serial", f))) }).toEqual({ f, same: true });
+    }
+  });
+
+  it("--json prints the whole summary and nothing else; outputs go beside the inputs without -o", () => {
+    const r = soilcellIn(root, "recalc", "season", "--json");
     expect(r.status).toBe(2);
-    expect(r.stdout).toMatch(/^soilcell recalc: 30 workbooks, 28 recalculated, 2 refused, 1 skipped, in [\d.]+ s on 2 workers$/m);
-    expect(r.stdout).toMatch(/paddock-08\.xlsx: .*not an \.xlsx workbook/);
-    expect(r.stdout).toMatch(/paddock-22\.xlsx: .*the file is damaged/);
-    expect(r.stdout).toMatch(/~\$paddock-16\.xlsx: an Office lock file/);
-    expect(r.stdout).toMatch(/estimates/);
-  });
-
-  it("mirrors the folder tree under -o, one NAME.recalc.xlsx per good workbook, nothing for the broken ones", () => {
-    const written: string[] = [];
-    const walk = (d: string) => {
-      for (const e of fs.readdirSync(d, { withFileTypes: true })) e.isDirectory() ? walk(path.join(d, e.name)) : written.push(path.relative(out, path.join(d, e.name)));
-    };
-    walk(out);
-    expect(written.length).toBe(28);
-    expect(written).toContain(path.join("north farm", "paddock-01.recalc.xlsx"));
-    expect(written).toContain(path.join("north farm", "2025", "paddock-02.recalc.xlsx"));
-    expect(written).toContain(path.join("south", "2025", "paddock-30.recalc.xlsx"));
-    expect(written.some((w) => /paddock-08|paddock-22|~\$/.test(w))).toBe(false);
-    // nothing written beside the inputs
-    expect(fs.existsSync(path.join(dir, "season", "north farm", "paddock-01.recalc.xlsx"))).toBe(false);
-  });
-
-  it("computes every SOIL cell and the native cells over them", async () => {
-    const v = await cachedValues(path.join(out, "north farm", "paddock-01.recalc.xlsx"));
-    expect(v.get("Lab!C2")).toBeCloseTo(1, 12); // 200.39 mg/kg Ca = 1 cmol(+)/kg (IUPAC weights; source above)
-    expect(v.get("Lab!D3")).toBeCloseTo(4, 12);
-  });
-
-  it("groups the cells in error by message with file!sheet!cell", () => {
-    expect(r.stdout).toMatch(/cells in error: 2, by message:/);
-    expect(r.stdout).toMatch(/2 × #VALUE! .*"<0\.5" is not a number/);
-    expect(r.stdout).toMatch(/'.*north farm[/\\]2025[/\\]paddock-04\.xlsx'!Lab!C2, '.*north farm[/\\]2025[/\\]paddock-04\.xlsx'!Lab!D2/);
-  });
-
-  it("writes the summary as CSV, one row per workbook", () => {
-    const lines = fs.readFileSync(path.join(dir, "summary.csv"), "utf8").trim().split(/\r\n/);
-    expect(lines[0]).toBe("input,status,reason,output,values_output,formula_cells,computed_cells,kept_cells,soil_formula_cells,cells_in_error,seconds");
-    expect(lines.length).toBe(1 + 30 + 1);
-    expect(lines.filter((l) => l.includes(",recalculated,")).length).toBe(28);
-    expect(lines.filter((l) => l.includes(",refused,")).length).toBe(2);
-    expect(lines.filter((l) => l.includes(",skipped,")).length).toBe(1);
-    const p4 = lines.find((l) => l.includes("paddock-04.xlsx"))!;
-    expect(p4).toMatch(/,recalculated,,.*,6,6,0,3,2,/);
-  });
-
-  it("plain progress lines on standard error when it is not a terminal", () => {
-    const lines = r.stderr.trim().split("\n");
-    expect(lines.length).toBe(30);
-    expect(lines.every((l) => /^\[\d+\/30\] /.test(l))).toBe(true);
-  });
-});
-
-describe("soilcell recalc: inputs, outputs and exit codes", () => {
-  it("takes several files, a glob it expands itself, and writes beside each input", () => {
-    const dir = tempDir("soilcell-glob-");
-    for (const n of ["a", "b", "c"]) fs.writeFileSync(path.join(dir, `${n}.xlsx`), labBook(2, 200.39));
-    fs.writeFileSync(path.join(dir, "c.recalc.xlsx"), labBook(1, 1)); // an earlier output: not matched
-    const g = run(["recalc", "*.xlsx"], dir);
-    expect(g.status).toBe(0);
-    expect(g.stdout).toMatch(/3 workbooks, 3 recalculated/);
-    for (const n of ["a", "b", "c"]) expect(fs.existsSync(path.join(dir, `${n}.recalc.xlsx`))).toBe(true);
-    const two = run(["recalc", path.join(dir, "a.xlsx"), path.join(dir, "b.xlsx"), "-o", path.join(dir, "two")]);
-    expect(two.status).toBe(0);
-    expect(fs.readdirSync(path.join(dir, "two")).sort()).toEqual(["a.recalc.xlsx", "b.recalc.xlsx"]);
-    const none = run(["recalc", path.join(dir, "nothing-*.xlsx")]);
-    expect(none.status).toBe(2);
-    expect(none.stdout).toMatch(/no \.xlsx or \.xlsm workbook matches this pattern/);
-  });
-
-  it("--values writes a values copy beside each workbook: SOIL cells as plain values, other formulas kept", async () => {
-    const dir = tempDir("soilcell-values-");
-    fs.writeFileSync(path.join(dir, "lab.xlsx"), labBook(2, 200.39));
-    const v = run(["recalc", path.join(dir, "lab.xlsx"), "--values"]);
-    expect(v.status).toBe(0);
-    expect(v.stdout).toMatch(/and the values copy .*lab\.values\.xlsx/);
-    const xml = spawnSync("unzip", ["-p", path.join(dir, "lab.values.xlsx"), "xl/worksheets/sheet1.xml"], { encoding: "utf8" }).stdout;
-    expect(xml).not.toMatch(/SOIL/);
-    expect(xml).toMatch(/<c r="D2"><f>C2\*2<\/f><v>1\.9999999999999998<\/v><\/c>/); // 2 within the last bit of a double
-    const props = spawnSync("unzip", ["-p", path.join(dir, "lab.values.xlsx"), "docProps/custom.xml"], { encoding: "utf8" }).stdout;
-    expect(props).toMatch(/SOIL results written as values by soilcell \d+\.\d+\.\d+ on \d{4}-\d\d-\d\dT/);
-    expect((await cachedValues(path.join(dir, "lab.values.xlsx"))).get("Lab!C3")).toBeCloseTo(2, 12);
-  });
-
-  it("exit 1 when cells are in error and nothing is refused; --summary .json holds the whole summary", () => {
-    const dir = tempDir("soilcell-exit1-");
-    fs.writeFileSync(path.join(dir, "a.xlsx"), labBook(2, 200.39, true));
-    fs.writeFileSync(path.join(dir, "b.xlsx"), labBook(2, 200.39));
-    const r = run(["recalc", dir, "--summary", path.join(dir, "s.json"), "--jobs", "1"]);
-    expect(r.status).toBe(1);
-    const s = JSON.parse(fs.readFileSync(path.join(dir, "s.json"), "utf8"));
-    expect(s.exitCode).toBe(1);
-    expect(s.recalculated).toBe(2);
-    expect(s.workers).toBe(1);
-    expect(s.errorGroups[0].count).toBe(2);
-  });
-
-  it("refuses usage mistakes with the command's help (exit 2)", () => {
-    const bad = [["recalc"], ["recalc", "x.xlsx", "-o"], ["recalc", "x.xlsx", "--jobs", "0"], ["recalc", "x.xlsx", "--summary", "s.txt"], ["recalc", "x.xlsx", "--frobnicate"]];
-    for (const a of bad) {
-      const r = run(a);
-      expect({ a, status: r.status }).toEqual({ a, status: 2 });
-      expect(r.stderr).toMatch(/usage: soilcell recalc INPUT/);
-    }
-  });
-
-  it("--json prints only JSON, complete when piped even past 1 MB", async () => {
-    const dir = tempDir("soilcell-json-");
-    // 4,000 samples each in error: a summary of well over 1 MB.
-    const rows = [row(1, c("A1", "Ca"), c("B1", "cmol"))];
-    for (let i = 2; i <= 4001; i++) rows.push(row(i, c(`A${i}`, `<0.${i}`), f(`B${i}`, `_xldudf_SOIL_CMOL(A${i},"Ca")`, 0)));
-    fs.writeFileSync(path.join(dir, "big.xlsx"), xlsxBytes({ sheets: [{ name: "Lab", rows: rows.join("") }] }));
-    fs.copyFileSync(path.join(dir, "big.xlsx"), path.join(dir, "big2.xlsx"));
-    const text = await new Promise<{ out: string; code: number | null }>((resolve) => {
-      const p = spawn(process.execPath, [BIN, "recalc", dir, "--json"], { stdio: ["ignore", "pipe", "pipe"] });
-      let out = "";
-      p.stdout.setEncoding("utf8");
-      p.stdout.on("data", (d: string) => (out += d));
-      p.on("close", (code) => resolve({ out, code }));
-    });
-    expect(text.code).toBe(1);
-    expect(text.out.length).toBeGreaterThan(1024 * 1024);
-    const s = JSON.parse(text.out);
-    expect(s.cellsInError).toBe(8000);
-    expect(s.errorGroups.reduce((a: number, g: { cells: string[] }) => a + g.cells.length, 0)).toBe(8000);
+    expect(r.stderr).toBe("");
+    const s = JSON.parse(r.stdout) as Summary;
+    expect(s.exitCode).toBe(2);
+    expect(s.totals).toMatchObject({ workbooks: 30, recalculated: 28, refused: 2, failed: 0, computedCells: 144, cellsInError: 4, withErrors: 4 });
+    expect(s.files.find((f) => f.input === good[5])!.output).toBe(recalcName(good[5]!));
+    for (const g of good) expect(fs.existsSync(path.join(root, recalcName(g)))).toBe(true);
+    expect(s.errorGroups).toEqual([
+      { error: "#VALUE!", message: 'unknown ion "Xx"; use Ca, Mg, K, Na, NH4, H, Al or Mn', count: 4, workbooks: 4, cells: expect.arrayContaining([`${path.join("season", "north", "farm-07.xlsx")}!Lab!B7`]), formula: '=SOIL.CMOL(A7,"Xx")' },
+    ]);
     expect(s.caution).toMatch(/estimates/);
-  }, 60_000);
-});
-
-describe("progress on a terminal", () => {
-  // util-linux's `script` gives the command a terminal, as a person at a shell has.
-  const script = spawnSync("sh", ["-c", "command -v script"], { encoding: "utf8" }).stdout.trim();
-  (script ? it : it.skip)("draws a bar (workbooks done / total, formula cells, elapsed, time left) and then the summary", () => {
-    const dir = tempDir("soilcell-tty-");
-    for (const n of ["a", "b", "c"]) fs.writeFileSync(path.join(dir, `${n}.xlsx`), labBook(2, 200.39));
-    const log = path.join(dir, "tty.log");
-    spawnSync(script, ["-qfc", `${process.execPath} ${BIN} recalc ${dir} --jobs 2`, log], { encoding: "utf8" });
-    const seen = fs.readFileSync(log, "utf8");
-    expect(seen).toMatch(/recalc =+ 3\/3 workbooks \| 12 formula cells \| \d+s elapsed \| about \d+s left/);
-    expect(seen).toMatch(/soilcell recalc: 3 workbooks, 3 recalculated, in [\d.]+ s on 2 workers/);
-    expect(seen).not.toMatch(/\[1\/3\]/); // no plain progress lines on a terminal
+    // A second run finds the outputs of the first beside the inputs and skips them.
+    const again = JSON.parse(soilcellIn(root, "recalc", "season", "--json").stdout) as Summary;
+    expect(again.totals.workbooks).toBe(30);
   });
 });
 
-describe("a CLI that explains itself", () => {
-  it("soilcell help lists the commands; help COMMAND and COMMAND --help show one", () => {
-    const h = run(["help"]);
-    expect(h.status).toBe(0);
-    for (const cmd of ["recalc", "eval", "list", "help"]) expect(h.stdout).toMatch(new RegExp(`^  ${cmd} +\\S`, "m"));
-    for (const cmd of ["recalc", "eval", "list"]) {
-      const a = run(["help", cmd]);
-      const b = run([cmd, "--help"]);
-      expect(a.status).toBe(0);
-      expect(a.stdout).toBe(b.stdout);
-      expect(a.stdout).toMatch(new RegExp(`^usage: soilcell ${cmd}`));
-    }
-    expect(run(["-h"]).stdout).toBe(h.stdout);
-    expect(run(["help", "nope"]).status).toBe(2);
-    expect(run([]).status).toBe(2);
-  });
-
-  it("soilcell list NAME shows one function with its arguments, their descriptions and its source", () => {
-    const r = run(["list", "soil.limebuffer"]);
-    expect(r.status).toBe(0);
-    expect(r.stdout).toMatch(/^SOIL\.LIMEBUFFER\(buffer_ph, target_ph, calibration, \[soil_ph\], \[depth_cm\], \[unit\]\)/);
-    expect(r.stdout).toMatch(/^ {2}calibration +\S/m);
-    expect(r.stdout).toMatch(/Method and source:\n {2}.*Sikora/);
-    const j = JSON.parse(run(["list", "CEC", "--json"]).stdout);
-    expect(j.parameters.map((p: { name: string }) => p.name)).toEqual(["ca", "mg", "k", "na", "unit", "acidity", "bulk_density"]);
-    const none = run(["list", "SOIL.NOPE"]);
-    expect(none.status).toBe(2);
-    expect(none.stderr).toMatch(/there is no function SOIL\.NOPE; the functions are SOIL\./);
-  });
-
-  it("eval prints every element of a spilled result, an error in its own row", () => {
-    const r = run(["eval", '=SOIL.LABVALUE({"n.d.";1;"<0.05"})']);
+describe("exit codes over the whole run", () => {
+  it("0 when every workbook is clean, 1 when some cell is in error", () => {
+    const root = tempDir("soilcell-exit-");
+    for (const n of [1, 2, 3]) put(path.join(root, "clean", `f${n}.xlsx`), farmBook(3));
+    expect(soilcellIn(root, "recalc", "clean").status).toBe(0);
+    put(path.join(root, "clean", "f4.xlsx"), farmBook(3, 2));
+    const r = soilcellIn(root, "recalc", "clean", "--json");
     expect(r.status).toBe(1);
-    const lines = r.stdout.trim().split("\n");
-    expect(lines.length).toBe(3);
-    expect(lines[0]).toMatch(/^#VALUE! value "n\.d\." is below detection/);
-    expect(lines[1]).toBe("1");
-    expect(lines[2]).toMatch(/^#VALUE! value "<0\.05" is below detection/);
+    expect((JSON.parse(r.stdout) as Summary).totals.cellsInError).toBe(2);
   });
 
-  it("eval explains a formula that needs a workbook, and a ';' separator", () => {
-    const cells = run(["eval", '=SOIL.CMOL(A1,"Ca")']);
-    expect(cells.status).toBe(1);
-    expect(cells.stdout).toMatch(/eval has no workbook/);
-    const semi = run(["eval", '=SOIL.CMOL(200.39;"Ca")']);
-    expect(semi.status).toBe(1);
-    expect(semi.stdout).toMatch(/";" is not an argument separator .*use ","/);
+  it("2 when there is nothing to recalculate, saying why", () => {
+    const root = tempDir("soilcell-empty-");
+    fs.mkdirSync(path.join(root, "empty"));
+    put(path.join(root, "empty", "~$open.xlsx"), "lock");
+    const r = soilcellIn(root, "recalc", "empty");
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toBe("soilcell: no .xlsx or .xlsm workbooks in the folder empty (soilcell's own .recalc. outputs and ~$ lock files are skipped)");
+  });
+});
+
+describe("inputs: patterns, mixed arguments, -o", () => {
+  let root: string;
+  beforeAll(() => {
+    root = tempDir("soilcell-glob-");
+    makeSeason(root);
+  });
+
+  it("a quoted pattern is expanded by soilcell (** across folders), skipping lock files and outputs", () => {
+    const r = soilcellIn(root, "recalc", "season/**/*.xlsx", "-o", "g/", "--json");
+    const s = JSON.parse(r.stdout) as Summary;
+    expect(s.totals.workbooks).toBe(30);
+    expect(s.files.map((f) => f.input).filter((f) => /~\$|\.recalc\.|\._|\.cache/.test(f))).toEqual([]);
+    // The tree under -o mirrors the pattern's fixed folder (season/).
+    expect(fs.existsSync(path.join(root, "g", "south", "paddocks", "farm-11.recalc.xlsx"))).toBe(true);
+  });
+
+  it("a pattern within one folder takes that folder's workbooks only", () => {
+    const s = JSON.parse(soilcellIn(root, "recalc", "season/north/farm-0*.xlsx", "-o", "n/", "--json").stdout) as Summary;
+    expect(s.files.map((f) => f.input)).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9].map((i) => path.join("season", "north", `farm-0${i}.xlsx`)));
+    expect(filesUnder(path.join(root, "n"))).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9].map((i) => `farm-0${i}.recalc.xlsx`));
+  });
+
+  it("a pattern that matches nothing is refused with its reason (exit 2)", () => {
+    const r = soilcellIn(root, "recalc", "season/*.xlsb");
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toBe("soilcell: no .xlsx or .xlsm workbook matches season/*.xlsb");
+  });
+
+  it("files, folders and patterns mixed: each workbook once, whichever way it was named", () => {
+    const s = JSON.parse(soilcellIn(root, "recalc", "season/north", "season/north/farm-02.xlsx", "./season/north/farm-0[12].xlsx", "season/farm-21.xlsx", "-o", "mixed/", "--json").stdout) as Summary;
+    const inputs = s.files.map((f) => f.input);
+    expect(inputs).toHaveLength(12); // 10 farms + 1 broken in north, and farm-21
+    expect(new Set(inputs).size).toBe(12);
+    expect(inputs).toContain(path.join("season", "farm-21.xlsx"));
+  });
+
+  it("-o FILE with several workbooks is a usage error that says to give a folder", () => {
+    const r = soilcellIn(root, "recalc", "season/north", "-o", "all.xlsx");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/^soilcell recalc: -o all\.xlsx names one output file, but there are 11 workbooks; give a folder \(-o all\/\)/);
+    expect(fs.existsSync(path.join(root, "all.xlsx"))).toBe(false);
+  });
+
+  it("-o naming a folder that exists (no trailing slash) writes under it; -o FILE with one workbook names the file", () => {
+    fs.mkdirSync(path.join(root, "existing"));
+    expect(soilcellIn(root, "recalc", "season/farm-22.xlsx", "-o", "existing").status).toBe(0);
+    expect(filesUnder(path.join(root, "existing"))).toEqual(["farm-22.recalc.xlsx"]);
+    expect(soilcellIn(root, "recalc", "season/farm-22.xlsx", "-o", "client.xlsx").status).toBe(0);
+    expect(fs.existsSync(path.join(root, "client.xlsx"))).toBe(true);
+  });
+
+  it("two workbooks that would write one output: the second is refused, the first written", () => {
+    put(path.join(root, "a", "same.xlsx"), farmBook(2));
+    put(path.join(root, "b", "same.xlsx"), farmBook(2));
+    const r = soilcellIn(root, "recalc", "a", "b", "-o", "clash/", "--json");
+    const s = JSON.parse(r.stdout) as Summary;
+    expect(r.status).toBe(2);
+    expect(s.files.find((f) => f.input === path.join("b", "same.xlsx"))!.reason).toMatch(/^refusing to write clash\/same\.recalc\.xlsx: it is written by another workbook of this run/);
+    expect(filesUnder(path.join(root, "clash"))).toEqual(["same.recalc.xlsx"]);
+  });
+
+  it("--values writes the values copies beside the outputs, and a later run skips them", () => {
+    const r = soilcellIn(root, "recalc", "season/south", "--values", "-o", "v/", "--json");
+    const s = JSON.parse(r.stdout) as Summary;
+    expect(s.totals.recalculated).toBe(10);
+    expect(filesUnder(path.join(root, "v")).filter((f) => f.endsWith(".recalc.values.xlsx"))).toHaveLength(10);
+    expect(s.files.find((f) => f.status === "recalculated")!.valuesCopy).toMatch(/^v\/paddocks\/farm-\d\d\.recalc\.values\.xlsx$/);
+    const again = JSON.parse(soilcellIn(root, "recalc", "v", "--json").stdout) as Summary;
+    expect(again.totals.workbooks).toBe(1); // only the folder's refusal: no workbook of its own there
+    expect(again.files[0]!.reason).toMatch(/^no \.xlsx or \.xlsm workbooks in the folder v/);
+  });
+
+  it("--summary with another extension, and --jobs that is not a whole number, are usage errors", () => {
+    expect(soilcellIn(root, "recalc", "season", "--summary", "s.txt").stderr).toMatch(/--summary writes a \.csv or a \.json file/);
+    const r = soilcellIn(root, "recalc", "season", "--jobs", "0");
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--jobs takes a whole number of 1 or more/);
+  });
+
+  it("--summary FILE.json holds what --json prints", () => {
+    soilcellIn(root, "recalc", "season/north", "-o", "sj/", "--summary", "s.json");
+    const s = JSON.parse(fs.readFileSync(path.join(root, "s.json"), "utf8")) as Summary;
+    expect(s.totals.workbooks).toBe(11);
+    expect(s.files).toHaveLength(11);
+  });
+});
+
+describe("--json through a pipe arrives whole, however large", () => {
+  it("over 1 MB of JSON (10,000 cells in error) parses whole", () => {
+    const root = tempDir("soilcell-big-json-");
+    put(path.join(root, "errors.xlsx"), farmBook(10, 10_000));
+    const r = soilcellIn(root, "recalc", "errors.xlsx", "--json");
+    expect(r.status).toBe(1);
+    expect(Buffer.byteLength(r.stdout)).toBeGreaterThan(1024 * 1024);
+    const s = JSON.parse(r.stdout) as Summary;
+    expect(s.errors).toHaveLength(10_000);
+    expect(s.errorGroups[0]!.count).toBe(10_000);
+    expect(s.errors[9_999]!.cell).toBe("B10011");
   });
 });

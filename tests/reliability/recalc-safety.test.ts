@@ -337,7 +337,8 @@ describe("a failing cell does not stop the rest", () => {
     const cli = spawnSync(process.execPath, [BIN, "recalc", input, "-o", path.join(dir, "cli.xlsx")], { encoding: "utf8" });
     expect(cli.status).toBe(1);
     expect(cli.stdout).toMatch(/5 cells in error/);
-    for (const line of ["Lab A!B2  #VALUE! mg_per_kg: \"n.d.\" is not a number", "Lab A!C2  #VALUE!", "Lab A!A3  #VALUE! unknown ion \"Fe\"", "Lab A!A4  #DIV/0!", "O'Brien's farm!A2  #VALUE!"]) {
+    // Sheet names are written as Excel writes them in a reference ('Lab A'!B2), so a cell can be pasted into Go To.
+    for (const line of ["'Lab A'!B2  #VALUE! mg_per_kg: \"n.d.\" is not a number", "'Lab A'!C2  #VALUE!", "'Lab A'!A3  #VALUE! unknown ion \"Fe\"", "'Lab A'!A4  #DIV/0!", "'O''Brien''s farm'!A2  #VALUE!"]) {
       expect(cli.stdout).toContain(line);
     }
   });

@@ -1,146 +1,100 @@
-import fs from "fs";
+/**
+ * `soilcell recalc`: a season of workbooks (files, folders, patterns) recalculated in one run on
+ * every core, with one summary. The engine does the work (src/engine/season); this module reads
+ * the command line, shows progress and says what happened.
+ */
 import path from "path";
-import { CAUTION } from "../../core/about";
-import { RecalcSummary, writeAtomically } from "../../engine/recalc";
-import type { JobOutcome } from "../../engine/season/jobs";
+import { writeAtomically } from "../../engine/recalc";
+import { InputError, seasonInputs } from "../../engine/season/inputs";
 import { defaultJobs, runSeason } from "../../engine/season/pool";
-import { runJob } from "../../engine/season/run-one";
-import { summarizeSeason } from "../../engine/season/summary";
-import { Command, Io, takeFlag, takeValue, usage } from "../command";
-import { expandInputs, valuesPathFor } from "../inputs";
+import { seasonSummary } from "../../engine/season/summary";
+import { WorkbookFileError } from "../../engine/xlsx-package";
+import { UsageError } from "../args";
 import { progressFor } from "../progress";
-import { seasonCsv, seasonText } from "../season-text";
+import { renderSeason, seasonCsv } from "../render/season";
+import { Command } from "./command";
 
-function printOne(s: RecalcSummary, io: Io): void {
-  io.out(`wrote ${s.output}${s.valuesOutput ? ` and the values copy ${s.valuesOutput}` : ""}`);
-  io.out(
-    `${s.formulaCells} formula cells (${s.computedCells} computed, ${s.keptCells} kept as the file had them; ${s.soilFormulaCells} SOIL formulas, ${s.spilledCells} spilled cells) in ${s.sheets} sheets, ${s.seconds.toFixed(1)} s`,
-  );
-  io.out(`${s.errors.length} cells in error`);
-  for (const e of s.errors.slice(0, 50)) io.out(`  ${e.sheet}!${e.cell}  ${e.error} ${e.message}   ${e.formula}`);
-  if (s.errors.length > 50) io.out(`  … and ${s.errors.length - 50} more (use --json for the full list)`);
-  if (s.kept.length) {
-    io.out(`${s.kept.length} formulas the file holds without a value use something the headless engine does not compute; left without a value:`);
-    for (const k of s.kept.slice(0, 20)) io.out(`  ${k.sheet}!${k.cell}  ${k.formula}   (${k.message})`);
-  }
-  io.out(CAUTION);
+function jobsOf(value: string | true | undefined): number {
+  if (value === undefined) return defaultJobs();
+  const n = Number(value);
+  if (!Number.isInteger(n) || n < 1) throw new UsageError(`--jobs takes a whole number of 1 or more (got ${String(value)})`);
+  return n;
 }
 
-const HELP = `usage: soilcell recalc INPUT... [-o OUT] [--values] [--jobs N] [--summary FILE.csv|FILE.json] [--json]
+function summaryFileOf(value: string | true | undefined): { file: string; kind: "csv" | "json" } | undefined {
+  if (typeof value !== "string") return undefined;
+  const ext = path.extname(value).toLowerCase();
+  if (ext !== ".csv" && ext !== ".json") throw new UsageError(`--summary writes a .csv or a .json file (got ${value})`);
+  return { file: value, kind: ext === ".csv" ? "csv" : "json" };
+}
 
-Recalculates every SOIL formula, and every cell that depends on one, in each workbook given, and
-writes a new workbook beside it (NAME.recalc.xlsx); the input is never written. Every other cell
-keeps the value the file had.
-
-INPUT is a workbook, a folder (searched recursively for .xlsx and .xlsm, skipping earlier
-NAME.recalc/NAME.values outputs and Office lock files ~$NAME.xlsx), or a glob pattern such as
-'season/**/*.xlsx' (quote it; the tool expands it). One workbook failing never stops the others.
-
-  -o OUT              one workbook: the output file. Several, or a folder: an output folder;
-                      the input folders' tree is mirrored under it.
-  --values            also write NAME.values.xlsx: every SOIL result as a plain value (other
-                      formulas kept), so LibreOffice, other spreadsheet programs and Excel
-                      without the add-in show the numbers. Send this copy to people without soilcell.
-  --jobs N            worker threads (default: the number of cores, here ${defaultJobs()})
-  --summary FILE      write the season summary, one row per workbook (.csv) or all of it (.json)
-  --json              print the summary as JSON on standard output, nothing else
-
-Exit 0 when every cell computed cleanly, 1 when some cells are in error, 2 when some workbook
-was refused or could not be read (or a usage error), 3 on an unexpected failure.`;
-
-export const recalcCommand: Command = {
+export const command: Command = {
   name: "recalc",
-  summary: "recalculate the SOIL formulas of workbooks, folders or a whole season",
-  help: HELP,
+  summary: "recalculate workbooks (files, folders, patterns) into new files, with a season summary",
+  usage: ["recalc IN.xlsx|FOLDER|'PATTERN' ... [-o OUT.xlsx|DIR/] [--values] [--jobs N] [--summary FILE.csv|FILE.json] [--json]"],
+  about: [
+    "Opens each workbook, computes every SOIL formula and the cells that depend on them with the same code as the add-in, and writes a new file beside it, NAME.recalc.xlsx; every other cell keeps the value it was saved with. The input is never written.",
+    "Give any mix of files, folders and patterns. A folder is searched with its subfolders for .xlsx and .xlsm workbooks; soilcell's own outputs (NAME.recalc.xlsx), Office's lock files (~$NAME.xlsx) and hidden files are skipped. Patterns are expanded by soilcell itself, so quote them ('season/**/*.xlsx'); * matches within a folder, ** across folders.",
+    "With -o DIR/ (a trailing slash, or a folder that exists) the outputs go under DIR, mirroring each input folder's tree; with one workbook, -o OUT.xlsx names the output file.",
+    "--values also writes NAME.recalc.values.xlsx beside each output: every SOIL result as a plain value (every other formula and every style kept), with a note in the file's properties saying which soilcell version computed it and when. Send that copy to anyone without the add-in: LibreOffice, other spreadsheet programs and Excel without soilcell show the numbers; keep the .recalc.xlsx, which keeps the formulas.",
+    "Workbooks are recalculated in parallel, one per core unless --jobs says otherwise; one workbook refused or failing never stops the others. On a terminal a progress bar shows the workbooks done, the cells computed and the time to go; otherwise one line per workbook. At the end a summary: workbooks recalculated and refused (with the reason), formula cells computed, cells in error grouped by message with file!sheet!cell, and the time taken.",
+    "Exit code over the whole run: 0 every workbook recalculated with no cell in error; 1 some cells in error; 2 some workbook refused or unreadable (or nothing to recalculate); 3 a failure in soilcell itself.",
+  ],
+  options: [
+    { name: "--output", short: "-o", value: "PATH", about: "the output file (one workbook), or a folder DIR/ to write under, mirroring the inputs' tree" },
+    { name: "--values", about: "also write NAME.recalc.values.xlsx, SOIL results as plain values, for programs without the add-in" },
+    { name: "--jobs", short: "-j", value: "N", about: `workbooks at once (default: the number of cores, here ${defaultJobs()})` },
+    { name: "--summary", value: "FILE", about: "write the summary as a table, one row per workbook: FILE.csv, or FILE.json with every cell in error" },
+    { name: "--json", about: "print the whole summary as JSON on standard output, and nothing else" },
+  ],
+  examples: [
+    "soilcell recalc season.xlsx                         # writes season.recalc.xlsx beside it",
+    "soilcell recalc season/ -o out/ --summary season.csv",
+    "soilcell recalc 'season/**/*.xlsx' --values --jobs 2",
+    "soilcell recalc season.xlsx -o client.xlsx --json",
+  ],
   async run(args, io) {
-    const rest = [...args];
-    const json = takeFlag(rest, "--json");
-    const values = takeFlag(rest, "--values");
-    const output = takeValue(rest, "-o", "--output");
-    const jobsText = takeValue(rest, "-j", "--jobs");
-    const summaryFile = takeValue(rest, "--summary");
-    if (output === null) return usage(recalcCommand, io, "-o needs a file or folder after it");
-    if (jobsText === null || (jobsText !== undefined && !/^[1-9]\d{0,3}$/.test(jobsText))) return usage(recalcCommand, io, "--jobs needs a whole number of threads, 1 or more");
-    if (summaryFile === null || (summaryFile !== undefined && !/\.(csv|json)$/i.test(summaryFile))) return usage(recalcCommand, io, "--summary needs a file name ending in .csv or .json");
-    const unknown = rest.find((a) => a.startsWith("-") && a !== "-");
-    if (unknown) return usage(recalcCommand, io, `unknown option ${unknown}`);
-    if (!rest.length) return usage(recalcCommand, io, "no workbook given");
-
-    // One workbook named as a file: its own summary, as it always was.
-    // (A missing file, a pipe or a device is refused by the recalculator itself, with its reason.)
-    const first = rest[0] as string;
-    const one = rest.length === 1 && !isDir(first) && !(isGlob(first) && !exists(first)) && !(output !== undefined && (isDir(output) || /[\\/]$/.test(output)));
-    if (one && summaryFile === undefined) {
-      const input = rest[0] as string;
-      const expanded = expandInputs([input], undefined, values);
-      const job = expanded.jobs[0];
-      if (!job) {
-        io.err(`soilcell: ${expanded.skipped[0]?.input ?? input}: ${expanded.skipped[0]?.reason ?? "not a workbook"}`);
-        return 2;
-      }
-      const out = output ?? job.output;
-      const outcome = await runJob(values ? { input, output: out, valuesOutput: valuesPathFor(out) } : { input, output: out });
-      if (outcome.kind !== "recalculated") {
-        io.err(`soilcell: ${outcome.reason}`);
-        return outcome.kind === "failed" ? 3 : 2;
-      }
-      if (json) io.out(JSON.stringify(outcome.summary, null, 2));
-      else printOne(outcome.summary, io);
-      return outcome.summary.errors.length ? 1 : 0;
+    if (!args.positional.length) throw new UsageError("give the workbooks to recalculate: files, folders or patterns");
+    const json = args.options.has("--json");
+    const jobs = jobsOf(args.options.get("--jobs"));
+    const summaryFile = summaryFileOf(args.options.get("--summary"));
+    const output = args.options.get("--output");
+    let inputs;
+    try {
+      inputs = seasonInputs(args.positional, { ...(typeof output === "string" ? { output } : {}), values: args.options.has("--values") });
+    } catch (e) {
+      if (e instanceof InputError) throw new UsageError(e.message);
+      throw e;
     }
+    const total = inputs.items.length + inputs.refused.length;
+    if (!json) for (const r of inputs.refused) io.err(total > 1 ? `soilcell: ${r.input}: ${r.reason}` : `soilcell: ${r.reason}`);
 
-    if (output !== undefined && isFile(output)) return usage(recalcCommand, io, `-o ${output} is a file; for several workbooks give an output folder`);
     const started = process.hrtime.bigint();
-    const expanded = expandInputs(rest, output, values);
-    for (const j of expanded.jobs) {
-      for (const o of [j.output, j.valuesOutput]) if (o) fs.mkdirSync(path.dirname(o), { recursive: true });
+    const progress = progressFor(io, json || !inputs.items.length ? "quiet" : io.tty ? "bar" : "lines", inputs.items.length);
+    let results;
+    try {
+      results = await runSeason(inputs.items, { jobs, onProgress: (item, line) => progress.progress(item, line), onDone: (r) => progress.done(r) });
+    } finally {
+      progress.stop();
     }
-    const workers = Math.max(1, Math.min(jobsText ? Number(jobsText) : defaultJobs(), expanded.jobs.length || 1));
-    const progress = progressFor(io, expanded.jobs.length, json);
-    const outcomes = await runSeason(expanded.jobs, { jobs: workers, onOutcome: (o, done, total) => progress.update(o, done, total) });
-    progress.stop();
-    const refused: JobOutcome[] = expanded.refused.map((r) => ({ kind: "refused", job: { input: r.input, output: "" }, reason: r.reason, seconds: 0 }));
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;
-    const summary = summarizeSeason([...outcomes, ...refused], expanded.skipped, seconds, workers);
-    if (summaryFile !== undefined) {
-      const body = /\.csv$/i.test(summaryFile) ? seasonCsv(summary) : `${JSON.stringify(summary, null, 2)}\n`;
+    const summary = seasonSummary(inputs.refused, results, { seconds, jobs: Math.max(1, Math.min(jobs, inputs.items.length)) });
+
+    let code: number = summary.exitCode;
+    let written = false;
+    if (summaryFile) {
+      const text = summaryFile.kind === "csv" ? seasonCsv(summary) : `${JSON.stringify(summary, null, 2)}\n`;
       try {
-        if (fs.existsSync(summaryFile) && !fs.lstatSync(summaryFile).isFile()) throw new Error("it exists and is not a regular file");
-        writeAtomically(summaryFile, Buffer.from(body, "utf8"));
+        writeAtomically(summaryFile.file, Buffer.from(text, "utf8"));
+        written = true;
       } catch (e) {
-        io.err(`soilcell: cannot write the summary ${summaryFile}: ${(e as Error).message}`);
-        return Math.max(summary.exitCode, 2);
+        if (!(e instanceof WorkbookFileError)) throw e;
+        io.err(`soilcell: the summary: ${e.message}`);
+        code = Math.max(code, 2);
       }
     }
-    if (json) io.out(JSON.stringify({ ...summary, caution: CAUTION }, null, 2));
-    else for (const l of seasonText(summary)) io.out(l);
-    return summary.exitCode;
+    if (json) io.out(JSON.stringify(summary, null, 2));
+    else renderSeason(summary, (l) => io.out(l), summaryFile && written ? summaryFile.file : undefined);
+    return code;
   },
 };
-
-function exists(p: string): boolean {
-  try {
-    fs.statSync(p);
-    return true;
-  } catch {
-    return false;
-  }
-}
-
-const isGlob = (p: string) => /[*?[\]{}]/.test(p);
-
-function isFile(p: string): boolean {
-  try {
-    return fs.statSync(p).isFile();
-  } catch {
-    return false;
-  }
-}
-
-function isDir(p: string): boolean {
-  try {
-    return fs.statSync(p).isDirectory();
-  } catch {
-    return false;
-  }
-}

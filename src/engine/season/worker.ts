@@ -1,11 +1,23 @@
-/** A worker thread of a season run: recalculates the workbooks it is sent, one at a time. */
+/**
+ * A worker thread of a season run: recalculates the workbooks the main thread sends, one at a
+ * time, and answers each with its outcome (and progress lines while it works).
+ */
 import { parentPort } from "worker_threads";
-import type { SeasonJob } from "./jobs";
-import { runJob } from "./run-one";
+import { SeasonItem } from "./inputs";
+import { recalcOne } from "./one";
 
-parentPort?.on("message", (job: SeasonJob) => {
-  runJob(job).then(
-    (outcome) => parentPort?.postMessage(outcome),
-    (e) => parentPort?.postMessage({ kind: "failed", job, reason: `unexpected failure: ${(e as Error)?.message ?? String(e)}`, seconds: 0 }),
-  );
-});
+export interface Job {
+  readonly id: number;
+  readonly item: SeasonItem;
+  readonly maxCells?: number;
+}
+
+const port = parentPort;
+if (port) {
+  port.on("message", (job: Job) => {
+    void recalcOne(job.item, {
+      ...(job.maxCells !== undefined ? { maxCells: job.maxCells } : {}),
+      progress: (line) => port.postMessage({ id: job.id, progress: line }),
+    }).then((outcome) => port.postMessage({ id: job.id, outcome }));
+  });
+}

@@ -1,0 +1,61 @@
+/**
+ * The season summary as data (src/engine/season/summary.ts): rows, totals, cells in error grouped
+ * by message, and the exit code over the whole run. The per-file figures are invented.
+ */
+import { RecalcSummary } from "../../../src/engine/recalc";
+import { FileResult } from "../../../src/engine/season/pool";
+import { seasonSummary, sheetCell } from "../../../src/engine/season/summary";
+
+function done(input: string, errors: { sheet: string; cell: string; message: string }[] = []): FileResult {
+  const summary: RecalcSummary = {
+    input,
+    output: input.replace(".xlsx", ".recalc.xlsx"),
+    sheets: 1,
+    formulaCells: 10,
+    computedCells: 8,
+    keptCells: 2,
+    soilFormulaCells: 6,
+    spilledCells: 3,
+    errors: errors.map((e) => ({ ...e, formula: "=SOIL.CMOL(A1,\"Xx\")", error: "#VALUE!" })),
+    kept: [],
+    seconds: 0.5,
+  };
+  return { item: { input, output: summary.output }, outcome: { kind: "recalculated", summary } };
+}
+
+describe("seasonSummary", () => {
+  it("totals the rows and groups cells in error by message, most frequent first, each as file!sheet!cell", () => {
+    const s = seasonSummary([], [done("a.xlsx", [{ sheet: "Lab", cell: "B2", message: "m1" }, { sheet: "Lab A", cell: "B3", message: "m2" }]), done("b.xlsx", [{ sheet: "Lab", cell: "C9", message: "m2" }])], { seconds: 0.6, jobs: 2 });
+    expect(s.totals).toMatchObject({ workbooks: 2, recalculated: 2, refused: 0, formulaCells: 20, computedCells: 16, keptCells: 4, soilFormulaCells: 12, spilledCells: 6, cellsInError: 3, withErrors: 2 });
+    expect(s.errorGroups.map((g) => [g.message, g.count, g.workbooks, g.cells])).toEqual([
+      ["m2", 2, 2, ["a.xlsx!'Lab A'!B3", "b.xlsx!Lab!C9"]],
+      ["m1", 1, 1, ["a.xlsx!Lab!B2"]],
+    ]);
+    expect(s.errors.map((e) => e.file)).toEqual(["a.xlsx", "a.xlsx", "b.xlsx"]);
+    expect(s.workbookSeconds).toBe(1);
+    expect(s.exitCode).toBe(1);
+  });
+
+  it("exit code over the run: 0 clean, 1 cells in error, 2 a workbook refused, 3 a failure in soilcell", () => {
+    const refused = { item: { input: "r.xlsx", output: "r.recalc.xlsx" }, outcome: { kind: "refused" as const, reason: "not a workbook", seconds: 0 } };
+    const failed = { item: { input: "f.xlsx", output: "f.recalc.xlsx" }, outcome: { kind: "failed" as const, reason: "unexpected failure: x", seconds: 0 } };
+    const run = { seconds: 1, jobs: 1 };
+    expect(seasonSummary([], [done("a.xlsx")], run).exitCode).toBe(0);
+    expect(seasonSummary([], [done("a.xlsx", [{ sheet: "S", cell: "A1", message: "m" }])], run).exitCode).toBe(1);
+    expect(seasonSummary([], [done("a.xlsx", [{ sheet: "S", cell: "A1", message: "m" }]), refused], run).exitCode).toBe(2);
+    expect(seasonSummary([{ input: "empty/", reason: "no workbooks" }], [], run).exitCode).toBe(2);
+    expect(seasonSummary([], [refused, failed], run).exitCode).toBe(3);
+    const s = seasonSummary([{ input: "empty/", reason: "no workbooks" }], [refused], run);
+    expect(s.files.map((f) => [f.input, f.status, f.reason])).toEqual([
+      ["empty/", "refused", "no workbooks"],
+      ["r.xlsx", "refused", "not a workbook"],
+    ]);
+  });
+
+  it("sheet names are quoted as Excel quotes them in a reference", () => {
+    expect(sheetCell("Lab", "A1")).toBe("Lab!A1");
+    expect(sheetCell("Lab A", "A1")).toBe("'Lab A'!A1");
+    expect(sheetCell("O'Brien", "A1")).toBe("'O''Brien'!A1");
+    expect(sheetCell("2025", "A1")).toBe("'2025'!A1");
+  });
+});
