@@ -1,0 +1,244 @@
+/**
+ * Workbooks made from a report template's report sheet: one sheet (or, for the office engine, many
+ * reports as the sheets of one workbook), every cell a value, with the template's styles, theme,
+ * page setup, print area and the parts the sheet points at (drawings, images, comments). Nothing
+ * else of the template goes with it: no other sheet, no shared strings (the text of every sheet
+ * would travel with each client's report), no defined names beyond the print area and titles.
+ */
+import path from "path";
+import type { Sheet } from "./book";
+import { customPropertiesXml, valuesStamp } from "./recalc";
+import { rewriteStartTag } from "./sheet-patch";
+import { Tok, XmlScanner, encodeXmlText } from "./xml";
+import { XlsxPackage, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
+import { ZipOut, writeZip } from "./zip";
+
+const MAIN = "http://schemas.openxmlformats.org/spreadsheetml/2006/main";
+const REL = "http://schemas.openxmlformats.org/officeDocument/2006/relationships";
+const PKG_REL = "http://schemas.openxmlformats.org/package/2006/relationships";
+const CT = {
+  workbook: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml",
+  worksheet: "application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml",
+  styles: "application/vnd.openxmlformats-officedocument.spreadsheetml.styles+xml",
+  theme: "application/vnd.openxmlformats-officedocument.theme+xml",
+  core: "application/vnd.openxmlformats-package.core-properties+xml",
+  custom: "application/vnd.openxmlformats-officedocument.custom-properties+xml",
+  rels: "application/vnd.openxmlformats-package.relationships+xml",
+};
+/** Relationship types of a report sheet that a values copy cannot keep (they need workbook parts or names). */
+const DROPPED = [/\/table$/, /\/pivotTable$/, /\/queryTable$/, /\/slicer$/, /\/timeline$/];
+
+interface Part {
+  readonly name: string;
+  readonly data: Buffer | string;
+}
+
+export interface ReportSheet {
+  /** The sheet's XML, values only. */
+  readonly xml: string;
+  /** The sheet's name in the workbook (at most 31 characters, unique within it). */
+  readonly name: string;
+}
+
+/** Everything a report workbook takes from its template, read once. */
+export class ReportPackager {
+  private readonly defaults: [string, string][] = [];
+  private readonly overrides = new Map<string, string>();
+  private readonly styles?: string;
+  private readonly theme?: string;
+  private readonly date1904: boolean;
+  private readonly printNames: { name: string; text: string }[];
+  /** Whether the sheet holds charts (their caches hold the template's values: said in the summary). */
+  readonly hasCharts: boolean;
+  /** Relationship types left out of the copies (tables, pivot tables). */
+  readonly dropped: string[] = [];
+
+  constructor(
+    private readonly pkg: XlsxPackage,
+    private readonly sheet: Sheet,
+  ) {
+    const types = pkg.text("[Content_Types].xml") ?? "";
+    const s = new XmlScanner(types);
+    for (let t = s.next(); t !== Tok.End; t = s.next()) {
+      if (t !== Tok.Open) continue;
+      if (s.local === "Default") this.defaults.push([s.attr("Extension") ?? "", s.attr("ContentType") ?? ""]);
+      else if (s.local === "Override") this.overrides.set((s.attr("PartName") ?? "").replace(/^\//, ""), s.attr("ContentType") ?? "");
+    }
+    const rels = readRelationships(pkg.text(relsPathOf(pkg.workbookPath)));
+    const target = (type: string) => {
+      const r = rels.find((x) => x.type.endsWith(type) && !x.external);
+      return r ? resolveTarget(pkg.workbookPath, r.target) : undefined;
+    };
+    this.styles = target("/styles");
+    this.theme = target("/theme");
+    this.date1904 = pkg.date1904;
+    this.printNames = pkg.definedNames
+      .filter((d) => d.localSheetId === sheet.index && /^_xlnm\.(Print_Area|Print_Titles)$/i.test(d.name))
+      .map((d) => ({ name: d.name, text: d.text }));
+    this.hasCharts = this.closureHas(sheet.path, /\/chart$/);
+  }
+
+  /** A workbook of one report (the sheet keeps the template's name). */
+  single(sheetXml: string, title: string, note: string): Buffer {
+    return this.build([{ xml: sheetXml, name: this.sheet.name }], title, note, "");
+  }
+
+  /** One workbook whose sheets are many reports, for one pass of the office engine. */
+  combined(sheets: readonly ReportSheet[], title: string): Buffer {
+    return this.build(sheets, title, `reports from a template, for conversion (${valuesStamp()})`, ".r");
+  }
+
+  private build(sheets: readonly ReportSheet[], title: string, note: string, suffixStem: string): Buffer {
+    const parts: Part[] = [];
+    const overrides = new Map<string, string>();
+    const copied = new Map<string, string>();
+    const wbRels: string[] = [];
+    const sheetEls: string[] = [];
+    const names: string[] = [];
+    sheets.forEach((sh, i) => {
+      const n = i + 1;
+      const partName = `xl/worksheets/sheet${n}.xml`;
+      const suffix = suffixStem ? `${suffixStem}${n}` : "";
+      parts.push({ name: partName, data: i === 0 || !suffixStem ? sh.xml : unselect(sh.xml) });
+      overrides.set(partName, CT.worksheet);
+      const rels = this.copyRels(this.sheet.path, partName, suffix, parts, overrides, copied);
+      if (rels) parts.push({ name: relsPathOf(partName), data: rels });
+      wbRels.push(`<Relationship Id="rIdS${n}" Type="${REL}/worksheet" Target="worksheets/sheet${n}.xml"/>`);
+      sheetEls.push(`<sheet name="${encodeXmlText(sh.name)}" sheetId="${n}" r:id="rIdS${n}"/>`);
+      for (const p of this.printNames) names.push(`<definedName name="${p.name}" localSheetId="${i}">${encodeXmlText(renameSheet(p.text, this.sheet.name, sh.name))}</definedName>`);
+    });
+    if (this.styles) {
+      parts.push({ name: "xl/styles.xml", data: this.pkg.text(this.styles) ?? "" });
+      overrides.set("xl/styles.xml", CT.styles);
+      wbRels.push(`<Relationship Id="rIdStyles" Type="${REL}/styles" Target="styles.xml"/>`);
+    }
+    if (this.theme) {
+      parts.push({ name: "xl/theme/theme1.xml", data: this.pkg.text(this.theme) ?? "" });
+      overrides.set("xl/theme/theme1.xml", CT.theme);
+      wbRels.push(`<Relationship Id="rIdTheme" Type="${REL}/theme" Target="theme/theme1.xml"/>`);
+    }
+    const workbook =
+      `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<workbook xmlns="${MAIN}" xmlns:r="${REL}">` +
+      `<workbookPr${this.date1904 ? ' date1904="1"' : ""}/><bookViews><workbookView activeTab="0"/></bookViews>` +
+      `<sheets>${sheetEls.join("")}</sheets>${names.length ? `<definedNames>${names.join("")}</definedNames>` : ""}</workbook>`;
+    parts.push({ name: "xl/workbook.xml", data: workbook });
+    overrides.set("xl/workbook.xml", CT.workbook);
+    parts.push({ name: "xl/_rels/workbook.xml.rels", data: relsXml(wbRels) });
+    const now = new Date().toISOString().replace(/\.\d+Z$/, "Z");
+    parts.push({
+      name: "docProps/core.xml",
+      data:
+        '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<cp:coreProperties xmlns:cp="http://schemas.openxmlformats.org/package/2006/metadata/core-properties" xmlns:dc="http://purl.org/dc/elements/1.1/" xmlns:dcterms="http://purl.org/dc/terms/" xmlns:xsi="http://www.w3.org/2001/XMLSchema-instance">' +
+        `<dc:title>${encodeXmlText(title)}</dc:title><dcterms:created xsi:type="dcterms:W3CDTF">${now}</dcterms:created></cp:coreProperties>`,
+    });
+    overrides.set("docProps/core.xml", CT.core);
+    parts.push({ name: "docProps/custom.xml", data: customPropertiesXml(note) });
+    overrides.set("docProps/custom.xml", CT.custom);
+    parts.push({
+      name: "_rels/.rels",
+      data: relsXml([
+        `<Relationship Id="rId1" Type="${REL}/officeDocument" Target="xl/workbook.xml"/>`,
+        `<Relationship Id="rId2" Type="${PKG_REL}/metadata/core-properties" Target="docProps/core.xml"/>`,
+        `<Relationship Id="rId3" Type="${REL}/custom-properties" Target="docProps/custom.xml"/>`,
+      ]),
+    });
+    const defaults = new Map<string, string>([
+      ["rels", CT.rels],
+      ["xml", "application/xml"],
+    ]);
+    for (const [ext, type] of this.defaults) if (!defaults.has(ext.toLowerCase())) defaults.set(ext.toLowerCase(), type);
+    const types =
+      '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types">' +
+      [...defaults].map(([e, t]) => `<Default Extension="${encodeXmlText(e)}" ContentType="${encodeXmlText(t)}"/>`).join("") +
+      [...overrides].map(([p, t]) => `<Override PartName="/${encodeXmlText(p)}" ContentType="${encodeXmlText(t)}"/>`).join("") +
+      "</Types>";
+    const out: ZipOut[] = [{ name: "[Content_Types].xml", data: Buffer.from(types, "utf8") }, ...parts.map((p) => ({ name: p.name, data: typeof p.data === "string" ? Buffer.from(p.data, "utf8") : p.data }))];
+    return writeZip(out);
+  }
+
+  /** The relationships of a copied part, its targets copied too (XML parts renamed by `suffix`, binary parts shared). */
+  private copyRels(src: string, dst: string, suffix: string, parts: Part[], overrides: Map<string, string>, copied: Map<string, string>): string | undefined {
+    const rels = readRelationships(this.pkg.text(relsPathOf(src)));
+    if (!rels.length) return undefined;
+    const lines: string[] = [];
+    for (const r of rels) {
+      if (r.external) {
+        lines.push(`<Relationship Id="${encodeXmlText(r.id)}" Type="${encodeXmlText(r.type)}" Target="${encodeXmlText(r.target)}" TargetMode="External"/>`);
+        continue;
+      }
+      if (DROPPED.some((d) => d.test(r.type))) {
+        if (!this.dropped.includes(r.type)) this.dropped.push(r.type);
+        continue;
+      }
+      const from = resolveTarget(src, r.target);
+      const to = this.copyPart(from, suffix, parts, overrides, copied);
+      if (to === undefined) continue;
+      lines.push(`<Relationship Id="${encodeXmlText(r.id)}" Type="${encodeXmlText(r.type)}" Target="${encodeXmlText(path.posix.relative(path.posix.dirname(dst), to))}"/>`);
+    }
+    return relsXml(lines);
+  }
+
+  private copyPart(src: string, suffix: string, parts: Part[], overrides: Map<string, string>, copied: Map<string, string>): string | undefined {
+    const key = `${suffix}|${src}`;
+    const known = copied.get(key);
+    if (known !== undefined) return known;
+    const isXml = /\.(xml|vml)$/i.test(src);
+    const name = isXml && suffix ? src.replace(/(\.[^./]+)$/, `${suffix}$1`) : src;
+    if (!isXml && copied.has(`|${src}`)) return name;
+    const data = isXml ? this.pkg.text(src) : this.pkg.bytes(src);
+    if (data === undefined) return undefined;
+    copied.set(key, name);
+    if (!isXml) copied.set(`|${src}`, name);
+    parts.push({ name, data });
+    const type = this.overrides.get(src);
+    if (type) overrides.set(name, type);
+    const rels = this.copyRels(src, name, suffix, parts, overrides, copied);
+    if (rels) parts.push({ name: relsPathOf(name), data: rels });
+    return name;
+  }
+
+  private closureHas(src: string, type: RegExp, seen = new Set<string>()): boolean {
+    if (seen.has(src)) return false;
+    seen.add(src);
+    for (const r of readRelationships(this.pkg.text(relsPathOf(src)))) {
+      if (r.external) continue;
+      if (type.test(r.type)) return true;
+      if (this.closureHas(resolveTarget(src, r.target), type, seen)) return true;
+    }
+    return false;
+  }
+}
+
+function relsXml(lines: readonly string[]): string {
+  return `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Relationships xmlns="${PKG_REL}">${lines.join("")}</Relationships>`;
+}
+
+/** A sheet name as a formula writes it before "!". */
+function quoteSheet(name: string): string {
+  return /^[A-Za-z_][A-Za-z0-9_.]*$/.test(name) && !/^[A-Za-z]{1,3}[0-9]+$/.test(name) ? name : `'${name.replace(/'/g, "''")}'`;
+}
+
+/** A print area's text with the template sheet's name replaced (quoted or not, as written). */
+function renameSheet(text: string, from: string, to: string): string {
+  if (from === to) return text;
+  const quoted = `'${from.replace(/'/g, "''")}'!`;
+  let out = text.split(quoted).join(`${quoteSheet(to)}!`);
+  if (/^[A-Za-z_][A-Za-z0-9_.]*$/.test(from)) out = out.replace(new RegExp(`(^|[,(])${from.replace(/\./g, "\\.")}!`, "g"), `$1${quoteSheet(to)}!`);
+  return out;
+}
+
+/** A sheet that is not the first of a workbook is not selected (LibreOffice would group selected sheets). */
+function unselect(xml: string): string {
+  const s = new XmlScanner(xml);
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t === Tok.Open && s.local === "sheetView") {
+      if (s.attr("tabSelected") === undefined) return xml;
+      const tag = xml.slice(s.start, s.end);
+      const self = tag.endsWith("/>");
+      const open = rewriteStartTag(self ? `${tag.slice(0, -2)}>` : tag, (n) => n === "tabSelected", "");
+      return xml.slice(0, s.start) + (self ? `${open.slice(0, -1)}/>` : open) + xml.slice(s.end);
+    }
+    if (t === Tok.Open && s.local === "sheetData") return xml;
+  }
+  return xml;
+}
