@@ -10,6 +10,7 @@ import { evaluateFormula, EvalResult } from "../engine/evaluate";
 import { REGISTRY } from "../engine/registry";
 import { RecalcRefused, RecalcSummary, defaultOutputPath, recalcWorkbook } from "../engine/recalc";
 import { WorkbookFileError } from "../engine/xlsx-package";
+import { REPORT_USAGE, runReport } from "./report";
 
 export interface Io {
   out(line: string): void;
@@ -19,7 +20,8 @@ export interface Io {
 const USAGE = `usage:
   soilcell eval '=SOIL.CONVERT(10,"mg/kg","kg/ha",15,1.3)' [--json]
   soilcell recalc IN.xlsx [-o OUT.xlsx] [--json]
-  soilcell list [--json]`;
+  soilcell list [--json]
+${REPORT_USAGE}`;
 
 function formatValue(v: unknown): string {
   if (Array.isArray(v)) return v.map((row) => (row as unknown[]).map(formatValue).join("\t")).join("\n");
@@ -139,6 +141,8 @@ export async function main(argv: string[], io: Io): Promise<number> {
       return runRecalc(args, io);
     case "list":
       return runList(args, io);
+    case "report":
+      return runReport(args, io);
     case "--help":
     case "-h":
     case "help":

@@ -7,6 +7,7 @@
  */
 import path from "path";
 import type { Sheet } from "./book";
+import { columnIndex } from "./cellref";
 import { customPropertiesXml, valuesStamp } from "./recalc";
 import { rewriteStartTag } from "./sheet-patch";
 import { Tok, XmlScanner, encodeXmlText } from "./xml";
@@ -83,9 +84,30 @@ export class ReportPackager {
     return this.build([{ xml: sheetXml, name: this.sheet.name }], title, note, "");
   }
 
-  /** One workbook whose sheets are many reports, for one pass of the office engine. */
+  /**
+   * One workbook whose sheets are many reports, for one pass of the office engine. A sheet set to
+   * fit one page is given the fixed scale that fits it (`fitScale`): LibreOffice takes about 2.5
+   * times as long to lay out a page it must fit itself (measured, 100 reports: 7.1 s against 2.8 s).
+   */
   combined(sheets: readonly ReportSheet[], title: string): Buffer {
-    return this.build(sheets, title, `reports from a template, for conversion (${valuesStamp()})`, ".r");
+    const fixed = this.fixedScale;
+    const xmls = fixed ? sheets.map((s) => ({ name: s.name, xml: s.xml.split(fixed.from).join(fixed.to).split(fixed.prFrom).join(fixed.prTo) })) : sheets;
+    return this.build(xmls, title, `reports from a template, for conversion (${valuesStamp()})`, ".r");
+  }
+
+  private fixedScaleMemo: { from: string; to: string; prFrom: string; prTo: string; scale: number } | null | undefined;
+
+  /** The page setup with a fixed scale in place of "fit to one page", found once; null when the sheet is not set to fit one page. */
+  get fixedScale(): { from: string; to: string; prFrom: string; prTo: string; scale: number } | null {
+    if (this.fixedScaleMemo === undefined) this.fixedScaleMemo = fitScale(this.sheet.xml, this.printArea());
+    return this.fixedScaleMemo;
+  }
+
+  private printArea(): { r1: number; c1: number; r2: number; c2: number } | undefined {
+    const p = this.printNames.find((n) => /Print_Area$/i.test(n.name));
+    const m = p ? /\$?([A-Z]{1,3})\$?(\d+):\$?([A-Z]{1,3})\$?(\d+)$/.exec(p.text.trim()) : null;
+    if (!m || p!.text.includes(",")) return undefined;
+    return { c1: columnIndex(m[1]!), r1: Number(m[2]) - 1, c2: columnIndex(m[3]!), r2: Number(m[4]) - 1 };
   }
 
   private build(sheets: readonly ReportSheet[], title: string, note: string, suffixStem: string): Buffer {
@@ -241,4 +263,98 @@ function unselect(xml: string): string {
     if (t === Tok.Open && s.local === "sheetData") return xml;
   }
   return xml;
+}
+
+/** Paper sizes by SpreadsheetML paperSize code, in points (ECMA-376 Part 1, 18.3.1.64 pageSetup; from memory). */
+const PAPER: Record<number, [number, number]> = {
+  1: [612, 792], // Letter
+  5: [612, 1008], // Legal
+  8: [841.89, 1190.55], // A3
+  9: [595.28, 841.89], // A4
+  11: [419.53, 595.28], // A5
+};
+
+/** Excel's column width (characters of the default font's digit, 7 px for 11-point Calibri) in points, at 96 px an inch. */
+function widthPoints(w: number): number {
+  return Math.trunc(((256 * w + Math.trunc(128 / 7)) / 256) * 7) * 0.75;
+}
+
+/**
+ * The scale at which a sheet's print area fits one page, from its column widths, row heights,
+ * paper and margins, with 4 % to spare for the office engine's own measures; the page-setup tags
+ * to swap. Null unless the sheet is set to fit one page wide and one tall and every row of the
+ * print area that has cells has a height of its own (others grow to fit their text).
+ */
+function fitScale(xml: string, area: { r1: number; c1: number; r2: number; c2: number } | undefined): { from: string; to: string; prFrom: string; prTo: string; scale: number } | null {
+  if (!area) return null;
+  const s = new XmlScanner(xml);
+  let defaultRow = 15;
+  let defaultCol = 8.43;
+  const cols: { min: number; max: number; width: number; hidden: boolean }[] = [];
+  const rows = new Map<number, { ht?: number; hidden: boolean }>();
+  let setup: { tag: string; attrs: Map<string, string> } | undefined;
+  let pr: string | undefined;
+  let margins = { left: 0.7, right: 0.7, top: 0.75, bottom: 0.75 };
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t !== Tok.Open) continue;
+    switch (s.local) {
+      case "sheetFormatPr":
+        defaultRow = Number(s.attr("defaultRowHeight") ?? defaultRow);
+        if (s.attr("defaultColWidth")) defaultCol = Number(s.attr("defaultColWidth"));
+        break;
+      case "col":
+        cols.push({ min: Number(s.attr("min")), max: Number(s.attr("max")), width: Number(s.attr("width") ?? defaultCol), hidden: s.attr("hidden") === "1" || s.attr("hidden") === "true" });
+        break;
+      case "row": {
+        const r = Number(s.attr("r")) - 1;
+        const custom = s.attr("customHeight") === "1" || s.attr("customHeight") === "true";
+        rows.set(r, { ...(custom && s.attr("ht") ? { ht: Number(s.attr("ht")) } : {}), hidden: s.attr("hidden") === "1" || s.attr("hidden") === "true" });
+        break;
+      }
+      case "c":
+      case "f":
+      case "v":
+      case "is":
+        break;
+      case "pageSetUpPr":
+        if (s.attr("fitToPage") === "1" || s.attr("fitToPage") === "true") pr = xml.slice(s.start, s.end);
+        break;
+      case "pageMargins":
+        margins = { left: Number(s.attr("left") ?? 0.7), right: Number(s.attr("right") ?? 0.7), top: Number(s.attr("top") ?? 0.75), bottom: Number(s.attr("bottom") ?? 0.75) };
+        break;
+      case "pageSetup":
+        setup = { tag: xml.slice(s.start, s.end), attrs: s.attrs() };
+        break;
+      default:
+        break;
+    }
+  }
+  if (!pr || !setup) return null;
+  const a = setup.attrs;
+  if ((a.get("fitToWidth") ?? "1") !== "1" || (a.get("fitToHeight") ?? "1") !== "1") return null;
+  const paper = PAPER[Number(a.get("paperSize") ?? 9)];
+  if (!paper) return null;
+  const [pw, ph] = a.get("orientation") === "landscape" ? [paper[1], paper[0]] : paper;
+  let width = 0;
+  for (let c = area.c1; c <= area.c2; c++) {
+    const col = cols.find((x) => c + 1 >= x.min && c + 1 <= x.max);
+    if (col?.hidden) continue;
+    width += widthPoints(col ? col.width : defaultCol);
+  }
+  let height = 0;
+  for (let r = area.r1; r <= area.r2; r++) {
+    const row = rows.get(r);
+    if (row?.hidden) continue;
+    // A row of its own height only: LibreOffice grows other rows to fit their text, which no scale fixed here can know.
+    if (row && row.ht === undefined) return null;
+    height += row?.ht ?? defaultRow;
+  }
+  const availW = pw - (margins.left + margins.right) * 72;
+  const availH = ph - (margins.top + margins.bottom) * 72;
+  if (width <= 0 || height <= 0 || availW <= 0 || availH <= 0) return null;
+  const scale = Math.max(10, Math.min(100, Math.floor(100 * Math.min(1, availW / width, availH / height) * 0.96)));
+  const to = rewriteStartTag(setup.tag.endsWith("/>") ? `${setup.tag.slice(0, -2)}>` : setup.tag, (n) => n === "scale" || n === "fitToWidth" || n === "fitToHeight", ` scale="${scale}"`);
+  const prTo = rewriteStartTag(pr.endsWith("/>") ? `${pr.slice(0, -2)}>` : pr, (n) => n === "fitToPage", "");
+  const close = (tag: string, orig: string) => (orig.endsWith("/>") ? `${tag.slice(0, -1)}/>` : tag);
+  return { from: setup.tag, to: close(to, setup.tag), prFrom: pr, prTo: close(prTo, pr), scale };
 }
