@@ -10,11 +10,15 @@
  *  3. end-to-end recalculation (read, compute, write) of synthetic season workbooks of 1,000,
  *     10,000 and 100,000 samples, with peak RSS, the growth from size to size, and each size's
  *     I/O floor (the same file unzipped and its XML tokenized, nothing computed);
- *  4. a million rows of one sheet: completed or refused up front.
+ *  4. a million rows of one sheet: completed or refused up front;
+ *  5. client reports: the demo season's template (sample-workbooks/caddow-2025-soil-tests.xlsx),
+ *     one values-only workbook and one PDF per paddock (280), through LibreOffice, as reports per
+ *     second and as the ratio to the per-page script the reports issue describes (4 s a page:
+ *     patch the sheet, recalculate, convert, split).
  * Prints a table and writes bench-output/latest.json (with --save also bench/results.json).
  *
  * Options: --sizes=1000,10000,100000  --rows=10000 (engine comparison)  --rounds=3  --save
- *   --only=engine,core,e2e,million
+ *   --only=engine,core,e2e,million,reports  --jobs=1,2 (LibreOffice runs side by side, reports part)
  * The machine may be shared: compare the ratios measured within one run, not absolute times.
  */
 "use strict";
@@ -37,7 +41,7 @@ const gc = () => (global.gc ? global.gc() : undefined);
 const mb = (bytes) => bytes / 1024 ** 2;
 
 function options(argv) {
-  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million"] };
+  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million", "reports"], jobs: [1, 2] };
   for (const a of argv) {
     const [k, v] = a.replace(/^--/, "").split("=");
     if (k === "sizes") o.sizes = v.split(",").map(Number);
@@ -45,6 +49,7 @@ function options(argv) {
     else if (k === "rounds") o.rounds = Number(v);
     else if (k === "save") o.save = true;
     else if (k === "only") o.only = v.split(",");
+    else if (k === "jobs") o.jobs = v.split(",").map(Number);
   }
   return o;
 }
@@ -354,6 +359,41 @@ async function e2eChild(input, output) {
   };
 }
 
+/** The per-page script the reports issue describes: about 4 s a paddock (19 minutes for 280). */
+const SCRIPT_SECONDS_PER_REPORT = 4;
+const REPORT_TEMPLATE = path.join(ROOT, "sample-workbooks", "caddow-2025-soil-tests.xlsx");
+
+/** A batch of reports from the sample template, in process (LibreOffice is its own process). */
+async function reportsChild(outDir, jobs) {
+  const { runReportBatch } = require(path.join(BUILD, "engine", "report-batch.js"));
+  const { findOfficeTools, missingToolsMessage } = require(path.join(BUILD, "engine", "office-pdf.js"));
+  const missing = missingToolsMessage(findOfficeTools());
+  fs.rmSync(outDir, { recursive: true, force: true });
+  const c0 = process.cpuUsage();
+  const t0 = now();
+  const s = await runReportBatch(REPORT_TEMPLATE, { outDir, jobs });
+  const seconds = now() - t0;
+  const c = process.cpuUsage(c0);
+  const pages = s.entries.reduce((a, e) => a + (e.pages || 0), 0);
+  return {
+    jobs,
+    seconds,
+    nodeCpuSeconds: (c.user + c.system) / 1e6,
+    phases: s.seconds,
+    reports: s.reports,
+    workbooks: s.entries.filter((e) => e.xlsx).length,
+    pdfs: s.pdf.written,
+    pages,
+    notFound: s.notFound,
+    withErrors: s.withErrors,
+    pdfMode: s.pdf.mode,
+    pdfSkipped: s.pdf.skipped || missing,
+    perKeyCells: s.perKeyCells,
+    reportsPerSecond: s.reports / seconds,
+    ratioToScript: (SCRIPT_SECONDS_PER_REPORT * s.reports) / seconds,
+  };
+}
+
 // ---------------------------------------------------------------------------------------------
 // Parent
 
@@ -459,6 +499,14 @@ async function main() {
     results.million = { rows: 1000000, inputBytes: bytes, ...r, completed: !r.failed, secondsToAnswer: now() - t0 };
   }
 
+  if (o.only.includes("reports")) {
+    results.reports = [];
+    for (const jobs of o.jobs) {
+      say(`reports: the sample template's 280 paddocks, workbook + PDF each (LibreOffice runs: ${jobs})`);
+      results.reports.push(child(["reports", path.join(OUT_DIR, `reports-${jobs}`), String(jobs)]));
+    }
+  }
+
   // Targets
   const t = results.targets;
   const e = results.engine;
@@ -490,6 +538,13 @@ async function main() {
   if (e100) {
     const how = e100.refusedAtDefaultHeap ? ` (with ${e100.nodeFlags.join(" ")}; refused at the default heap)` : "";
     t.push({ target: `100,000 samples complete${how}`, limit: "no OOM", value: e100.completed ? 1 : 0, met: e100.completed && !e100.refusedAtDefaultHeap });
+  }
+
+  for (const r of results.reports || []) {
+    if (r.failed) continue;
+    const all = !r.pdfSkipped && r.pdfs === r.reports && r.workbooks === r.reports && r.reports >= 280;
+    t.push({ target: `280 reports, workbook + PDF, LibreOffice runs ${r.jobs} (s)`, limit: "≤ 60 s", value: r.seconds, met: all && r.seconds <= 60 });
+    t.push({ target: `reports: one page each (LibreOffice runs ${r.jobs})`, limit: "pages = reports", value: r.pages, met: all && r.pages === r.reports, count: true });
   }
 
   // Table
@@ -546,11 +601,26 @@ async function main() {
         : `1,000,000 rows: not completed after ${fmtS(mm.secondsToAnswer)}: ${String(mm.stderr || "").split("\n").pop()}`,
     );
   }
+  if (results.reports && results.reports.length) {
+    lines.push("");
+    lines.push(`Client reports (soilcell report on the sample template: workbook + PDF per paddock; against the per-page script at ${SCRIPT_SECONDS_PER_REPORT} s a report)`);
+    lines.push("  LO runs  reports  PDFs  pages  total      template  reports   PDF       reports/s  × script  node CPU");
+    for (const r of results.reports) {
+      if (r.failed) {
+        lines.push(`  FAILED (status ${r.status}): ${String(r.stderr).split("\n").pop()}`);
+        continue;
+      }
+      const p = r.phases;
+      lines.push(
+        `  ${String(r.jobs).padEnd(8)} ${String(r.reports).padEnd(8)} ${String(r.pdfs).padEnd(5)} ${String(r.pages).padEnd(6)} ${fmtS(r.seconds).padEnd(10)} ${fmtS(p.template).padEnd(9)} ${fmtS(p.reports).padEnd(9)} ${fmtS(p.pdf).padEnd(9)} ${r.reportsPerSecond.toFixed(1).padEnd(10)} ${r.ratioToScript.toFixed(0).padEnd(9)} ${fmtS(r.nodeCpuSeconds)}${r.pdfSkipped ? `  (no PDF: ${r.pdfSkipped})` : ""}`,
+      );
+    }
+  }
   if (t.length) {
     lines.push("");
     lines.push("Targets");
     for (const x of t) {
-      const v = x.target.includes("complete") ? (x.met ? "yes" : "no") : x.limit.includes("MB") ? `${x.value.toFixed(0)} MB` : x.limit.startsWith("≤ 15 s") ? fmtS(x.value) : fmtX(x.value);
+      const v = x.count ? String(x.value) : x.target.includes("complete") ? (x.met ? "yes" : "no") : x.limit.includes("MB") ? `${x.value.toFixed(0)} MB` : / s$/.test(x.limit) ? fmtS(x.value) : fmtX(x.value);
       lines.push(`  ${x.met ? "met   " : "MISSED"} ${x.target.padEnd(38)} ${x.limit.padEnd(10)} ${v}`);
     }
   }
@@ -568,6 +638,7 @@ if (process.argv[2] === "--child") {
     if (part === "floor") return floorChild(a);
     if (part === "core") return coreChild(Number(a));
     if (part === "e2e") return e2eChild(a, b);
+    if (part === "reports") return reportsChild(a, Number(b));
     throw new Error(`unknown part ${part}`);
   };
   go().then(

@@ -213,9 +213,8 @@ const rel = (p: string) => path.relative(process.cwd(), p) || p;
 
 /** The summary a person reads: what was written, where, and every key that gave no report or has errors. */
 export function printReportSummary(s: BatchSummary, say: (line: string) => void): void {
-  const both = s.entries.filter((e) => e.xlsx && e.pdf).length;
-  const kinds = [s.entries.some((e) => e.xlsx) ? "workbook" : "", s.pdf.written ? "PDF" : ""].filter(Boolean).join(" + ");
-  say(`wrote ${s.reports} reports (${kinds || "nothing"} each${both && both !== s.reports ? `; ${both} with both` : ""}) into ${rel(s.outDir)}/`);
+  const kinds = [s.entries.some((e) => e.xlsx) ? "a workbook" : "", s.pdf.written ? "a PDF" : ""].filter(Boolean).join(" and ");
+  say(`wrote ${s.reports} report${s.reports === 1 ? "" : "s"} (${kinds || "nothing"} each) into ${rel(s.outDir)}/`);
   say(`  index: ${path.basename(s.index.csv)}, ${path.basename(s.index.xlsx)}; problems: ${path.basename(s.index.problems)}`);
   if (s.groupPdfs.length) say(`  one PDF per group: ${s.groupPdfs.slice(0, 8).join(", ")}${s.groupPdfs.length > 8 ? ", …" : ""}`);
   say(`  template: sheet "${s.sheet}", key cell ${s.keyCell}${s.names.keys ? `, keys from ${s.names.keys}` : ""}; ${s.perKeyCells} formula cells computed per key (of ${s.templateFormulaCells})`);

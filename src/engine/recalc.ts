@@ -418,16 +418,18 @@ function dedupe(writes: CellWrite[]): CellWrite[] {
 
 /**
  * Writes to a temporary file created exclusively (random name, in the target's folder, never
- * following a planted link), then renames it into place.
+ * following a planted link), flushes it to disk (unless `durable` is false), then renames it into place.
  */
-export function writeAtomically(target: string, bytes: Buffer): void {
+export function writeAtomically(target: string, bytes: Buffer, options: { readonly durable?: boolean } = {}): void {
   const dir = path.dirname(path.resolve(target));
   const tmp = path.join(dir, `.${path.basename(target)}.${crypto.randomBytes(8).toString("hex")}.partial`);
   let fd: number | undefined;
   try {
     fd = fs.openSync(tmp, fs.constants.O_WRONLY | fs.constants.O_CREAT | fs.constants.O_EXCL | (fs.constants.O_NOFOLLOW ?? 0), 0o644);
     fs.writeSync(fd, bytes);
-    fs.fsyncSync(fd);
+    // Durable by default; a batch of many small reports skips the flush (a crash leaves no partial
+    // file under the target's name either way, only perhaps no file).
+    if (options.durable !== false) fs.fsyncSync(fd);
     fs.closeSync(fd);
     fd = undefined;
     fs.renameSync(tmp, target);

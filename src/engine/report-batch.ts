@@ -114,12 +114,17 @@ export async function runReportBatch(template: string, options: BatchOptions): P
   const grouping = options.group !== false && tpl.names.group !== undefined;
 
   const entries: ReportEntry[] = [];
-  for (const p of tpl.keyProblems) entries.push(problemEntry(p));
+  // Entries of the key list that cannot be keys, where they stood in the list.
+  let pi = 0;
+  const problemsBefore = (i: number) => {
+    while (pi < tpl.keyProblems.length && (tpl.keyProblems[pi] as KeyProblem).before <= i) entries.push(problemEntry(tpl.keyProblems[pi++] as KeyProblem));
+  };
   const sheets: { entry: ReportEntry; xml: string; dir: string; base: string }[] = [];
   const used = new Map<string, Set<string>>();
   const keys = options.limit !== undefined ? tpl.keys.slice(0, Math.max(0, options.limit)) : tpl.keys;
   const stamp = valuesStamp();
   keys.forEach((k, i) => {
+    problemsBefore(i);
     if (i > 0 && i % 50 === 0) say(`${i} of ${keys.length} reports`);
     const r = tpl.report(k.key);
     const key = keyString(k.key);
@@ -138,12 +143,13 @@ export async function runReportBatch(template: string, options: BatchOptions): P
     if (wantXlsx) {
       const rel = path.join(dir, `${base}.xlsx`);
       fs.mkdirSync(path.join(outDir, dir), { recursive: true });
-      writeAtomically(path.join(outDir, rel), packager.single(r.sheetXml, r.name, `Report for ${key} from ${path.basename(template)}, every cell a value, by ${stamp}.`));
+      writeAtomically(path.join(outDir, rel), packager.single(r.sheetXml, r.name, `Report for ${key} from ${path.basename(template)}, every cell a value, by ${stamp}.`), { durable: false });
       entry.xlsx = rel;
     }
     entries.push(entry);
     sheets.push({ entry, xml: r.sheetXml, dir, base });
   });
+  problemsBefore(keys.length === tpl.keys.length ? Number.MAX_SAFE_INTEGER : keys.length);
   const tReports = Date.now();
 
   // PDFs

@@ -12,7 +12,7 @@ import { customPropertiesXml, valuesStamp } from "./recalc";
 import { rewriteStartTag } from "./sheet-patch";
 import { Tok, XmlScanner, encodeXmlText } from "./xml";
 import { XlsxPackage, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
-import { ZipOut, writeZip } from "./zip";
+import { ZipEntry, ZipOut, writeZip } from "./zip";
 
 const MAIN = "http://schemas.openxmlformats.org/spreadsheetml/2006/main";
 const REL = "http://schemas.openxmlformats.org/officeDocument/2006/relationships";
@@ -31,7 +31,8 @@ const DROPPED = [/\/table$/, /\/pivotTable$/, /\/queryTable$/, /\/slicer$/, /\/t
 
 interface Part {
   readonly name: string;
-  readonly data: Buffer | string;
+  /** New contents, or the template's entry (its compressed bytes copied: nothing deflated again). */
+  readonly data: Buffer | string | ZipEntry;
 }
 
 export interface ReportSheet {
@@ -130,12 +131,12 @@ export class ReportPackager {
       for (const p of this.printNames) names.push(`<definedName name="${p.name}" localSheetId="${i}">${encodeXmlText(renameSheet(p.text, this.sheet.name, sh.name))}</definedName>`);
     });
     if (this.styles) {
-      parts.push({ name: "xl/styles.xml", data: this.pkg.text(this.styles) ?? "" });
+      parts.push({ name: "xl/styles.xml", data: this.pkg.entry(this.styles) ?? this.pkg.text(this.styles) ?? "" });
       overrides.set("xl/styles.xml", CT.styles);
       wbRels.push(`<Relationship Id="rIdStyles" Type="${REL}/styles" Target="styles.xml"/>`);
     }
     if (this.theme) {
-      parts.push({ name: "xl/theme/theme1.xml", data: this.pkg.text(this.theme) ?? "" });
+      parts.push({ name: "xl/theme/theme1.xml", data: this.pkg.entry(this.theme) ?? this.pkg.text(this.theme) ?? "" });
       overrides.set("xl/theme/theme1.xml", CT.theme);
       wbRels.push(`<Relationship Id="rIdTheme" Type="${REL}/theme" Target="theme/theme1.xml"/>`);
     }
@@ -174,7 +175,7 @@ export class ReportPackager {
       [...defaults].map(([e, t]) => `<Default Extension="${encodeXmlText(e)}" ContentType="${encodeXmlText(t)}"/>`).join("") +
       [...overrides].map(([p, t]) => `<Override PartName="/${encodeXmlText(p)}" ContentType="${encodeXmlText(t)}"/>`).join("") +
       "</Types>";
-    const out: ZipOut[] = [{ name: "[Content_Types].xml", data: Buffer.from(types, "utf8") }, ...parts.map((p) => ({ name: p.name, data: typeof p.data === "string" ? Buffer.from(p.data, "utf8") : p.data }))];
+    const out: ZipOut[] = [{ name: "[Content_Types].xml", data: Buffer.from(types, "utf8") }, ...parts.map((p) => (typeof p.data === "string" ? { name: p.name, data: Buffer.from(p.data, "utf8") } : Buffer.isBuffer(p.data) ? { name: p.name, data: p.data } : { name: p.name, copy: p.data }))];
     return writeZip(out);
   }
 
@@ -207,7 +208,7 @@ export class ReportPackager {
     const isXml = /\.(xml|vml)$/i.test(src);
     const name = isXml && suffix ? src.replace(/(\.[^./]+)$/, `${suffix}$1`) : src;
     if (!isXml && copied.has(`|${src}`)) return name;
-    const data = isXml ? this.pkg.text(src) : this.pkg.bytes(src);
+    const data = this.pkg.entry(src) ?? (isXml ? this.pkg.text(src) : this.pkg.bytes(src));
     if (data === undefined) return undefined;
     copied.set(key, name);
     if (!isXml) copied.set(`|${src}`, name);

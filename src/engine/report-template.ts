@@ -85,6 +85,8 @@ export interface KeyProblem {
   readonly key: string;
   readonly from: string;
   readonly reason: string;
+  /** Where it stood in the list: before the key of this index in `keys` (keys.length: after all). */
+  readonly before: number;
 }
 
 export interface Figure {
@@ -220,15 +222,16 @@ function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: K
     const d = book.definedName(REPORT_NAMES.keys, sheet);
     if (d) listed.push(placeOf(book, d.node, d.scope ?? sheet, REPORT_NAMES.keys));
   }
-  const fromList: KeyEntry[] = [];
+  // The list in order: keys, and entries that cannot be keys (listed where they stand).
+  const fromList: (KeyEntry | Omit<KeyProblem, "before">)[] = [];
   for (const p of listed) {
     for (let r = p.rect.r1; r <= p.rect.r2; r++) {
       for (let c = p.rect.c1; c <= p.rect.c2; c++) {
         const v = cellValue(book, p.sheet, r, c);
         const from = `${book.sheets[p.sheet]!.name}!${a1({ row: r, col: c })}`;
         if (v === null || v === "") continue;
-        if (isError(v)) problems.push({ key: v.code, from, reason: `the key list holds the error ${v.code}` });
-        else if (typeof v === "boolean") problems.push({ key: v ? "TRUE" : "FALSE", from, reason: "the key list holds a logical value, not a key" });
+        if (isError(v)) fromList.push({ key: v.code, from, reason: `the key list holds the error ${v.code}` });
+        else if (typeof v === "boolean") fromList.push({ key: v ? "TRUE" : "FALSE", from, reason: "the key list holds a logical value, not a key" });
         else fromList.push({ key: v, from });
       }
     }
@@ -240,7 +243,7 @@ function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: K
       const n = Number(k);
       entries.push({ key: k.trim() !== "" && numbers.has(n) ? n : k, from: "--keys" });
     }
-  } else entries.push(...fromList);
+  } else entries.push(...(fromList as KeyEntry[]));
   if (!options.keys && !listed.length) {
     throw new ReportTemplateError(`no keys: name the cells that list them ${REPORT_NAMES.keys}, or give --keys-from or --keys`);
   }
@@ -248,10 +251,14 @@ function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: K
   const seen = new Map<string, KeyEntry>();
   const keys: KeyEntry[] = [];
   for (const e of entries) {
+    if ("reason" in e) {
+      problems.push({ ...(e as Omit<KeyProblem, "before">), before: keys.length });
+      continue;
+    }
     const id = `${typeof e.key}|${keyText(e.key).toUpperCase()}`;
     const first = seen.get(id);
     if (first) {
-      problems.push({ key: keyText(e.key), from: e.from, reason: `the same key as ${first.from}: reported once` });
+      problems.push({ key: keyText(e.key), from: e.from, reason: `the same key as ${first.from}: reported once`, before: keys.length });
       continue;
     }
     seen.set(id, e);

@@ -66,6 +66,8 @@ export interface XlsxPackage {
   bytes(path: string): Buffer | undefined;
   /** Every part's path, as the package will be written. */
   parts(): string[];
+  /** A part the engine has not changed, as the zip holds it (its compressed bytes can be copied). */
+  entry(path: string): ZipEntry | undefined;
   /** Replaces (or adds) a part (text, or UTF-8 bytes). */
   write(path: string, text: string | Buffer): void;
   /** Leaves a part out of the written package. */
@@ -219,6 +221,7 @@ export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
       const e = byName.get(p);
       return e ? inflateEntry(e) : undefined;
     },
+    entry: (p) => (removed.has(p) || replaced.has(p) ? undefined : byName.get(p)),
     parts: () => [...entries.map((e) => e.name).filter((n) => !removed.has(n)), ...[...replaced.keys()].filter((n) => !byName.has(n))],
     write(p, t) {
       removed.delete(p);
