@@ -13,7 +13,10 @@ const { main } = require(entry);
 process.stdout.on("error", (e) => { if (e.code === "EPIPE") process.exit(0); });
 const io = { out: (l) => process.stdout.write(`${l}\n`), err: (l) => process.stderr.write(`${l}\n`) };
 main(process.argv.slice(2), io).then(
-  (code) => process.exit(code),
+  // exitCode, not exit(): a large --json answer on a pipe is written out before the process ends.
+  (code) => {
+    process.exitCode = code;
+  },
   (e) => {
     process.stderr.write(`soilcell: unexpected failure: ${e && e.message ? e.message : e}\n`);
     process.exit(3);

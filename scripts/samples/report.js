@@ -38,9 +38,9 @@ const font = (o = {}) => ({ name: "Calibri", size: 10, ...o });
  */
 function buildReport(ws, wb, ctx) {
   const { refA, refB, reportSample, productTable, setRef, bands, about } = ctx;
-  const widths = { A: 1.5, B: 27, C: 11, D: 15, E: 21 };
+  const widths = { A: 1.5, B: 26, C: 10, D: 12, E: 24 };
   for (const [c, w] of Object.entries(widths)) ws.getColumn(c).width = w;
-  for (let c = STRIP_FIRST; c <= STRIP_LAST; c++) ws.getColumn(c).width = 1.3;
+  for (let c = STRIP_FIRST; c <= STRIP_LAST; c++) ws.getColumn(c).width = 1.2;
   ws.getColumn(MARGIN_RIGHT).width = 1.5;
   for (let i = -1; i < 12; i++) {
     ws.getColumn(H1 + i).width = 12;
@@ -184,9 +184,10 @@ function buildReport(ws, wb, ctx) {
       fmt: "0",
     },
     {
-      name: "Sulfur",
+      name: `IF(${lab}="A","Sulfur (SO4-S)","Sulfur (KCl-40, 0-30 cm)")`,
+      nameIsFormula: true,
       value: get("s", "s"),
-      unit: `IF(${lab}="A","ppm (SO4-S)","mg/kg (KCl-40, 0-30 cm)")`,
+      unit: `IF(${lab}="A","ppm","mg/kg")`,
       band: get(null, "sBand", `"no reference table"`),
       pos: get(null, "sPos", `""`),
       table: `IF(${lab}="B",IF(${cropB}="canola",${t("anderson2013-kcl40-s-canola")},${t("anderson2013-kcl40-s-wheat")}),"")`,
@@ -215,10 +216,13 @@ function buildReport(ws, wb, ctx) {
     formula(u, line.unit);
     u.font = font({ size: 9, color: { argb: COLOURS.grey } });
     if (line.band) {
+      // Band words run to 41 characters ("Critical range (90-95 % of maximum yield)"): two lines.
       const b = ws.getCell(`E${row}`);
       formula(b, blankIfEmpty(line.band));
-      b.font = font({ size: 9 });
+      b.font = font({ size: 8 });
+      b.alignment = { wrapText: true, vertical: "middle" };
     }
+    for (const x of ["B", "C", "D"]) ws.getCell(`${x}${row}`).alignment = { ...(ws.getCell(`${x}${row}`).alignment ?? {}), vertical: "middle" };
     if (line.table) {
       formula(ws.getCell(`${hc(2)}${row}`), line.table);
       tableCells.push(`${hc(2)}${row}`);
@@ -233,7 +237,7 @@ function buildReport(ws, wb, ctx) {
         const j = c - STRIP_FIRST;
         // The cell's centre on the band scale (drawn from -0.5 to n - 0.5) gives its band; the
         // result's cell shows the marker (an arrow when the result lies beyond the drawn scale).
-        const centre = `(-0.5+${(j + 0.5) / STRIP_CELLS}*${N})`;
+        const centre = `(-0.5+${j + 0.5}/${STRIP_CELLS}*${N})`;
         const marker = `MIN(${STRIP_CELLS - 1},MAX(0,INT((${P}+0.5)/${N}*${STRIP_CELLS})))=${j}`;
         formula(ws.getCell(row, c), `IF(AND(ISNUMBER(${P}),ISNUMBER(${N})),IF(${marker},IF(${P}<-0.5,"◀",IF(${P}>=${N}-0.5,"▶","◆")),INT(${centre})+2),"")`);
         const cell = ws.getCell(row, c);
@@ -244,7 +248,7 @@ function buildReport(ws, wb, ctx) {
       stripRows.push(row);
     }
     rule(row);
-    height(row, 16);
+    height(row, 21);
     row++;
   }
   if (stripRows.length) {

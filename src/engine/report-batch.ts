@@ -254,7 +254,7 @@ async function filePdfs(tools: OfficeTools, packager: ReportPackager, items: Ite
   fs.mkdirSync(dir, { recursive: true });
   const files = items.map((it, i) => {
     const f = path.join(dir, `report-${i + 1}.xlsx`);
-    fs.writeFileSync(f, packager.single(it.xml, it.entry.name ?? it.entry.key, "for conversion"));
+    fs.writeFileSync(f, packager.single(packager.forPdf(it.xml), it.entry.name ?? it.entry.key, "for conversion"));
     return f;
   });
   say(`converting ${items.length} report workbooks to PDF with LibreOffice`);

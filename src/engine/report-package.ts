@@ -92,8 +92,20 @@ export class ReportPackager {
    */
   combined(sheets: readonly ReportSheet[], title: string): Buffer {
     const fixed = this.fixedScale;
-    const xmls = fixed ? sheets.map((s) => ({ name: s.name, xml: s.xml.split(fixed.from).join(fixed.to).split(fixed.prFrom).join(fixed.prTo) })) : sheets;
+    const xmls = sheets.map((s) => {
+      // Cells outside the print area are not printed, but LibreOffice still writes the text of
+      // hidden helper cells into the PDF's text layer (clipped): they are left out of this pass.
+      let xml = this.forPdf(s.xml);
+      if (fixed) xml = xml.split(fixed.from).join(fixed.to).split(fixed.prFrom).join(fixed.prTo);
+      return { name: s.name, xml };
+    });
     return this.build(xmls, title, `reports from a template, for conversion (${valuesStamp()})`, ".r");
+  }
+
+  /** A report sheet as the office engine should see it: without the cells outside the print area. */
+  forPdf(xml: string): string {
+    const area = this.printArea();
+    return area ? clipToArea(xml, area) : xml;
   }
 
   private fixedScaleMemo: { from: string; to: string; prFrom: string; prTo: string; scale: number } | null | undefined;
@@ -358,4 +370,28 @@ function fitScale(xml: string, area: { r1: number; c1: number; r2: number; c2: n
   const prTo = rewriteStartTag(pr.endsWith("/>") ? `${pr.slice(0, -2)}>` : pr, (n) => n === "fitToPage", "");
   const close = (tag: string, orig: string) => (orig.endsWith("/>") ? `${tag.slice(0, -1)}/>` : tag);
   return { from: setup.tag, to: close(to, setup.tag), prFrom: pr, prTo: close(prTo, pr), scale };
+}
+
+/** A sheet's XML without the cells outside a rectangle. */
+function clipToArea(xml: string, area: { r1: number; c1: number; r2: number; c2: number }): string {
+  const s = new XmlScanner(xml);
+  let out = "";
+  let at = 0;
+  for (let t = s.next(); t !== Tok.End; t = s.next()) {
+    if (t !== Tok.Open) continue;
+    if (s.local === "c") {
+      const start = s.start;
+      const ref = s.attr("r");
+      const end = s.selfClosing ? s.end : s.skipElement();
+      const m = ref ? /^([A-Z]{1,3})(\d+)$/.exec(ref) : null;
+      if (!m) continue;
+      const row = Number(m[2]) - 1;
+      const col = columnIndex(m[1]!);
+      if (row < area.r1 || row > area.r2 || col < area.c1 || col > area.c2) {
+        out += xml.slice(at, start);
+        at = end;
+      }
+    } else if (s.local !== "sheetData" && s.local !== "row" && s.local !== "worksheet" && !s.selfClosing) s.skipElement();
+  }
+  return out + xml.slice(at);
 }
