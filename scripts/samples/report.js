@@ -71,6 +71,13 @@ function buildReport(ws, wb, ctx) {
     c.font = font({ color: { argb: COLOURS.grey }, ...o });
     return c;
   };
+  /** A note in small italics across the page, then a thin gap; returns the row after the gap. */
+  const note = (row, text, h) => {
+    merge(row, "B", L, text, { font: font({ italic: true, size: 8, color: { argb: COLOURS.grey } }), alignment: { wrapText: true, vertical: "top" } });
+    height(row, h);
+    height(row + 1, 6);
+    return row + 2;
+  };
   const rule = (row) => {
     for (let c = 2; c <= STRIP_LAST; c++) {
       const cell = ws.getCell(row, c);
@@ -262,14 +269,7 @@ function buildReport(ws, wb, ctx) {
       ],
     });
   }
-  merge(row, "B", L, `Band scale: each strip is the reference table's bands, lowest at left (${BAND_NAMES.join(", ")} from the lowest up; the first and last band drawn half a band wide); ◆ marks the result, ◀ ▶ a result beyond the drawn scale. The band word is the table's own; no strip where the table has one limit or the analyte none.`, {
-    font: font({ italic: true, size: 8, color: { argb: COLOURS.grey } }),
-    alignment: { wrapText: true, vertical: "top" },
-  });
-  height(row, 22);
-  row += 1;
-  height(row, 6);
-  row += 1;
+  row = note(row, `Band scale: each strip is the reference table's bands, lowest at left (${BAND_NAMES.join(", ")} from the lowest up; the first and last band drawn half a band wide); ◆ marks the result, ◀ ▶ a result beyond the drawn scale. The band word is the table's own; no strip where the table has one limit or the analyte none.`, 22);
 
   // ---- Exchange complex --------------------------------------------------------------------
   section(row, "Cation balance: the exchange complex");
@@ -287,9 +287,12 @@ function buildReport(ws, wb, ctx) {
     [`IF(${lab}="A","CEC, sum of bases","ECEC (with Al)")`, get("cecSum", "ecec"), `"cmol(+)/kg"`, "0.0"],
     [`IF(${lab}="A","CEC reported by the lab","")`, get("cec", null, `""`), `IF(${lab}="A","meq/100 g","")`, "0.0"],
   ];
-  for (const [name, value, unit, fmt] of capacity) {
-    formula(ws.getCell(`B${row}`), name);
-    ws.getCell(`B${row}`).font = font();
+  /** A result row: name (a formula when `nameFormula`), value, unit; returns the row after it. */
+  const valueRow = (row, name, value, unit, fmt, nameFormula = true) => {
+    const n = ws.getCell(`B${row}`);
+    if (nameFormula) formula(n, name);
+    else n.value = name;
+    n.font = font();
     formula(ws.getCell(`C${row}`), blankIfEmpty(value));
     ws.getCell(`C${row}`).numFmt = fmt;
     ws.getCell(`C${row}`).font = font({ bold: true });
@@ -297,8 +300,9 @@ function buildReport(ws, wb, ctx) {
     ws.getCell(`D${row}`).font = font({ size: 9, color: { argb: COLOURS.grey } });
     rule(row);
     height(row, 16);
-    row++;
-  }
+    return row + 1;
+  };
+  for (const [name, value, unit, fmt] of capacity) row = valueRow(row, name, value, unit, fmt);
   const share = `IF(${lab}="A","% of lab CEC","% of ECEC")`;
   const parts = [
     ["Calcium", get("caPct", "caPct"), "Ca", "0"],
@@ -314,15 +318,7 @@ function buildReport(ws, wb, ctx) {
   ];
   const firstPart = row;
   parts.forEach(([name, value, symbol, fmt], i) => {
-    const n = ws.getCell(`B${row}`);
-    if (i === parts.length - 1) formula(n, name);
-    else n.value = name;
-    n.font = font();
-    formula(ws.getCell(`C${row}`), blankIfEmpty(value));
-    ws.getCell(`C${row}`).numFmt = fmt;
-    ws.getCell(`C${row}`).font = font({ bold: true });
-    formula(ws.getCell(`D${row}`), share);
-    ws.getCell(`D${row}`).font = font({ size: 9, color: { argb: COLOURS.grey } });
+    valueRow(row, name, value, share, fmt, i === parts.length - 1);
     const k = ws.getCell(`E${row}`);
     if (symbol) {
       k.value = symbol;
@@ -335,8 +331,6 @@ function buildReport(ws, wb, ctx) {
       k.font = font({ bold: true, size: 9 });
     }
     k.alignment = { horizontal: "center" };
-    rule(row);
-    height(row, 16);
     row++;
   });
   const lastPart = row - 1;
@@ -380,14 +374,7 @@ function buildReport(ws, wb, ctx) {
   rule(row);
   height(row, 15);
   row++;
-  merge(row, "B", L, "The strip divides the exchange capacity among the cations in the order of the table, each cell a thirtieth of it; the key column gives each colour. Lab A's CEC is the lab's own: what the bases do not hold (acidity) was not measured and is grey. No band limits are drawn for cation shares: soilcell ships none (balance ratios have weak support as a basis for fertiliser decisions: Kopittke & Menzies 2007, Soil Sci. Soc. Am. J. 71:259-265).", {
-    font: font({ italic: true, size: 8, color: { argb: COLOURS.grey } }),
-    alignment: { wrapText: true, vertical: "top" },
-  });
-  height(row, 22);
-  row += 1;
-  height(row, 6);
-  row += 1;
+  row = note(row, "The strip divides the exchange capacity among the cations in the order of the table, each cell a thirtieth of it; the key column gives each colour. Lab A's CEC is the lab's own: what the bases do not hold (acidity) was not measured and is grey. No band limits are drawn for cation shares: soilcell ships none (balance ratios have weak support as a basis for fertiliser decisions: Kopittke & Menzies 2007, Soil Sci. Soc. Am. J. 71:259-265).", 22);
 
   // ---- Lime plan ---------------------------------------------------------------------------
   section(row, "Lime plan", COLOURS.orange, COLOURS.black);
@@ -430,14 +417,7 @@ function buildReport(ws, wb, ctx) {
     height(row, k === "rate" || k === "total" ? 18 : 16);
     row++;
   }
-  merge(row, "B", L, "Handle liming materials with care (dust; burnt and hydrated lime are caustic). Split large single applications, incorporate to the depth the rate is for, and time lime ahead of the crop.", {
-    font: font({ italic: true, size: 8, color: { argb: COLOURS.grey } }),
-    alignment: { wrapText: true, vertical: "top" },
-  });
-  height(row, 14);
-  row += 1;
-  height(row, 6);
-  row += 1;
+  row = note(row, "Handle liming materials with care (dust; burnt and hydrated lime are caustic). Split large single applications, incorporate to the depth the rate is for, and time lime ahead of the crop.", 14);
 
   // ---- Methods and sources -----------------------------------------------------------------
   section(row, "Methods and sources", COLOURS.grey);

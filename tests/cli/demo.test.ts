@@ -233,7 +233,7 @@ describe("npm run demo (invented sample workbooks)", () => {
   });
 
   it("reports exactly the one deliberate refusal: Lab A's \"<0.5\" converted without LABVALUE on the Read me sheet", () => {
-    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Read me!B16"]);
+    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Read me!B17"]);
     for (const e of summary.errors) {
       expect(e.error).toBe("#VALUE!");
       expect(e.message).toContain('"<0.5" is not a number');

@@ -19,45 +19,13 @@ import ExcelJS from "exceljs";
 import { recalcWorkbook } from "../../src/engine/recalc";
 import { tempDir } from "../helpers/workbook";
 import { readPng } from "../helpers/png";
+import { parseCsv } from "../helpers/csv";
 import { ROOT, describeHost, findProgram } from "../hosts/harness";
 
 const BIN = path.join(ROOT, "bin/soilcell.js");
 const SAMPLE = path.join(ROOT, "sample-workbooks", "caddow-2025-soil-tests.xlsx");
 const soffice = findProgram("soffice", "libreoffice");
 const poppler = ["pdfinfo", "pdftotext", "pdftoppm", "pdfseparate", "pdfunite", "pdffonts"].every((p) => findProgram(p));
-
-/** RFC 4180 CSV. */
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i]!;
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') {
-        field += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else field += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") {
-      row.push(field);
-      field = "";
-    } else if (ch === "\n" || ch === "\r") {
-      if (ch === "\r" && text[i + 1] === "\n") i++;
-      row.push(field);
-      rows.push(row);
-      row = [];
-      field = "";
-    } else field += ch;
-  }
-  if (field !== "" || row.length) {
-    row.push(field);
-    rows.push(row);
-  }
-  return rows;
-}
 
 type Row = Record<string, unknown>;
 /** A cell's value as the file caches it: a formula's result (ExcelJS leaves an empty text result out). */

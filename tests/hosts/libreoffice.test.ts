@@ -25,6 +25,7 @@ import { openPackage } from "../../src/engine/xlsx-package";
 import { callsSoil } from "../../src/engine/formula-text";
 import { parseRange, a1 } from "../../src/engine/cellref";
 import { tempDir, writeWorkbook } from "../helpers/workbook";
+import { parseCsv } from "../helpers/csv";
 import { ROOT, describeHost, findProgram } from "./harness";
 
 const soffice = findProgram("libreoffice", "soffice");
@@ -116,39 +117,6 @@ async function readCached(file: string): Promise<Map<string, SheetCells>> {
     out.set(sheet.name, { values, soil, direct, formulas });
   }
   return out;
-}
-
-/** RFC 4180 CSV, as LibreOffice writes it. */
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i]!;
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') {
-        field += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else field += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") {
-      row.push(field);
-      field = "";
-    } else if (ch === "\n" || ch === "\r") {
-      if (ch === "\r" && text[i + 1] === "\n") i++;
-      row.push(field);
-      rows.push(row);
-      row = [];
-      field = "";
-    } else field += ch;
-  }
-  if (field !== "" || row.length) {
-    row.push(field);
-    rows.push(row);
-  }
-  return rows;
 }
 
 function csvCell(rows: string[][], address: string): string {
