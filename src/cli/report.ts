@@ -34,7 +34,7 @@ report sheet or to the workbook, as Print_Area is:
   -o, --out DIR     output folder (default: "<template> reports" beside the template)
   --sheet NAME      the report sheet, when several have a ${REPORT_NAMES.key}
   --format LIST     xlsx, pdf or both (default both; PDFs need LibreOffice and poppler-utils)
-  --jobs N          LibreOffice runs side by side, each once for its share (default 1)
+  --jobs N          LibreOffice runs side by side, each started once for its share (default 2; 1 on one core)
   --limit N         only the first N keys (a trial run)
   --json            the summary as JSON on stdout
 
@@ -219,7 +219,10 @@ export function printReportSummary(s: BatchSummary, say: (line: string) => void)
   if (s.groupPdfs.length) say(`  one PDF per group: ${s.groupPdfs.slice(0, 8).join(", ")}${s.groupPdfs.length > 8 ? ", …" : ""}`);
   say(`  template: sheet "${s.sheet}", key cell ${s.keyCell}${s.names.keys ? `, keys from ${s.names.keys}` : ""}; ${s.perKeyCells} formula cells computed per key (of ${s.templateFormulaCells})`);
   if (s.pdf.skipped) say(`  PDF: ${s.pdf.skipped}`);
-  else if (s.pdf.engine) say(`  PDF: ${s.pdf.written} by ${s.pdf.engine} (${s.pdf.mode === "combined" ? "one workbook of all reports, split into pages" : "each report's workbook"})`);
+  else if (s.pdf.engine) {
+    const runs = `${s.pdf.runs} run${s.pdf.runs === 1 ? "" : "s"}`;
+    say(`  PDF: ${s.pdf.written} by ${s.pdf.engine}, ${runs} (${s.pdf.mode === "combined" ? "each run one workbook of its reports, split into pages" : "each report's own workbook"})`);
+  }
   for (const n of s.pdf.notes.slice(0, 5)) say(`    ${n}`);
   for (const w of s.warnings) say(`  note: ${w}`);
   const list = (title: string, rows: readonly ReportEntry[], line: (e: ReportEntry) => string) => {

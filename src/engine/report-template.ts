@@ -426,6 +426,14 @@ export async function openReportTemplate(file: string, options: TemplateOptions 
   const cleanHead = cutSpans(sheet.xml, 0, sd.start, skip);
   const cleanTail = cutSpans(sheet.xml, sdEnd, sheet.xml.length, skip);
 
+  // The shared string each constant cell of the report sheet shows (-1: none), found once.
+  const sharedOf = new Int32Array(sheet.cells.n).fill(-1);
+  for (let k = 0; k < sheet.cells.n; k++) {
+    if ((sheet.cells.formula[k] as number) >= 0) continue;
+    const i = sharedIndexOf(sheet, k);
+    if (i !== undefined) sharedOf[k] = i;
+  }
+
   const setKey = (v: string | number) => {
     if (typeof v === "number") sheet.cells.setNumber(keyK, v);
     else sheet.cells.setText(keyK, v);
@@ -462,8 +470,8 @@ export async function openReportTemplate(file: string, options: TemplateOptions 
       if (f < 0) {
         if (plannedArea(host, plan, sheetIdx, row, col) >= 0) continue; // a spill computed for this key writes it
         // A shared-string constant becomes an inline string (with its runs): no shared-strings part.
-        const raw = sharedIndexOf(sheet, k);
-        if (raw !== undefined) writes.push({ kind: "constant", row, col, value: cells.value(k), inline: strings[raw] });
+        const raw = sharedOf[k] as number;
+        if (raw >= 0) writes.push({ kind: "constant", row, col, value: cells.value(k), inline: strings[raw] });
         const v = cells.value(k);
         if (isError(v)) problem(row, col, -1, v, false);
         continue;
