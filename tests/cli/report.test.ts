@@ -255,6 +255,18 @@ describeHost("soilcell report: the demo season's 280 client reports through Libr
   });
 });
 
+describeHost("the bench's reports part", soffice && poppler ? soffice : undefined, "libreoffice and poppler-utils", () => {
+  it("runs in a child process and prints its figures: reports per second and the ratio to the per-page script (a trial of 2 keys; no target)", () => {
+    const r = spawnSync(process.execPath, [path.join(ROOT, "bench/run.js"), "--only=reports", "--jobs=1", "--report-limit=2"], { encoding: "utf8", timeout: 300_000 });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/^Client reports \(soilcell report on the sample template/m);
+    expect(r.stdout).toMatch(/reports\/s {2}× script/);
+    expect(r.stdout).toMatch(/^ {2}1 +2 +2 +2 +\d+\.\d+ s/m); // 1 run, 2 reports, 2 PDFs, 2 pages, seconds
+    expect(r.stdout).toMatch(/a trial on the first 2 keys: no target/);
+    expect(r.stdout).not.toMatch(/280 reports, workbook \+ PDF/);
+  });
+});
+
 describe("soilcell report without LibreOffice", () => {
   it("says so in one line, still writes the workbooks and exits 1", () => {
     const out = path.join(tempDir("soilcell-report-nolo-"), "r");
