@@ -138,13 +138,14 @@ function buildReport(ws, wb, ctx) {
   facts.forEach(([name, f, fmt], i) => {
     const row = 6 + Math.floor(i / 2);
     const left = i % 2 === 0;
-    label(`${left ? "B" : "D"}${row}`, name);
-    const c = left ? ws.getCell(`C${row}`) : merge(row, "E", L);
+    // Left: label in B, value across C:D (a farm's name is wider than C); right: label in E, value across the strip.
+    label(`${left ? "B" : "E"}${row}`, name);
+    const c = left ? merge(row, "C", "D") : merge(row, F0, L);
     formula(c, f);
     c.font = font({ bold: true });
     c.alignment = { horizontal: "left" };
     if (fmt) c.numFmt = fmt;
-    factCell[name] = left ? `C${row}` : `E${row}`;
+    factCell[name] = left ? `C${row}` : `${F0}${row}`;
     height(row, 16);
   });
   height(9, 8);
