@@ -229,7 +229,7 @@ export async function runReportBatch(template: string, options: BatchOptions): P
 }
 
 function problemEntry(p: KeyProblem): ReportEntry {
-  return { key: p.key, from: p.from, status: "not reported", reason: p.reason, figures: [], errors: [] };
+  return { key: p.key, from: p.from, status: p.notFound ? "not found" : "not reported", reason: p.reason, figures: [], errors: [] };
 }
 
 type Item = { entry: ReportEntry; xml: string; dir: string; base: string };

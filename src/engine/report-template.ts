@@ -87,6 +87,8 @@ export interface KeyProblem {
   readonly reason: string;
   /** Where it stood in the list: before the key of this index in `keys` (keys.length: after all). */
   readonly before: number;
+  /** The key matches nothing (rather than the list entry not being a key). */
+  readonly notFound?: boolean;
 }
 
 export interface Figure {
@@ -213,7 +215,7 @@ function keyText(v: string | number): string {
 }
 
 /** The keys to report on, and the entries that give none. */
-function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: KeyEntry[]; problems: KeyProblem[]; listed: Place[] } {
+function keyList(book: Book, sheet: number, options: TemplateOptions, hasFound: boolean): { keys: KeyEntry[]; problems: KeyProblem[]; listed: Place[] } {
   const problems: KeyProblem[] = [];
   const entries: KeyEntry[] = [];
   const listed: Place[] = [];
@@ -248,6 +250,9 @@ function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: K
     throw new ReportTemplateError(`no keys: name the cells that list them ${REPORT_NAMES.keys}, or give --keys-from or --keys`);
   }
   // Excel matches text keys without regard to case: two that differ only in case are one key.
+  const idOf = (k: string | number) => `${typeof k}|${keyText(k).toUpperCase()}`;
+  // Typed keys with a list but no found cell: the list is what says a key selects something.
+  const inList = options.keys && listed.length && !hasFound ? new Set(fromList.filter((e) => !("reason" in e)).map((e) => idOf(e.key))) : undefined;
   const seen = new Map<string, KeyEntry>();
   const keys: KeyEntry[] = [];
   for (const e of entries) {
@@ -255,7 +260,12 @@ function keyList(book: Book, sheet: number, options: TemplateOptions): { keys: K
       problems.push({ ...(e as Omit<KeyProblem, "before">), before: keys.length });
       continue;
     }
-    const id = `${typeof e.key}|${keyText(e.key).toUpperCase()}`;
+    const id = idOf(e.key);
+    if (inList && !inList.has(id)) {
+      const where = listed.map((p) => placeName(p, book)).join(", ");
+      problems.push({ key: keyText(e.key), from: e.from, reason: `not in the key list (${where}), and the template names no ${REPORT_NAMES.found} cell to look it up`, before: keys.length, notFound: true });
+      continue;
+    }
     const first = seen.get(id);
     if (first) {
       problems.push({ key: keyText(e.key), from: e.from, reason: `the same key as ${first.from}: reported once`, before: keys.length });
@@ -339,9 +349,10 @@ function rawSharedStrings(pkg: XlsxPackage): string[] {
 }
 
 /**
- * The parts of the report sheet outside its cells that would point at cells a report does not
- * have (other sheets, input lists): data validations, conditional formats and hyperlinks that
- * name another sheet. Returns [start, end) spans of the template sheet's XML to leave out.
+ * The parts of the report sheet outside its cells that would point at what a report does not
+ * have (other sheets, input lists, table parts): data validations, conditional formats and
+ * hyperlinks that name another sheet, and table parts (a values copy keeps their cells, not the
+ * tables). Returns [start, end) spans of the template sheet's XML to leave out.
  */
 function danglingSpans(sheet: Sheet): [number, number][] {
   const xml = sheet.xml;
@@ -400,8 +411,8 @@ export async function openReportTemplate(file: string, options: TemplateOptions 
   const keyCell = placeName(key, book);
   if (keyK < 0) throw new ReportTemplateError(`the key cell ${keyCell} is empty: type one key in it (the example the template shows)`);
   if ((sheet.cells.formula[keyK] as number) >= 0) throw new ReportTemplateError(`the key cell ${keyCell} holds a formula; a key is typed, so it must hold a value`);
-  const { keys, problems, listed } = keyList(book, sheetIdx, options);
   const found = optionalPlace(book, sheetIdx, REPORT_NAMES.found, options.foundCell, "the found cell");
+  const { keys, problems, listed } = keyList(book, sheetIdx, options, found !== undefined);
   const fileCell = optionalPlace(book, sheetIdx, REPORT_NAMES.file, options.fileCell, "the file-name cell");
   const group = optionalPlace(book, sheetIdx, REPORT_NAMES.group, options.groupCell, "the group cell");
   const figures = optionalPlace(book, sheetIdx, REPORT_NAMES.figures, undefined, REPORT_NAMES.figures);

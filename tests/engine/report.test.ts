@@ -166,6 +166,14 @@ describe("report templates: the convention's names", () => {
     await expect(openReportTemplate(bare, { keyCell: "Report!Z99", keysFrom: ["Data!A2:A4"] })).rejects.toThrow(/is empty/);
     await expect(openReportTemplate(bare, { sheet: "Nope", keyCell: "B1" })).rejects.toThrow(/no sheet "Nope"/);
   });
+
+  it("without a Report_Found cell, a typed key that is not in the key list matches nothing (listed, no report)", async () => {
+    const bare = await miniTemplate(path.join(dir, "bare2.xlsx"), false);
+    const tpl = await openReportTemplate(bare, { keyCell: "Report!B1", keysFrom: ["Data!A2:A4"], keys: ["S2", "ZZZ-99"] });
+    expect(tpl.keys.map((k) => k.key)).toEqual(["S2"]);
+    expect(tpl.keyProblems.map((p) => [p.key, p.notFound])).toEqual([["ZZZ-99", true]]);
+    expect(tpl.keyProblems[0]!.reason).toMatch(/not in the key list \(Data!A2:A4\)/);
+  });
 });
 
 describe("report batches: files, the index and the listings", () => {
