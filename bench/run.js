@@ -14,10 +14,16 @@
  *  5. a season: 40 invented workbooks of 250 samples recalculated by one `soilcell recalc FOLDER`
  *     run, serial (--jobs 1) against parallel (one job per core), and against the sum of 40
  *     per-file runs as a user would script them (`npx soilcell recalc FILE`, and plain `node`).
+ *  6. client reports: the demo season's template (sample-workbooks/caddow-2025-soil-tests.xlsx),
+ *     one values-only workbook and one PDF per paddock (280), through LibreOffice, as reports per
+ *     second and as the ratio to the per-page script the reports issue describes (4 s a page:
+ *     patch the sheet, recalculate, convert, split).
  * Prints a table and writes bench-output/latest.json (with --save also bench/results.json).
  *
  * Options: --sizes=1000,10000,100000  --rows=10000 (engine comparison)  --rounds=3  --save
- *   --only=engine,core,e2e,million,season  --npx-files=40 (per-file npx runs timed; the rest scaled)
+ *   --only=engine,core,e2e,million,season,reports  --npx-files=40 (per-file npx runs timed; the rest scaled)
+ *   --jobs=1,2 (LibreOffice runs side by side, reports part)
+ *   --report-limit=N (a trial of the reports part on the first N keys: figures, no target)
  * The machine may be shared: compare the ratios measured within one run, not absolute times.
  */
 "use strict";
@@ -44,7 +50,7 @@ const gc = () => (global.gc ? global.gc() : undefined);
 const mb = (bytes) => bytes / 1024 ** 2;
 
 function options(argv) {
-  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million", "season"], npxFiles: SEASON_FILES };
+  const o = { sizes: [1000, 10000, 100000], rows: 10000, rounds: 3, save: false, only: ["engine", "core", "e2e", "million", "season", "reports"], npxFiles: SEASON_FILES, jobs: [1, 2] };
   for (const a of argv) {
     const [k, v] = a.replace(/^--/, "").split("=");
     if (k === "sizes") o.sizes = v.split(",").map(Number);
@@ -53,6 +59,8 @@ function options(argv) {
     else if (k === "save") o.save = true;
     else if (k === "only") o.only = v.split(",");
     else if (k === "npx-files") o.npxFiles = Math.max(1, Math.min(SEASON_FILES, Number(v)));
+    else if (k === "jobs") o.jobs = v.split(",").map(Number);
+    else if (k === "report-limit") o.reportLimit = Number(v);
   }
   return o;
 }
@@ -389,6 +397,42 @@ async function e2eChild(input, output) {
   };
 }
 
+/** The per-page script the reports issue describes: about 4 s a paddock (19 minutes for 280). */
+const SCRIPT_SECONDS_PER_REPORT = 4;
+const REPORT_TEMPLATE = path.join(ROOT, "sample-workbooks", "caddow-2025-soil-tests.xlsx");
+
+/** A batch of reports from the sample template, in process (LibreOffice is its own process). */
+async function reportsChild(outDir, jobs, limit) {
+  const { runReportBatch } = require(path.join(BUILD, "engine", "report-batch.js"));
+  const { findOfficeTools, missingToolsMessage } = require(path.join(BUILD, "engine", "office-pdf.js"));
+  const missing = missingToolsMessage(findOfficeTools());
+  fs.rmSync(outDir, { recursive: true, force: true });
+  const c0 = process.cpuUsage();
+  const t0 = now();
+  const s = await runReportBatch(REPORT_TEMPLATE, { outDir, jobs, ...(limit ? { limit } : {}) });
+  const seconds = now() - t0;
+  const c = process.cpuUsage(c0);
+  const pages = s.entries.reduce((a, e) => a + (e.pages || 0), 0);
+  return {
+    jobs,
+    limit: limit || undefined,
+    seconds,
+    nodeCpuSeconds: (c.user + c.system) / 1e6,
+    phases: s.seconds,
+    reports: s.reports,
+    workbooks: s.entries.filter((e) => e.xlsx).length,
+    pdfs: s.pdf.written,
+    pages,
+    notFound: s.notFound,
+    withErrors: s.withErrors,
+    pdfMode: s.pdf.mode,
+    pdfSkipped: s.pdf.skipped || missing,
+    perKeyCells: s.perKeyCells,
+    reportsPerSecond: s.reports / seconds,
+    ratioToScript: (SCRIPT_SECONDS_PER_REPORT * s.reports) / seconds,
+  };
+}
+
 // ---------------------------------------------------------------------------------------------
 // Season part: the command itself, as a user runs it
 
@@ -630,6 +674,13 @@ async function main() {
     say(`season: generating ${SEASON_FILES} workbooks of ${SEASON_SAMPLES} samples`);
     results.season = await seasonPart(o, say);
   }
+  if (o.only.includes("reports")) {
+    results.reports = [];
+    for (const jobs of o.jobs) {
+      say(`reports: the sample template's 280 paddocks, workbook + PDF each (LibreOffice runs: ${jobs})`);
+      results.reports.push(child(["reports", path.join(OUT_DIR, `reports-${jobs}`), String(jobs), String(o.reportLimit || 0)]));
+    }
+  }
 
   // Targets
   const t = results.targets;
@@ -667,6 +718,12 @@ async function main() {
   const se = results.season;
   if (se) {
     t.push({ target: `season: serial / parallel (${se.jobs} cores)`, limit: "≥ 1.7×", value: se.serialOverParallel, met: se.serialOverParallel >= 1.7 && se.problems.length === 0 });
+  }
+  for (const r of results.reports || []) {
+    if (r.failed || r.limit) continue; // a trial on a few keys has no target
+    const all = !r.pdfSkipped && r.pdfs === r.reports && r.workbooks === r.reports && r.reports >= 280;
+    t.push({ target: `280 reports, workbook + PDF, LibreOffice runs ${r.jobs} (s)`, limit: "≤ 60 s", value: r.seconds, met: all && r.seconds <= 60 });
+    t.push({ target: `reports: one page each (LibreOffice runs ${r.jobs})`, limit: "pages = reports", value: r.pages, met: all && r.pages === r.reports, count: true });
   }
 
   // Table
@@ -738,11 +795,27 @@ async function main() {
     lines.push(`  control: ${se.jobs} --jobs 1 processes at once, ${se.files / se.jobs} files each   ${fmtS(se.controlSeconds).padEnd(9)} serial/control ${fmtX(se.serialOverControl)} (what the machine gave ${se.jobs} processes just then)`);
     for (const p of se.problems) lines.push(`  PROBLEM: ${p}`);
   }
+  if (results.reports && results.reports.length) {
+    lines.push("");
+    lines.push(`Client reports (soilcell report on the sample template: workbook + PDF per paddock; against the per-page script at ${SCRIPT_SECONDS_PER_REPORT} s a report)`);
+    lines.push("  LO runs  reports  PDFs  pages  total      template  reports   PDF       reports/s  × script  node CPU");
+    for (const r of results.reports) {
+      if (r.failed) {
+        lines.push(`  FAILED (status ${r.status}): ${String(r.stderr).split("\n").pop()}`);
+        continue;
+      }
+      const p = r.phases;
+      if (r.limit) lines.push(`  (a trial on the first ${r.limit} keys: no target)`);
+      lines.push(
+        `  ${String(r.jobs).padEnd(8)} ${String(r.reports).padEnd(8)} ${String(r.pdfs).padEnd(5)} ${String(r.pages).padEnd(6)} ${fmtS(r.seconds).padEnd(10)} ${fmtS(p.template).padEnd(9)} ${fmtS(p.reports).padEnd(9)} ${fmtS(p.pdf).padEnd(9)} ${r.reportsPerSecond.toFixed(1).padEnd(10)} ${r.ratioToScript.toFixed(0).padEnd(9)} ${fmtS(r.nodeCpuSeconds)}${r.pdfSkipped ? `  (no PDF: ${r.pdfSkipped})` : ""}`,
+      );
+    }
+  }
   if (t.length) {
     lines.push("");
     lines.push("Targets");
     for (const x of t) {
-      const v = x.target.includes("complete") ? (x.met ? "yes" : "no") : x.limit.includes("MB") ? `${x.value.toFixed(0)} MB` : x.limit.startsWith("≤ 15 s") ? fmtS(x.value) : fmtX(x.value);
+      const v = x.count ? String(x.value) : x.target.includes("complete") ? (x.met ? "yes" : "no") : x.limit.includes("MB") ? `${x.value.toFixed(0)} MB` : / s$/.test(x.limit) ? fmtS(x.value) : fmtX(x.value);
       lines.push(`  ${x.met ? "met   " : "MISSED"} ${x.target.padEnd(38)} ${x.limit.padEnd(10)} ${v}`);
     }
   }
@@ -765,12 +838,13 @@ async function main() {
 }
 
 if (process.argv[2] === "--child") {
-  const [part, a, b] = process.argv.slice(3);
+  const [part, a, b, c] = process.argv.slice(3);
   const go = async () => {
     if (part === "engine") return engineChild(Number(a), Number(b));
     if (part === "floor") return floorChild(a, b);
     if (part === "core") return coreChild(Number(a));
     if (part === "e2e") return e2eChild(a, b);
+    if (part === "reports") return reportsChild(a, Number(b), Number(c));
     throw new Error(`unknown part ${part}`);
   };
   go().then(

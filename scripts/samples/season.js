@@ -6,6 +6,7 @@
 "use strict";
 const ExcelJS = require("exceljs");
 const { rng, round, clamp, SCENARIO, PADDOCK_WORDS, COLOURS, fill, thin, col, sheetRef, formula, readMe, fixDates } = require("./common");
+const { buildReport, buildReportList } = require("./report");
 
 const FIRST_ROW = 3; // row 1: column groups, row 2: headers, data from row 3
 
@@ -160,6 +161,7 @@ function seasonWorkbook(build) {
   const wsProducts = wb.addWorksheet("Lime products", { properties: { tabColor: { argb: COLOURS.sky } } });
   const wsBands = wb.addWorksheet("Bands", { properties: { tabColor: { argb: COLOURS.sky } } });
   const wsSet = wb.addWorksheet("Settings", { properties: { tabColor: { argb: COLOURS.sky } } });
+  const wsList = wb.addWorksheet("Report list", { properties: { tabColor: { argb: COLOURS.green } } });
 
   // --- Settings ---------------------------------------------------------------------------
   const SET = { targetPh: "$C$4", targetAlSat: "$C$5", depthB: "$C$6", belowDetection: "$C$7" };
@@ -512,7 +514,10 @@ function seasonWorkbook(build) {
   wsFarms.views = [{ state: "frozen", ySplit: 3 }];
 
   // --- Client report ----------------------------------------------------------------------
-  buildReport(wsReport, { A, B, refA, refB, reportSample, productTable, setRef, bandRow, about, layout });
+  const bandRange = (c) => `Bands!$${c}$4:$${c}$${3 + BAND_IDS.length}`;
+  const bands = { ids: bandRange("A"), limits: `Bands!$F$4:$H$${3 + BAND_IDS.length}`, sources: bandRange("K") };
+  buildReport(wsReport, wb, { refA, refB, reportSample, productTable, setRef, bands, about });
+  buildReportList(wsList, wb, { A, B, labA: labA.length, labB: labB.length });
 
   // --- Read me ----------------------------------------------------------------------------
   const no3A = `${A.letters.no3}${FIRST_ROW}:${A.letters.no3}${A.lastRow}`;
@@ -522,7 +527,8 @@ function seasonWorkbook(build) {
     ["What is in this workbook", "h"],
     [`${SCENARIO.labA.sheet}: ${labA.length} samples as ${SCENARIO.labA.name} delivers them: ppm, meq/100 g and lb/ac, P by Bray-1 or Mehlich-3, Sikora buffer pH (run only below pH 6.7), 0-6 inch cores. The paddock plan gives each paddock's rotation: the Tri-State P critical level depends on it (20 ppm Mehlich-3 for corn-soybean, 30 ppm when wheat or alfalfa is in the rotation).`, "n"],
     [`${SCENARIO.labB.sheet}: ${labB.length} samples as ${SCENARIO.labB.name} delivers them: mg/kg and cmol(+)/kg, Colwell P and K, DTPA Zn, Cu and Mn, KCl-extractable Al, 0-10 cm cores, and KCl-40 sulfur on a 0-30 cm core; converted to kg/ha with the bulk density in the paddock plan.`, "n"],
-    ["Farms: samples, lime to spread and paddocks below optimum per farm (COUNTIFS/SUMIF over the lab sheets). Client report: one page per paddock; type a Sample ID in the yellow cell.", "n"],
+    ["Farms: samples, lime to spread and paddocks below optimum per farm (COUNTIFS/SUMIF over the lab sheets). Client report: one page per paddock; type a Sample ID in the yellow cell. Each analyte sits on a band scale (a strip of the reference table's bands, lowest at left, the result marked by a black diamond), and the exchange complex is one strip shared among the cations.", "n"],
+    ["Reports for the whole season: the yellow cell is named Report_Key and the Sample IDs on the Report list sheet Report_Keys (Formulas > Name Manager shows them, with Report_Found, Report_File, Report_Group and Report_Figures). npx soilcell report this-file.xlsx writes every paddock's page as a values-only workbook and a PDF, a folder and a PDF per farm, and an index.", "n"],
     ["Lime products: CCE, moisture and sieve fractions of the products on the price list; fineness efficiency by SOIL.FINENESS. Bands: the band limits used for SOIL.BANDPOS, with their sources. Settings: lime targets and the policy for below-detection results.", "n"],
     ["Two ways to write SOIL formulas", "h"],
     ["Columns shaded light blue hold ONE spilling formula in their first data row, e.g. =SOIL.CEC(M3:M152,N3:N152,L3:L152,O3:O152,\"ppm\"): the result fills the column. White interpretation columns hold one formula per row, e.g. =SOIL.CAMG(M3,N3,\"ppm\"). The unit is always written: a lab's ppm and meq/100 g differ 200-fold, so soilcell never assumes one.", "n"],
@@ -549,287 +555,6 @@ function seasonWorkbook(build) {
       deliberateErrors: [{ sheet: "Read me", cell: `B${refusalRow}`, id: detectA.id }],
     },
   };
-}
-
-/** The one-page client report: picks a paddock by Sample ID from either lab sheet. */
-function buildReport(ws, ctx) {
-  const { A, B, refA, refB, reportSample, productTable, setRef, bandRow, about, layout } = ctx;
-  const widths = { A: 2, B: 30, C: 16, D: 14, E: 30, F: 24, G: 2, H: 2, I: 12, J: 12 };
-  for (const [c, w] of Object.entries(widths)) ws.getColumn(c).width = w;
-  ws.getColumn("I").hidden = true;
-  ws.getColumn("J").hidden = true;
-  ws.properties.defaultRowHeight = 17;
-
-  const band = (row, text, colour = COLOURS.blue) => {
-    ws.mergeCells(`B${row}:F${row}`);
-    const c = ws.getCell(`B${row}`);
-    c.value = text;
-    c.font = { bold: true, size: 12, color: { argb: COLOURS.white } };
-    c.fill = fill(colour);
-    c.alignment = { vertical: "middle", indent: 1 };
-    ws.getRow(row).height = 20;
-  };
-  const label = (addr, text) => {
-    const c = ws.getCell(addr);
-    c.value = text;
-    c.font = { color: { argb: COLOURS.grey } };
-  };
-
-  // Title
-  ws.mergeCells("B1:F1");
-  const t = ws.getCell("B1");
-  t.value = `${SCENARIO.consultancy}`;
-  t.font = { bold: true, size: 18, color: { argb: COLOURS.white } };
-  t.fill = fill(COLOURS.blue);
-  t.alignment = { vertical: "middle", indent: 1 };
-  ws.getRow(1).height = 30;
-  ws.mergeCells("B2:F2");
-  const st = ws.getCell("B2");
-  st.value = `Soil test interpretation for the paddock below · ${SCENARIO.district}, ${SCENARIO.season} sampling`;
-  st.font = { italic: true, color: { argb: COLOURS.blue } };
-  st.border = { bottom: { style: "medium", color: { argb: COLOURS.orange } } };
-
-  // Picker and the helpers that find the paddock (hidden column I/J)
-  label("B4", "Sample ID");
-  const pick = ws.getCell("C4");
-  pick.value = reportSample.id;
-  pick.font = { bold: true, size: 12 };
-  pick.fill = fill(COLOURS.tintYellow);
-  pick.border = { top: { style: "medium" }, bottom: { style: "medium" }, left: { style: "medium" }, right: { style: "medium" } };
-  pick.alignment = { horizontal: "center" };
-  ws.getCell("I3").value = "helpers";
-  formula(ws.getCell("I4"), `IFERROR(MATCH($C$4,${refA("id")},0),0)`);
-  formula(ws.getCell("I5"), `IFERROR(MATCH($C$4,${refB("id")},0),0)`);
-  formula(ws.getCell("I6"), `IF($I$4>0,"A",IF($I$5>0,"B",""))`);
-  const lab = "$I$6";
-  /** A value from the paddock's lab sheet: Lab A column / Lab B column (null: not reported there). */
-  const get = (keyA, keyB, missing = `"not reported"`) => {
-    const a = keyA ? `INDEX(${refA(keyA)},$I$4)` : missing;
-    const b = keyB ? `INDEX(${refB(keyB)},$I$5)` : missing;
-    return `IF(${lab}="A",${a},IF(${lab}="B",${b},""))`;
-  };
-  const blankIfEmpty = (expr) => `IF(${expr}="","",${expr})`;
-
-  formula(ws.getCell("E4"), `IF(${lab}="A","${SCENARIO.labA.name}",IF(${lab}="B","${SCENARIO.labB.name}","Sample ID not found in either lab sheet"))`);
-  ws.getCell("E4").font = { bold: true };
-  ws.mergeCells("E4:F4");
-  ws.getCell("C5").value = "Type a Sample ID from either lab sheet in the yellow cell.";
-  ws.getCell("C5").font = { italic: true, size: 8, color: { argb: COLOURS.grey } };
-
-  const facts = [
-    ["Farm", get("farm", "farm"), null],
-    ["Paddock", get("paddock", "paddock"), null],
-    ["Area (ha)", get("area", "area"), "0.0"],
-    ["Next crop", get("crop", "crop"), null],
-    ["Sampled", get("sampled", "sampled"), "d mmm yyyy"],
-    ["Depth", `IF(${lab}="A","0-6 in (15 cm)",IF(${lab}="B","0-10 cm",""))`, null],
-  ];
-  facts.forEach(([name, f, fmt], i) => {
-    const row = 6 + Math.floor(i / 2);
-    const [lc, vc] = i % 2 === 0 ? ["B", "C"] : ["E", "F"];
-    label(`${lc}${row}`, name);
-    formula(ws.getCell(`${vc}${row}`), f);
-    ws.getCell(`${vc}${row}`).font = { bold: true };
-    ws.getCell(`${vc}${row}`).alignment = { horizontal: "left" };
-    if (fmt) ws.getCell(`${vc}${row}`).numFmt = fmt;
-  });
-
-  // Soil results with bands
-  band(10, "Soil test results and nutrient bands");
-  ["Analysis", "Result", "Unit", "Band", "Band scale"].forEach((h, i) => {
-    const c = ws.getCell(11, 2 + i);
-    c.value = h;
-    c.font = { bold: true };
-    c.border = { bottom: thin(COLOURS.black) };
-  });
-  const pM3 = `INDEX(${refA("pM3")},$I$4)`;
-  const results = [
-    { name: "pH (water)", value: get("ph", "phW"), unit: `""`, fmt: "0.0" },
-    { name: "pH (CaCl2)", value: get(null, "phCa"), unit: `""`, fmt: "0.0" },
-    { name: `IF(${lab}="B","Organic carbon","Organic matter")`, nameIsFormula: true, value: get("om", "oc"), unit: `"%"`, fmt: "0.0" },
-    {
-      name: `IF(${lab}="A",IF(${pM3}<>"","Phosphorus (Mehlich-3)","Phosphorus (Bray-1)"),"Phosphorus (Colwell)")`,
-      nameIsFormula: true,
-      value: `IF(${lab}="A",IF(${pM3}<>"",${pM3},INDEX(${refA("pBray")},$I$4)),IF(${lab}="B",INDEX(${refB("colwellP")},$I$5),""))`,
-      unit: `IF(${lab}="A","ppm","mg/kg")`,
-      band: get("pBand", "pBand"),
-      pos: get("pPos", "pPos"),
-      limits: `IF(${lab}="A",IF(${pM3}<>"",${bandRow["tristate2020-m3-p-corn-soybean"].limits},${bandRow["sare-bray1-p"].limits}),${bandRow["grdc2020-colwell-p-wheat"].limits})`,
-      fmt: "0",
-    },
-    {
-      name: `IF(${lab}="A","Potassium (Mehlich-3)","Potassium (Colwell)")`,
-      nameIsFormula: true,
-      value: get("k", "colwellK"),
-      unit: `IF(${lab}="A","ppm","mg/kg")`,
-      band: get("kBand", null, `"no reference table"`),
-      pos: get("kPos", null, `""`),
-      limits: `${bandRow["tristate2020-m3-k-cec-above-5"].limits}`,
-      fmt: "0",
-    },
-    {
-      name: "Sulfur",
-      value: get("s", "s"),
-      unit: `IF(${lab}="A","ppm (SO4-S)","mg/kg (KCl-40, 0-30 cm)")`,
-      band: get(null, "sBand", `"no reference table"`),
-      pos: get(null, "sPos", `""`),
-      limits: `${bandRow["anderson2013-kcl40-s-wheat"].limits}`,
-      fmt: "0.0",
-    },
-    { name: "Zinc (DTPA)", value: get(null, "zn"), unit: `"mg/kg"`, band: get(null, "znBand", `""`), pos: get(null, "znPos", `""`), limits: `${bandRow["havlin1999-dtpa-zn"].limits}`, fmt: "0.00" },
-    { name: "Copper (DTPA)", value: get(null, "cu"), unit: `"mg/kg"`, band: get(null, "cuBand", `""`), pos: get(null, "cuPos", `""`), limits: `${bandRow["havlin1999-dtpa-cu"].limits}`, fmt: "0.00" },
-    { name: "Manganese (DTPA)", value: get(null, "mn"), unit: `"mg/kg"`, band: get(null, "mnBand", `""`), fmt: "0.0" },
-    { name: "Nitrate-N", value: get("no3kg", "no3kg"), unit: `IF(${lab}="A","kg/ha","kg/ha, 0-10 cm")`, fmt: "0.0" },
-  ];
-  let row = 12;
-  for (const line of results) {
-    const n = ws.getCell(`B${row}`);
-    if (line.nameIsFormula) formula(n, line.name);
-    else n.value = line.name;
-    formula(ws.getCell(`C${row}`), blankIfEmpty(line.value));
-    ws.getCell(`C${row}`).numFmt = line.fmt;
-    ws.getCell(`C${row}`).alignment = { horizontal: "right" };
-    formula(ws.getCell(`D${row}`), line.unit);
-    ws.getCell(`D${row}`).font = { color: { argb: COLOURS.grey } };
-    if (line.band) formula(ws.getCell(`E${row}`), blankIfEmpty(line.band));
-    if (line.band && line.pos) {
-      formula(ws.getCell(`J${row}`), line.limits);
-      formula(ws.getCell(`I${row}`), line.pos);
-      // The bar: position on the band scale, from half a band below the first limit (0) to half a band above the last (1).
-      formula(ws.getCell(`F${row}`), `IF(ISNUMBER(I${row}),(I${row}+0.5)/J${row},"")`);
-      ws.getCell(`F${row}`).numFmt = ";;;";
-      ws.addConditionalFormatting({
-        ref: `E${row}`,
-        rules: [
-          { type: "expression", priority: 1, formulae: [`AND(ISNUMBER($I${row}),$I${row}<0)`], style: { fill: { type: "pattern", pattern: "solid", bgColor: { argb: COLOURS.tintVermillion } }, font: { bold: true } } },
-          { type: "expression", priority: 2, formulae: [`AND(ISNUMBER($I${row}),$I${row}>=0,$I${row}<1)`], style: { fill: { type: "pattern", pattern: "solid", bgColor: { argb: COLOURS.tintGreen } } } },
-          { type: "expression", priority: 3, formulae: [`AND(ISNUMBER($I${row}),$I${row}>=1)`], style: { fill: { type: "pattern", pattern: "solid", bgColor: { argb: COLOURS.tintSky } } } },
-        ],
-      });
-      ws.addConditionalFormatting({
-        ref: `F${row}`,
-        rules: [{ type: "dataBar", priority: 4, minLength: 0, maxLength: 100, gradient: false, border: false, cfvo: [{ type: "num", value: 0 }, { type: "num", value: 1 }], color: { argb: COLOURS.blue } }],
-      });
-      ws.getCell(`F${row}`).border = { left: thin(COLOURS.orange), right: thin(COLOURS.orange) };
-    }
-    for (const c of ["B", "C", "D", "E", "F"]) ws.getCell(`${c}${row}`).border = { ...(ws.getCell(`${c}${row}`).border ?? {}), bottom: thin() };
-    row++;
-  }
-  ws.mergeCells(`B${row}:F${row}`);
-  ws.getCell(`B${row}`).value =
-    "Band scale: the bar starts half a band below the first limit and ends half a band above the last; the band word is the reference table's own. Shading: below optimum / in the optimum band / above it.";
-  ws.getCell(`B${row}`).font = { italic: true, size: 9, color: { argb: COLOURS.grey } };
-  ws.getCell(`B${row}`).alignment = { wrapText: true };
-  ws.getRow(row).height = 26;
-  row += 2;
-
-  // Cation balance
-  band(row, "Cation balance");
-  row++;
-  const cations = [
-    [`IF(${lab}="A","CEC, sum of bases","ECEC (with Al)")`, get("cecSum", "ecec"), `"cmol(+)/kg"`, "0.0", false],
-    [`IF(${lab}="A","CEC reported by the lab","")`, get("cec", null, `""`), `IF(${lab}="A","meq/100 g","")`, "0.0", false],
-    [`IF(${lab}="A","Base saturation","Al saturation")`, get("bs", "alSat"), `IF(${lab}="A","% of lab CEC","% of ECEC")`, "0", true],
-    [`"Calcium"`, get("caPct", "caPct"), `IF(${lab}="A","% of lab CEC","% of ECEC")`, "0", true],
-    [`"Magnesium"`, get("mgPct", "mgPct"), `IF(${lab}="A","% of lab CEC","% of ECEC")`, "0", true],
-    [`"Potassium"`, get("kPct", "kPct"), `IF(${lab}="A","% of lab CEC","% of ECEC")`, "0.0", true],
-    [`"Exchangeable sodium (ESP)"`, get("esp", "esp"), `"%"`, "0.0", true],
-    [`"Ca:Mg ratio"`, get("camg", "camg"), `"charge basis"`, "0.0", false],
-  ];
-  const barFrom = row;
-  for (const [name, value, unit, fmt, bar] of cations) {
-    formula(ws.getCell(`B${row}`), name);
-    formula(ws.getCell(`C${row}`), blankIfEmpty(value));
-    ws.getCell(`C${row}`).numFmt = fmt;
-    formula(ws.getCell(`D${row}`), unit);
-    ws.getCell(`D${row}`).font = { color: { argb: COLOURS.grey } };
-    if (bar) formula(ws.getCell(`E${row}`), `IF(ISNUMBER(C${row}),C${row}/100,"")`);
-    ws.getCell(`E${row}`).numFmt = ";;;";
-    for (const c of ["B", "C", "D", "E", "F"]) ws.getCell(`${c}${row}`).border = { bottom: thin() };
-    row++;
-  }
-  ws.addConditionalFormatting({
-    ref: `E${barFrom}:E${row - 1}`,
-    rules: [{ type: "dataBar", priority: 5, minLength: 0, maxLength: 100, gradient: false, border: false, cfvo: [{ type: "num", value: 0 }, { type: "num", value: 1 }], color: { argb: COLOURS.green } }],
-  });
-  row++;
-
-  // Lime plan
-  band(row, "Lime plan", COLOURS.orange);
-  ws.getCell(`B${row}`).font = { bold: true, size: 12, color: { argb: COLOURS.black } };
-  row++;
-  const limeRows = {};
-  const limeLines = [
-    ["method", "Method", `IF(${lab}="A","Sikora buffer table (SIKORA-OR2025) to pH "&${setRef("targetPh")},IF(${lab}="B","Al saturation (Cochrane et al. 1980) to "&${setRef("targetAlSat")}&" % Al, 0-"&${setRef("depthB")}&" cm",""))`, null, null],
-    ["caco3", "Lime requirement as pure CaCO3", blankIfEmpty(get("lime", "lime")), `"t/ha"`, "0.00"],
-    ["product", "Product (change to compare)", null, null, null],
-    ["cce", "CCE of the product", `IFERROR(VLOOKUP($C$#product,${productTable},2,FALSE),"")`, `"%"`, "0"],
-    ["fine", "Fineness efficiency (SOIL.FINENESS)", `IFERROR(VLOOKUP($C$#product,${productTable},8,FALSE),"")`, `"%"`, "0.0"],
-    ["moist", "Moisture as received", `IFERROR(VLOOKUP($C$#product,${productTable},3,FALSE),"")`, `"%"`, "0"],
-    ["rate", "Product rate (SOIL.LIMEPRODUCT)", `SOIL.LIMEPRODUCT(C#caco3,C#cce,C#fine,C#moist)`, `"t/ha as received"`, "0.00"],
-    ["total", "Product for the paddock", `IF(ISNUMBER(C#rate),C#rate*${get("area", "area")},"")`, `"t"`, "0.0"],
-  ];
-  limeLines.forEach(([key], i) => (limeRows[key] = row + i));
-  for (const [key, name, f, unit, fmt] of limeLines) {
-    label(`B${row}`, name);
-    ws.getCell(`B${row}`).font = { color: { argb: COLOURS.black } };
-    const c = ws.getCell(`C${row}`);
-    if (key === "product") {
-      c.value = reportSample.product;
-      c.fill = fill(COLOURS.tintYellow);
-      c.border = { top: thin(COLOURS.black), bottom: thin(COLOURS.black), left: thin(COLOURS.black), right: thin(COLOURS.black) };
-      ws.mergeCells(`C${row}:D${row}`);
-      ws.dataValidations.add(`C${row}`, { type: "list", allowBlank: false, formulae: [`${productTable.replace(/\$H\$/, "$A$")}`] });
-    } else {
-      formula(c, f.replace(/#(\w+)/g, (_, k) => String(limeRows[k])));
-      if (fmt) c.numFmt = fmt;
-    }
-    if (key === "method") ws.mergeCells(`C${row}:F${row}`);
-    if (unit) {
-      formula(ws.getCell(`D${row}`), unit);
-      ws.getCell(`D${row}`).font = { color: { argb: COLOURS.grey } };
-    }
-    if (key === "rate" || key === "total") {
-      c.font = { bold: true, size: 12 };
-      c.fill = fill(COLOURS.tintOrange);
-    }
-    for (const x of ["B", "C", "D", "E", "F"]) ws.getCell(`${x}${row}`).border = { ...(ws.getCell(`${x}${row}`).border ?? {}), bottom: thin() };
-    row++;
-  }
-  ws.mergeCells(`B${row}:F${row}`);
-  ws.getCell(`B${row}`).value =
-    "Split large applications, incorporate to the depth the rate is for, and time lime ahead of the crop. Burnt and hydrated lime are caustic; all liming dust needs care.";
-  ws.getCell(`B${row}`).font = { italic: true, size: 9, color: { argb: COLOURS.grey } };
-  ws.getCell(`B${row}`).alignment = { wrapText: true };
-  ws.getRow(row).height = 26;
-  row += 2;
-
-  // Footer: methods, sources, version, caution
-  band(row, "Methods and sources", COLOURS.grey);
-  row++;
-  const abouts = [`"CEC"`, `"SATURATION"`, `"SUFFICIENCY"`, `"BANDPOS"`, `IF(${lab}="B","LIMEALSAT","LIMEBUFFER")`, `"LIMEPRODUCT"`];
-  for (const name of abouts) {
-    ws.mergeCells(`B${row}:F${row}`);
-    formula(ws.getCell(`B${row}`), `SOIL.ABOUT(${name})`);
-    ws.getCell(`B${row}`).alignment = { wrapText: true, vertical: "top" };
-    ws.getCell(`B${row}`).font = { size: 8 };
-    ws.getRow(row).height = 46;
-    row++;
-  }
-  ws.mergeCells(`B${row}:F${row}`);
-  formula(ws.getCell(`B${row}`), `"Computed by "&SOIL.VERSION()&" from the laboratory's results; prepared by ${SCENARIO.consultancy}."`);
-  ws.getCell(`B${row}`).font = { size: 9, color: { argb: COLOURS.grey } };
-  row++;
-  ws.mergeCells(`B${row}:F${row}`);
-  ws.getCell(`B${row}`).value = `${about.CAUTION} Lime and fertiliser rates can hurt crops, soils, water and people if misapplied.`;
-  ws.getCell(`B${row}`).font = { bold: true, size: 10, color: { argb: COLOURS.vermillion } };
-  ws.getCell(`B${row}`).alignment = { wrapText: true };
-  ws.getCell(`B${row}`).border = { top: { style: "medium", color: { argb: COLOURS.vermillion } } };
-  ws.getRow(row).height = 30;
-
-  ws.pageSetup = { paperSize: 9, orientation: "portrait", fitToPage: true, fitToWidth: 1, fitToHeight: 1, printArea: `A1:G${row}`, margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 } };
-  ws.views = [{ showGridLines: false }];
-  void layout;
 }
 
 module.exports = { seasonWorkbook };

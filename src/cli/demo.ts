@@ -12,6 +12,9 @@ import ExcelJS from "exceljs";
 import { CAUTION } from "../core/about";
 import { sufficiencyTables } from "../core/bands/sufficiency";
 import { CellProblem, RecalcSummary, recalcWorkbook } from "../engine/recalc";
+import { BatchSummary, runReportBatch } from "../engine/report-batch";
+import { REPORT_NAMES } from "../engine/report-template";
+import { openPackage } from "../engine/xlsx-package";
 
 /** Sheet names and column headers the sample workbooks use; the generator takes them from here. */
 export const LAYOUT = {
@@ -81,6 +84,18 @@ export interface DemoOptions {
   readonly outputDir?: string;
   /** Where the human summary goes; default stdout. Pass null for none. */
   readonly print?: ((line: string) => void) | null;
+  /**
+   * Client reports from every sample workbook that is a report template (it names a Report_Key),
+   * into <outputDir>/reports/; false for none. `limit`: only the first N keys; `pdf`: false for
+   * workbooks only.
+   */
+  readonly reports?: false | { readonly limit?: number; readonly pdf?: boolean };
+}
+
+/** One template's reports in the demo. */
+export interface DemoReports {
+  readonly template: string;
+  readonly summary: BatchSummary;
 }
 
 /** One sample workbook's recalculation: the engine's own summary, named by the sample file. */
@@ -167,6 +182,8 @@ export interface DemoSummary {
   readonly reasons: readonly ErrorReason[];
   /** Every input file has the same bytes after the run as before. */
   readonly inputsUntouched: boolean;
+  /** The client reports written (one entry per template workbook). */
+  readonly reports: readonly DemoReports[];
 }
 
 /**
@@ -436,9 +453,27 @@ function report(s: DemoSummary, say: (line: string) => void): void {
     say(`  ${r.cells.length} × ${r.error} ${r.message}`);
     for (const c of r.cells.slice(0, 6)) say(`      ${c}`);
   }
+  for (const r of s.reports) {
+    const b = r.summary;
+    const where = path.relative(process.cwd(), b.outDir) || b.outDir;
+    say("");
+    say(`Client reports from ${path.basename(r.template)}: ${b.reports} written into ${where}/ (${b.entries.some((e) => e.xlsx) ? "a values-only workbook" : ""}${b.pdf.written ? " and a PDF" : ""} each${b.groupPdfs.length ? `, one folder and one combined PDF per farm` : ""}), index in ${path.join(where, path.basename(b.index.csv))} and index.xlsx, ${b.seconds.total.toFixed(1)} s`);
+    if (b.pdf.skipped) say(`  ${b.pdf.skipped}`);
+    say(`  keys that matched nothing: ${b.notFound}; reports with cells in error: ${b.withErrors}`);
+  }
   say("");
   say(s.inputsUntouched ? "Inputs untouched (same bytes as before the run)." : "WARNING: an input file changed during the run.");
   say(CAUTION);
+}
+
+/** Whether a workbook follows the report convention (names a Report_Key). */
+async function isReportTemplate(file: string): Promise<boolean> {
+  try {
+    const pkg = await openPackage(fs.readFileSync(file));
+    return pkg.definedNames.some((d) => d.name.toUpperCase() === REPORT_NAMES.key.toUpperCase());
+  } catch {
+    return false;
+  }
 }
 
 /**
@@ -466,6 +501,21 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
     workbooks.push({ ...r, file, output });
   }
   const read = await readOutputs(workbooks);
+  const reports: DemoReports[] = [];
+  if (options.reports !== false) {
+    const templates: string[] = [];
+    for (const f of files) if (await isReportTemplate(f)) templates.push(f);
+    for (const template of templates) {
+      const dir = templates.length === 1 ? path.join(outputDir, "reports") : path.join(outputDir, "reports", path.basename(template, path.extname(template)));
+      fs.rmSync(dir, { recursive: true, force: true }); // the demo's own folder: no report of an earlier run stays behind
+      const summary = await runReportBatch(template, {
+        outDir: dir,
+        ...(options.reports?.limit !== undefined ? { limit: options.reports.limit } : {}),
+        pdf: options.reports?.pdf !== false,
+      });
+      reports.push({ template, summary });
+    }
+  }
   const errors = workbooks.flatMap((w) => w.errors.map((e) => ({ ...e, workbook: path.basename(w.file) })));
   const summary: DemoSummary = {
     inputDir,
@@ -482,6 +532,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<DemoSummary> {
     errors,
     reasons: groupReasons(errors),
     inputsUntouched: files.every((f) => digest(f) === before.get(f)),
+    reports,
   };
   const say = options.print === undefined ? (line: string) => process.stdout.write(`${line}\n`) : options.print;
   if (say) report(summary, say);

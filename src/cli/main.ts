@@ -31,6 +31,7 @@ export async function main(argv: string[], io: Io): Promise<number> {
     io.err(`soilcell: no command "${name}"; the commands are ${COMMAND_NAMES.join(", ")} (soilcell help)`);
     return 2;
   }
+  if (command.raw) return await command.raw(rest, io);
   try {
     const args = parseArgs(rest, command.options);
     if (args.options.has("--help")) {

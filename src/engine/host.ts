@@ -64,6 +64,8 @@ export class RecalcHost implements Host {
     readonly book: Book,
     private readonly plan: Plan,
     maxCells: number,
+    /** Cells set from outside (a report's key): reading one counts as reading a recomputed cell. */
+    private readonly changed: readonly { readonly sheet: number; readonly rect: Rect }[] = [],
   ) {
     this.date1904 = book.date1904;
     this.maxCells = maxCells;
@@ -266,6 +268,11 @@ export class RecalcHost implements Host {
       const a = area.area;
       if (row < a.r1 || row > a.r2 || col < a.c1 || col > a.c2) return null;
       return area.grid[(row - a.r1) * (a.c2 - a.c1 + 1) + (col - a.c1)] as Scalar;
+    }
+    if (this.changed.length && this.touched.length) {
+      for (const c of this.changed) {
+        if (c.sheet === sheet && row >= c.rect.r1 && row <= c.rect.r2 && col >= c.rect.c1 && col <= c.rect.c2) this.touched[this.touched.length - 1] = true;
+      }
     }
     return k >= 0 ? cells.value(k) : null;
   }

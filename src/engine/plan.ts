@@ -368,8 +368,22 @@ function numberFormulas(book: Book): Formulas {
   return { n, sheet, local, base };
 }
 
+/** What a plan starts from, beyond the workbook's own formulas. */
+export interface PlanOptions {
+  /**
+   * Cells whose value will be set from outside (a report's key cell): every formula that reads
+   * them, directly or through others, is planned.
+   */
+  readonly changed?: readonly { readonly sheet: number; readonly rect: Rect }[];
+  /**
+   * Whether SOIL formulas are computed for their own sake (default true). A report's per-key
+   * plan sets false: SOIL cells that do not read a changed cell keep the values computed once.
+   */
+  readonly soil?: boolean;
+}
+
 /** Builds the plan for a workbook. */
-export function planRecalc(book: Book, soil: SoilSignatures): Plan {
+export function planRecalc(book: Book, soil: SoilSignatures, options: PlanOptions = {}): Plan {
   const F = numberFormulas(book);
   const nodeOf = (g: number) => book.sheets[F.sheet[g] as number]!.formulas.node[F.local[g] as number];
   const infoOf = (g: number): TreeInfo | undefined => {
@@ -422,14 +436,18 @@ export function planRecalc(book: Book, soil: SoilSignatures): Plan {
       anySoil = true;
     }
   }
+  const soilSeeds = options.soil !== false;
+  const seeded = (options.changed?.length ?? 0) > 0;
+  for (const c of options.changed ?? []) changed.add(c.sheet, c.rect);
   for (let g = 0; g < F.n; g++) {
     const info = infoOf(g);
-    if (isSoil[g]) reason[g] = Reason.Soil;
+    const live = (anySoil && soilSeeds) || seeded;
+    if (isSoil[g] && soilSeeds) reason[g] = Reason.Soil;
     // A formula whose reads are only known when it runs, or cannot be traced at all (it does not
-    // parse, or holds something opaque), might read a recomputed cell: it is computed, and what
-    // the engine cannot compute becomes an error with its reason, never a stale value.
-    else if (anySoil && (!info || callsThrough(book, info, F.sheet[g] as number, "opaque"))) reason[g] = Reason.Untraced;
-    else if (anySoil && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
+    // parse, or holds something opaque), might read a recomputed or changed cell: it is computed,
+    // and what the engine cannot compute becomes an error with its reason, never a stale value.
+    else if (live && (!info || callsThrough(book, info, F.sheet[g] as number, "opaque"))) reason[g] = Reason.Untraced;
+    else if (live && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
     if (reason[g]) markChanged(g);
   }
 

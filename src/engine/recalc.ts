@@ -152,8 +152,29 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
   } catch (e) {
     throw new WorkbookFileError(`cannot read ${input}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
   }
+  const wantCopy = options.valuesCopy !== undefined && !options.values;
+  const done = await recalcBytes(bytes, path.basename(input), { ...options, ...(wantCopy ? {} : { valuesCopy: undefined }) }, path.basename(output));
+  writeAtomically(output, done.bytes);
+  if (wantCopy && done.valuesBytes) {
+    say(`writing ${path.basename(options.valuesCopy as string)}`);
+    writeAtomically(options.valuesCopy as string, done.valuesBytes);
+  }
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  return { input, output, ...(wantCopy ? { valuesCopy: options.valuesCopy as string } : {}), ...done.summary, seconds };
+}
+
+/** What recalculating a workbook in memory found (the summary without file names and time). */
+export type RecalcCounts = Omit<RecalcSummary, "input" | "output" | "seconds" | "valuesCopy">;
+
+/**
+ * Recalculates a workbook held in memory (the rule above) and returns the new file's bytes, and
+ * those of a values copy from the same computation when `options.valuesCopy` is set.
+ * @throws WorkbookFileError for bytes that are not a readable workbook
+ */
+export async function recalcBytes(bytes: Buffer, name: string, options: RecalcOptions = {}, outName = name): Promise<{ bytes: Buffer; valuesBytes?: Buffer; summary: RecalcCounts }> {
+  const say = options.progress ?? (() => undefined);
   const pkg = await openPackage(bytes);
-  say(`reading ${path.basename(input)} (${pkg.sheets.length} sheets)`);
+  say(`reading ${name} (${pkg.sheets.length} sheets)`);
   const book = readBook(pkg, SOIL_NAMES);
   const plan = asFileError("the workbook's formulas cannot be planned", () => planRecalc(book, SOIL_SIGNATURES));
   say(`computing ${plan.order.length} of ${plan.formulaCells} formula cells`);
@@ -165,32 +186,31 @@ export async function recalcWorkbook(input: string, output = defaultOutputPath(i
     throw e;
   }
 
-  say(`writing ${path.basename(output)}`);
+  say(`writing ${outName}`);
   const { errors, kept, soilCells, spilled, computed } = writeResults(book, plan, host, pkg, options.values === true);
   if (options.values) markValuesCopy(pkg);
-  writeAtomically(output, pkg.toBuffer());
+  const out = pkg.toBuffer();
+  let valuesBytes: Buffer | undefined;
   if (options.valuesCopy !== undefined && !options.values) {
     // The same results again, SOIL cells as values: the sheets are rewritten from the workbook as
     // read (the package's edits so far are replaced), so nothing is computed twice.
-    say(`writing ${path.basename(options.valuesCopy)}`);
     writeResults(book, plan, host, pkg, true);
     markValuesCopy(pkg);
-    writeAtomically(options.valuesCopy, pkg.toBuffer());
+    valuesBytes = pkg.toBuffer();
   }
-  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   return {
-    input,
-    output,
-    ...(options.valuesCopy !== undefined ? { valuesCopy: options.valuesCopy } : {}),
-    sheets: pkg.sheets.length,
-    formulaCells: plan.formulaCells,
-    computedCells: computed,
-    keptCells: plan.formulaCells - computed,
-    soilFormulaCells: soilCells,
-    spilledCells: spilled,
-    errors,
-    kept,
-    seconds,
+    bytes: out,
+    ...(valuesBytes ? { valuesBytes } : {}),
+    summary: {
+      sheets: pkg.sheets.length,
+      formulaCells: plan.formulaCells,
+      computedCells: computed,
+      keptCells: plan.formulaCells - computed,
+      soilFormulaCells: soilCells,
+      spilledCells: spilled,
+      errors,
+      kept,
+    },
   };
 }
 
@@ -348,10 +368,24 @@ const CUSTOM_NS = "http://schemas.openxmlformats.org/officeDocument/2006/custom-
 const VT_NS = "http://schemas.openxmlformats.org/officeDocument/2006/docPropsVTypes";
 const FMTID = "{D5CDD505-2E9C-101B-9397-08002B2CF9AE}";
 
+/** A custom-properties part holding one "soilcell" property (what wrote a values copy). */
+export function customPropertiesXml(note: string): string {
+  return `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Properties xmlns="${CUSTOM_NS}" xmlns:vt="${VT_NS}">${soilcellProperty(note, 2)}</Properties>`;
+}
+
+function soilcellProperty(note: string, pid: number): string {
+  return `<property fmtid="${FMTID}" pid="${pid}" name="soilcell"><vt:lpwstr>${encodeXml(note)}</vt:lpwstr></property>`;
+}
+
+/** The time stamp values copies carry: UTC, to the second. */
+export function valuesStamp(): string {
+  return `${soilcellVersion()} on ${new Date().toISOString().slice(0, 19)}Z`;
+}
+
 /** Records in the workbook's custom properties that its SOIL results are values, and what computed them. */
 function markValuesCopy(pkg: XlsxPackage): void {
-  const note = `SOIL results written as values by ${soilcellVersion()} on ${new Date().toISOString().slice(0, 19)}Z; the formulas are in the recalculated workbook.`;
-  const prop = (pid: number) => `<property fmtid="${FMTID}" pid="${pid}" name="soilcell"><vt:lpwstr>${encodeXml(note)}</vt:lpwstr></property>`;
+  const note = `SOIL results written as values by ${valuesStamp()}; the formulas are in the recalculated workbook.`;
+  const prop = (pid: number) => soilcellProperty(note, pid);
   const existing = pkg.text(CUSTOM_PROPS);
   if (existing) {
     const s = new XmlScanner(existing);
@@ -375,7 +409,7 @@ function markValuesCopy(pkg: XlsxPackage): void {
     }
     return; // a custom-properties part of a shape we do not recognise is left alone
   }
-  pkg.write(CUSTOM_PROPS, `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<Properties xmlns="${CUSTOM_NS}" xmlns:vt="${VT_NS}">${prop(2)}</Properties>`);
+  pkg.write(CUSTOM_PROPS, customPropertiesXml(note));
   const rels = pkg.text("_rels/.rels");
   if (rels && !rels.includes("docProps/custom.xml")) {
     const ids = new Set(readRelationships(rels).map((r) => r.id));
@@ -397,7 +431,7 @@ function insertBefore(xml: string, local: string, markup: string): string {
 }
 
 /** The value written in the file: Excel's own error codes only (a message lives in the summary). */
-function writable(v: Scalar): Scalar | undefined {
+export function writable(v: Scalar): Scalar | undefined {
   if (isError(v)) return EXCEL_ERRORS.has(v.code) ? new XlError(v.code) : new XlError("#VALUE!");
   return v;
 }
@@ -448,16 +482,18 @@ function dedupe(writes: CellWrite[]): CellWrite[] {
 
 /**
  * Writes to a temporary file created exclusively (random name, in the target's folder, never
- * following a planted link), then renames it into place.
+ * following a planted link), flushes it to disk (unless `durable` is false), then renames it into place.
  */
-export function writeAtomically(target: string, bytes: Buffer): void {
+export function writeAtomically(target: string, bytes: Buffer, options: { readonly durable?: boolean } = {}): void {
   const dir = path.dirname(path.resolve(target));
   const tmp = path.join(dir, `.${path.basename(target)}.${crypto.randomBytes(8).toString("hex")}.partial`);
   let fd: number | undefined;
   try {
     fd = fs.openSync(tmp, fs.constants.O_WRONLY | fs.constants.O_CREAT | fs.constants.O_EXCL | (fs.constants.O_NOFOLLOW ?? 0), 0o644);
     fs.writeSync(fd, bytes);
-    fs.fsyncSync(fd);
+    // Durable by default; a batch of many small reports skips the flush (a crash leaves no partial
+    // file under the target's name either way, only perhaps no file).
+    if (options.durable !== false) fs.fsyncSync(fd);
     fs.closeSync(fd);
     fd = undefined;
     fs.renameSync(tmp, target);

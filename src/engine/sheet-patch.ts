@@ -29,6 +29,8 @@ export type CellWrite =
       readonly k?: number;
     }
   | { readonly kind: "value"; readonly row: number; readonly col: number; readonly value: Scalar }
+  /** A plain constant where a formula was (a values-only copy): text as an inline string, not a formula's string. */
+  | { readonly kind: "constant"; readonly row: number; readonly col: number; readonly value: Scalar; readonly inline?: string }
   | { readonly kind: "clear"; readonly row: number; readonly col: number };
 
 interface Edit {
@@ -82,13 +84,14 @@ function attrText(attrs: Iterable<[string, string]>): string {
   return s;
 }
 
-function typeAndValue(v: Scalar, p: string, formula: boolean): { t?: string; body: string } {
+function typeAndValue(v: Scalar, p: string, constant = false): { t?: string; body: string } {
   if (v === null) return { body: "" };
   if (typeof v === "number") return { body: `<${p}v>${formatNumber(v)}</${p}v>` };
   if (typeof v === "boolean") return { t: "b", body: `<${p}v>${v ? 1 : 0}</${p}v>` };
   if (v instanceof XlError) return { t: "e", body: `<${p}v>${encodeXmlText(v.code)}</${p}v>` };
-  // Text a formula returned (in its own cell or spilled) is a formula string, as Excel stores it.
-  void formula;
+  // Text a formula returned (in its own cell or spilled) is a formula string, as Excel stores it;
+  // a constant's text is an inline string (no shared-strings part needed).
+  if (constant) return v === "" ? { body: "" } : { t: "inlineStr", body: `<${p}is><${p}t xml:space="preserve">${encodeXmlText(v)}</${p}t></${p}is>` };
   return { t: "str", body: `<${p}v>${encodeXmlText(v)}</${p}v>` };
 }
 
@@ -96,7 +99,7 @@ function typeAndValue(v: Scalar, p: string, formula: boolean): { t?: string; bod
  * A start tag with some attributes dropped and others added; the kept ones exactly as written.
  * The tag was delimited by the tokenizer, so its attribute values are quoted and hold no '<'.
  */
-function rewriteStartTag(tag: string, drop: (name: string) => boolean, add: string): string {
+export function rewriteStartTag(tag: string, drop: (name: string) => boolean, add: string): string {
   const isSpace = (c: number) => c === 32 || c === 9 || c === 10 || c === 13;
   const n = tag.length;
   let i = 1;
@@ -139,7 +142,7 @@ function formulaCellFast(w: Extract<CellWrite, { kind: "formula" }>, sheet: Shee
   const tag = xml.slice(sheet.cells.start[k] as number, fs.open[fi] as number);
   const keepCm = !w.dynamic ? tag.includes(" cm=") || /\scm=/.test(tag) : false;
   if (!/\sr=/.test(tag)) add = ` r="${a1({ row: w.row, col: w.col })}"${add}`; // the position, written out
-  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
+  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p);
   if ("t" in tv && tv.t) add += ` t="${tv.t}"`;
   const start = rewriteStartTag(tag.endsWith("/>") ? `${tag.slice(0, -2)}>` : tag, (n) => n === "t" || n === "vm" || (n === "cm" && !keepCm), add);
   return `${start}${f}${tv.body}</${p}c>`;
@@ -159,8 +162,9 @@ export function cellXml(w: CellWrite, old: string | undefined, prefix: string, s
   if (w.kind === "clear") {
     return `<${p}c${attrText(attrs)}/>`;
   }
-  if (w.kind === "value") {
-    const tv = typeAndValue(w.value, p, false);
+  if (w.kind === "value" || w.kind === "constant") {
+    // A shared string's own markup (its formatted runs) becomes the inline string.
+    const tv = w.kind === "constant" && w.inline !== undefined ? { t: "inlineStr", body: `<${p}is>${w.inline}</${p}is>` } : typeAndValue(w.value, p, w.kind === "constant");
     if (tv.t) attrs.set("t", tv.t);
     return tv.body ? `<${p}c${attrText(attrs)}>${tv.body}</${p}c>` : `<${p}c${attrText(attrs)}/>`;
   }
@@ -180,7 +184,7 @@ export function cellXml(w: CellWrite, old: string | undefined, prefix: string, s
     const cm = parts.attrs.find(([k]) => k === "cm");
     if (cm) attrs.set("cm", cm[1]);
   }
-  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p, true);
+  const tv = w.value === undefined ? { body: "" } : typeAndValue(w.value, p);
   if ("t" in tv && tv.t) attrs.set("t", tv.t);
   return `<${p}c${attrText(attrs)}>${f}${tv.body}${parts.keep.join("")}</${p}c>`;
 }

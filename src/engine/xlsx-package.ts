@@ -62,6 +62,12 @@ export interface XlsxPackage {
   /** A part's text (UTF-8), or undefined when the package has no such part. */
   text(path: string): string | undefined;
   has(path: string): boolean;
+  /** A part's bytes (any part, binary ones too), or undefined when the package has no such part. */
+  bytes(path: string): Buffer | undefined;
+  /** Every part's path, as the package will be written. */
+  parts(): string[];
+  /** A part the engine has not changed, as the zip holds it (its compressed bytes can be copied). */
+  entry(path: string): ZipEntry | undefined;
   /** Replaces (or adds) a part (text, or UTF-8 bytes). */
   write(path: string, text: string | Buffer): void;
   /** Leaves a part out of the written package. */
@@ -208,6 +214,15 @@ export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
     cellXmlBytes,
     text,
     has: (p) => !removed.has(p) && (replaced.has(p) || byName.has(p)),
+    bytes(p) {
+      if (removed.has(p)) return undefined;
+      const r = replaced.get(p);
+      if (r !== undefined) return asBytes(r);
+      const e = byName.get(p);
+      return e ? inflateEntry(e) : undefined;
+    },
+    entry: (p) => (removed.has(p) || replaced.has(p) ? undefined : byName.get(p)),
+    parts: () => [...entries.map((e) => e.name).filter((n) => !removed.has(n)), ...[...replaced.keys()].filter((n) => !byName.has(n))],
     write(p, t) {
       removed.delete(p);
       replaced.set(p, t);

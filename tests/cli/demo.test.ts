@@ -79,7 +79,8 @@ describe("npm run demo (invented sample workbooks)", () => {
     out = path.join(tempDir(), "demo-output");
     before = new Map(fs.readdirSync(SAMPLES).map((f) => [f, digest(path.join(SAMPLES, f))]));
     printed = [];
-    summary = await runDemo({ inputDir: SAMPLES, outputDir: out, print: (l) => printed.push(l) });
+    // Three client reports, workbooks only: the whole season's reports and PDFs are tests/cli/report.test.ts.
+    summary = await runDemo({ inputDir: SAMPLES, outputDir: out, print: (l) => printed.push(l), reports: { limit: 3, pdf: false } });
 
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.readFile(SEASON);
@@ -95,6 +96,17 @@ describe("npm run demo (invented sample workbooks)", () => {
     }
     const s = wb.getWorksheet("Settings")!;
     settings = { targetPh: s.getCell("C4").value as number, targetAlSat: s.getCell("C5").value as number, depthB: s.getCell("C6").value as number };
+  });
+
+  it("writes the season template's client reports into reports/ and says how many and where", () => {
+    expect(summary.reports).toHaveLength(1);
+    const r = summary.reports[0]!;
+    expect(path.basename(r.template)).toBe("caddow-2025-soil-tests.xlsx");
+    expect(r.summary.outDir).toBe(path.join(out, "reports"));
+    expect(r.summary.reports).toBe(3);
+    expect(fs.existsSync(r.summary.index.csv)).toBe(true);
+    const line = printed.find((l) => l.startsWith("Client reports from caddow-2025-soil-tests.xlsx"));
+    expect(line).toMatch(/: 3 written into .*reports\//);
   });
 
   it("recalculates every sample workbook into the output folder and leaves the inputs untouched", async () => {
@@ -223,7 +235,7 @@ describe("npm run demo (invented sample workbooks)", () => {
   });
 
   it("reports exactly the one deliberate refusal: Lab A's \"<0.5\" converted without LABVALUE on the Read me sheet", () => {
-    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Read me!B16"]);
+    expect(summary.errors.map((e) => `${e.sheet}!${e.cell}`)).toEqual(["Read me!B17"]);
     for (const e of summary.errors) {
       expect(e.error).toBe("#VALUE!");
       expect(e.message).toContain('"<0.5" is not a number');

@@ -31,20 +31,8 @@ export const CHROMIUM_ARGS = [
   "--disable-sync",
 ];
 
-/** The first of `names` found on PATH (or as an absolute path), or undefined. */
-export function findProgram(...names: string[]): string | undefined {
-  for (const n of names) {
-    if (path.isAbsolute(n)) {
-      if (fs.existsSync(n)) return n;
-      continue;
-    }
-    for (const dir of (process.env.PATH ?? "").split(path.delimiter)) {
-      const p = path.join(dir, n);
-      if (dir && fs.existsSync(p)) return p;
-    }
-  }
-  return undefined;
-}
+/** The first of `names` found on PATH (or as an absolute path), or undefined: the engine's own lookup. */
+export { findProgram } from "../../src/engine/office-pdf";
 
 /**
  * `describe` when the host program is there. Missing outside CI: one skipped test saying how to

@@ -18,6 +18,10 @@ export interface Command {
   readonly examples?: readonly string[];
   /** Runs the command; resolves to the exit code. */
   run(args: Parsed, io: Io): number | Promise<number>;
+  /** A command that reads its own arguments (repeatable options) gets them as typed, --help included. */
+  readonly raw?: (args: readonly string[], io: Io) => number | Promise<number>;
+  /** Its help as written, for a command whose options are not declared above. */
+  readonly fullHelp?: string;
 }
 
 /** The usage lines of a command, as printed after a mistake. */
@@ -27,6 +31,7 @@ export function usageText(c: Command): string {
 
 /** The full help of a command. */
 export function helpText(c: Command): string {
+  if (c.fullHelp !== undefined) return c.fullHelp;
   const lines = [`soilcell ${c.name}: ${c.summary}`, "", usageText(c), ""];
   for (const p of c.about) lines.push(...wrap(p, 96), "");
   lines.push("options:", ...optionLines(c.options));

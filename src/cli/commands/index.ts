@@ -5,7 +5,7 @@
  */
 import { Command } from "./command";
 
-export const COMMAND_NAMES: readonly string[] = ["eval", "recalc", "list", "help"];
+export const COMMAND_NAMES: readonly string[] = ["eval", "recalc", "report", "list", "help"];
 
 function load(name: string): Command {
   // eslint-disable-next-line @typescript-eslint/no-require-imports
