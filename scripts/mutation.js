@@ -1,0 +1,90 @@
+#!/usr/bin/env node
+/**
+ * Mutation testing, folder by folder (src/core, then src/functions, then src/engine), then the score
+ * per folder read from the committed incremental files (mutation/<folder>.incremental.json).
+ *
+ *   node scripts/mutation.js                 all three folders, then the table
+ *   node scripts/mutation.js core engine     only those folders, then the table
+ *   node scripts/mutation.js --report        the table only, from the last runs
+ *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
+ *
+ * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
+ * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
+ * compile are left out (they can never reach a user), and mutants marked equivalent in the source
+ * (`// Stryker disable next-line <mutator>: <reason>`) are listed with their reason, never hidden.
+ */
+const fs = require("fs");
+const path = require("path");
+const { spawnSync } = require("child_process");
+
+const ROOT = path.join(__dirname, "..");
+const FOLDERS = ["core", "functions", "engine"];
+const TARGET = { core: 85, functions: 75, engine: 75 };
+
+const argv = process.argv.slice(2);
+const dash = argv.indexOf("--");
+const own = dash < 0 ? argv : argv.slice(0, dash);
+const passOn = dash < 0 ? [] : argv.slice(dash + 1);
+const reportOnly = own.includes("--report");
+const showSurvivors = own.includes("--survivors");
+const chosen = own.filter((a) => !a.startsWith("--"));
+for (const f of chosen) if (!FOLDERS.includes(f)) throw new Error(`unknown folder ${f}: use ${FOLDERS.join(", ")}`);
+const folders = chosen.length ? chosen : FOLDERS;
+
+let failed = false;
+if (!reportOnly && !showSurvivors) {
+  for (const folder of folders) {
+    console.log(`\n== mutation testing src/${folder} ==`);
+    const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
+      cwd: ROOT,
+      stdio: "inherit",
+      env: { ...process.env, MUTATE_FOLDER: folder },
+    });
+    if (r.status !== 0) {
+      console.error(`stryker failed on src/${folder} (exit ${r.status})`);
+      failed = true;
+    }
+  }
+}
+
+/** Counts of one folder's mutants by status, from its incremental file. */
+function tally(folder) {
+  const file = path.join(ROOT, "mutation", `${folder}.incremental.json`);
+  if (!fs.existsSync(file)) return null;
+  const report = JSON.parse(fs.readFileSync(file, "utf8"));
+  const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0 };
+  const survivors = [];
+  const ignored = [];
+  for (const [name, f] of Object.entries(report.files)) {
+    for (const m of f.mutants) {
+      counts[m.status] = (counts[m.status] ?? 0) + 1;
+      const where = `${name}:${m.location.start.line}:${m.location.start.column}`;
+      if (m.status === "Survived" || m.status === "NoCoverage") survivors.push(`${m.status.padEnd(10)} ${where} ${m.mutatorName} -> ${oneLine(m.replacement)}`);
+      if (m.status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
+    }
+  }
+  const detected = counts.Killed + counts.Timeout;
+  const valid = detected + counts.Survived + counts.NoCoverage;
+  return { counts, score: valid ? (100 * detected) / valid : NaN, survivors, ignored };
+}
+const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
+
+console.log("\nfolder          killed  survived  no-cov  timeout  compile-err  equivalent  score   target");
+for (const folder of FOLDERS) {
+  const t = tally(folder);
+  if (!t) {
+    console.log(`src/${folder.padEnd(12)} (not run yet)`);
+    continue;
+  }
+  const c = t.counts;
+  const ok = t.score >= TARGET[folder] ? "met" : "NOT met";
+  console.log(
+    `src/${folder.padEnd(12)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
+      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}  ${t.score.toFixed(1).padStart(5)} %  ≥ ${TARGET[folder]} % ${ok}`,
+  );
+  if (showSurvivors) {
+    for (const s of t.survivors) console.log(`    ${s}`);
+    for (const s of t.ignored) console.log(`    equivalent ${s}`);
+  }
+}
+process.exit(failed ? 1 : 0);

@@ -1,0 +1,29 @@
+// Mutation testing (StrykerJS): `npm run mutation` (all three folders, one after another) or
+// `npm run mutation:core` / `:functions` / `:engine`. MUTATE_FOLDER picks the folder; each folder
+// keeps its own incremental file under mutation/, committed, so a re-run after a small change only
+// tests the mutants in changed code or reached by changed tests. Not part of `npm test` or CI.
+const folder = process.env.MUTATE_FOLDER || "core";
+if (!["core", "functions", "engine"].includes(folder)) throw new Error(`MUTATE_FOLDER must be core, functions or engine, not ${folder}`);
+
+/** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
+export default {
+  packageManager: "npm",
+  testRunner: "jest",
+  jest: { configFile: "mutation/jest.config.js", enableFindRelatedTests: false },
+  checkers: ["typescript"],
+  tsconfigFile: "tsconfig.json",
+  typescriptChecker: { prioritizePerformanceOverAccuracy: true },
+  coverageAnalysis: "perTest",
+  mutate: [`src/${folder}/**/*.ts`],
+  incremental: true,
+  incrementalFile: `mutation/${folder}.incremental.json`,
+  reporters: ["clear-text", "json", "progress-append-only"],
+  jsonReporter: { fileName: `mutation/reports/${folder}.json` },
+  clearTextReporter: { allowColor: false, logTests: false, reportScoreTable: true, reportMutants: false },
+  concurrency: 2,
+  timeoutMS: 20000,
+  tempDirName: ".stryker-tmp",
+  cleanTempDir: "always",
+  thresholds: { high: folder === "core" ? 85 : 75, low: folder === "core" ? 85 : 75, break: null },
+  ignorePatterns: ["build", "dist", "demo-output", "help-preview", "mutation/reports", ".stryker-tmp", "sample-workbooks", "*.log"],
+};
