@@ -12,6 +12,8 @@
  * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
  * compile are left out (they can never reach a user), and mutants marked equivalent in the source
  * (`// Stryker disable next-line <mutator>: <reason>`) are listed with their reason, never hidden.
+ * Static mutants (module-level code, which reruns the folder's every test per mutant) are skipped
+ * unless MUTATE_STATIC=1, and counted in their own column, not in the score.
  */
 const fs = require("fs");
 const path = require("path");
@@ -52,7 +54,7 @@ function tally(folder) {
   const file = path.join(ROOT, "mutation", `${folder}.incremental.json`);
   if (!fs.existsSync(file)) return null;
   const report = JSON.parse(fs.readFileSync(file, "utf8"));
-  const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0 };
+  const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0, Static: 0 };
   const survivors = [];
   const ignored = [];
   for (const [name, f] of Object.entries(report.files)) {
@@ -60,7 +62,10 @@ function tally(folder) {
       counts[m.status] = (counts[m.status] ?? 0) + 1;
       const where = `${name}:${m.location.start.line}:${m.location.start.column}`;
       if (m.status === "Survived" || m.status === "NoCoverage") survivors.push(`${m.status.padEnd(10)} ${where} ${m.mutatorName} -> ${oneLine(m.replacement)}`);
-      if (m.status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
+      if (m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "")) {
+        counts.Ignored--;
+        counts.Static = (counts.Static ?? 0) + 1;
+      } else if (m.status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
     }
   }
   const detected = counts.Killed + counts.Timeout;
@@ -69,7 +74,7 @@ function tally(folder) {
 }
 const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
 
-console.log("\nfolder          killed  survived  no-cov  timeout  compile-err  equivalent  score   target");
+console.log("\nfolder          killed  survived  no-cov  timeout  compile-err  equivalent  static-not-run  score   target");
 for (const folder of FOLDERS) {
   const t = tally(folder);
   if (!t) {
@@ -80,7 +85,7 @@ for (const folder of FOLDERS) {
   const ok = t.score >= TARGET[folder] ? "met" : "NOT met";
   console.log(
     `src/${folder.padEnd(12)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
-      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}  ${t.score.toFixed(1).padStart(5)} %  ≥ ${TARGET[folder]} % ${ok}`,
+      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ≥ ${TARGET[folder]} % ${ok}`,
   );
   if (showSurvivors) {
     for (const s of t.survivors) console.log(`    ${s}`);

@@ -146,7 +146,7 @@ export function formFactor(fromWord: string, toWord: string): number {
 /**
  * The same amount of an element expressed in another form, e.g. P2O5 → P.
  * @param value amount in any mass unit (the unit is unchanged); any finite number
- * @example convertForm(100, "P2O5", "P") //=> 43.64
+ * @example convertForm(100, "P2O5", "P") //=> 43.6429
  */
 export function convertForm(value: number, fromWord: string, toWord: string): number {
   check(value, { name: "value" });
