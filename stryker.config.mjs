@@ -1,9 +1,15 @@
-// Mutation testing (StrykerJS): `npm run mutation` (all three folders, one after another) or
-// `npm run mutation:core` / `:functions` / `:engine`. MUTATE_FOLDER picks the folder; each folder
-// keeps its own incremental file under mutation/, committed, so a re-run after a small change only
-// tests the mutants in changed code or reached by changed tests. Not part of `npm test` or CI.
-const folder = process.env.MUTATE_FOLDER || "core";
-if (!["core", "functions", "engine"].includes(folder)) throw new Error(`MUTATE_FOLDER must be core, functions or engine, not ${folder}`);
+// Mutation testing (StrykerJS): `npm run mutation` (every part of src/core, src/functions and
+// src/engine, one after another) or `npm run mutation:core` / `:functions` / `:engine`.
+// MUTATE_PART picks the part (mutation/parts.js); each part keeps its own incremental file, committed,
+// so a re-run after a small change only tests the mutants in changed code or reached by changed
+// tests. Not part of `npm test` or CI.
+import { createRequire } from "module";
+const { PARTS } = createRequire(import.meta.url)("./mutation/parts.js");
+const partName = process.env.MUTATE_PART || "core-top";
+const part = PARTS[partName];
+if (!part) throw new Error(`MUTATE_PART must be one of ${Object.keys(PARTS).join(", ")}, not ${partName}`);
+const folder = part.folder;
+process.env.MUTATE_FOLDER = folder; // read by mutation/jest.config.js in the test runner processes
 
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
@@ -14,11 +20,11 @@ export default {
   tsconfigFile: "tsconfig.json",
   typescriptChecker: { prioritizePerformanceOverAccuracy: true },
   coverageAnalysis: "perTest",
-  mutate: [`src/${folder}/**/*.ts`],
+  mutate: part.mutate,
   incremental: true,
-  incrementalFile: `mutation/${folder}.incremental.json`,
+  incrementalFile: `mutation/incremental/${partName}.json`,
   reporters: ["clear-text", "json", "progress-append-only"],
-  jsonReporter: { fileName: `mutation/reports/${folder}.json` },
+  jsonReporter: { fileName: `mutation/reports/${partName}.json` },
   clearTextReporter: { allowColor: false, logTests: false, reportScoreTable: true, reportMutants: false },
   // The machine has 2 cores, shared: one type checker and one test runner, then two runners once
   // every mutant is type-checked; at nice 15 (scripts/mutation.js).

@@ -1,10 +1,12 @@
 #!/usr/bin/env node
 /**
- * Mutation testing, folder by folder (src/core, then src/functions, then src/engine), then the score
- * per folder read from the committed incremental files (mutation/<folder>.incremental.json).
+ * Mutation testing, folder by folder (src/core, then src/functions, then src/engine), each folder in
+ * parts (mutation/parts.js), then the score per folder and per part read from the committed
+ * incremental files (mutation/incremental/<part>.json).
  *
- *   node scripts/mutation.js                 all three folders, then the table
+ *   node scripts/mutation.js                 every part of all three folders, then the table
  *   node scripts/mutation.js core engine     only those folders, then the table
+ *   node scripts/mutation.js core-lime       only that part, then the table
  *   node scripts/mutation.js --report        the table only, from the last runs
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
  *
@@ -21,6 +23,7 @@ const { spawnSync } = require("child_process");
 
 const ROOT = path.join(__dirname, "..");
 const FOLDERS = ["core", "functions", "engine"];
+const { PARTS } = require("../mutation/parts.js");
 const TARGET = { core: 85, functions: 75, engine: 75 };
 
 const argv = process.argv.slice(2);
@@ -30,34 +33,34 @@ const passOn = dash < 0 ? [] : argv.slice(dash + 1);
 const reportOnly = own.includes("--report");
 const showSurvivors = own.includes("--survivors");
 const chosen = own.filter((a) => !a.startsWith("--"));
-for (const f of chosen) if (!FOLDERS.includes(f)) throw new Error(`unknown folder ${f}: use ${FOLDERS.join(", ")}`);
-const folders = chosen.length ? chosen : FOLDERS;
+for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
+const parts = Object.keys(PARTS).filter((p) => !chosen.length || chosen.includes(p) || chosen.includes(PARTS[p].folder));
 
 let failed = false;
 if (!reportOnly && !showSurvivors) {
-  for (const folder of folders) {
-    console.log(`\n== mutation testing src/${folder} ==`);
+  for (const part of parts) {
+    const folder = PARTS[part].folder;
+    console.log(`\n== mutation testing ${part}: ${PARTS[part].mutate.join(" ")} ==`);
     const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
       cwd: ROOT,
       stdio: "inherit",
-      env: { ...process.env, MUTATE_FOLDER: folder },
+      env: { ...process.env, MUTATE_PART: part, MUTATE_FOLDER: folder },
     });
     if (r.status !== 0) {
-      console.error(`stryker failed on src/${folder} (exit ${r.status})`);
+      console.error(`stryker failed on ${part} (exit ${r.status})`);
       failed = true;
     }
   }
 }
 
-/** Counts of one folder's mutants by status, from its incremental file. */
-function tally(folder) {
-  const file = path.join(ROOT, "mutation", `${folder}.incremental.json`);
-  if (!fs.existsSync(file)) return null;
-  const report = JSON.parse(fs.readFileSync(file, "utf8"));
+/** Counts of the mutants of some parts by status, from their incremental files (null: none run). */
+function tally(partNames) {
+  const files = partNames.map((p) => path.join(ROOT, "mutation", "incremental", `${p}.json`)).filter((f) => fs.existsSync(f));
+  if (!files.length) return null;
   const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0, Static: 0 };
   const survivors = [];
   const ignored = [];
-  for (const [name, f] of Object.entries(report.files)) {
+  for (const [name, f] of files.flatMap((file) => Object.entries(JSON.parse(fs.readFileSync(file, "utf8")).files))) {
     for (const m of f.mutants) {
       counts[m.status] = (counts[m.status] ?? 0) + 1;
       const where = `${name}:${m.location.start.line}:${m.location.start.column}`;
@@ -70,23 +73,33 @@ function tally(folder) {
   }
   const detected = counts.Killed + counts.Timeout;
   const valid = detected + counts.Survived + counts.NoCoverage;
-  return { counts, score: valid ? (100 * detected) / valid : NaN, survivors, ignored };
+  return { counts, score: valid ? (100 * detected) / valid : NaN, survivors, ignored, missing: partNames.length - files.length };
 }
 const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
 
-console.log("\nfolder          killed  survived  no-cov  timeout  compile-err  equivalent  static-not-run  score   target");
+console.log("\n                  killed  survived  no-cov  timeout  compile-err  equivalent  static-not-run  score    target");
+const row = (label, t, target) => {
+  const c = t.counts;
+  const goal = target ? `≥ ${target} % ${t.score >= target ? "met" : "NOT met"}` : "";
+  console.log(
+    `${label.padEnd(18)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
+      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ${goal}`,
+  );
+};
 for (const folder of FOLDERS) {
-  const t = tally(folder);
+  const names = Object.keys(PARTS).filter((p) => PARTS[p].folder === folder);
+  const t = tally(names);
   if (!t) {
-    console.log(`src/${folder.padEnd(12)} (not run yet)`);
+    console.log(`src/${folder.padEnd(14)}(not run yet)`);
     continue;
   }
-  const c = t.counts;
-  const ok = t.score >= TARGET[folder] ? "met" : "NOT met";
-  console.log(
-    `src/${folder.padEnd(12)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
-      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ≥ ${TARGET[folder]} % ${ok}`,
-  );
+  row(`src/${folder}`, t, TARGET[folder]);
+  if (t.missing) console.log(`  (${t.missing} of ${names.length} parts not run yet)`);
+  for (const p of names) {
+    const tp = tally([p]);
+    if (tp) row(`  ${p}`, tp);
+    else console.log(`  ${p.padEnd(16)}(not run yet)`);
+  }
   if (showSurvivors) {
     for (const s of t.survivors) console.log(`    ${s}`);
     for (const s of t.ignored) console.log(`    equivalent ${s}`);
