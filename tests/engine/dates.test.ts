@@ -76,3 +76,25 @@ describe("the two systems side by side", () => {
     expect(isoToSerial("2024-3-1", true)).toBeUndefined();
   });
 });
+
+describe("TODAY() in each system", () => {
+  it.each([
+    ["1900", false],
+    ["1904", true],
+  ] as const)("the %s system counts today from its own epoch (the local date, whatever the time zone)", async (_name, date1904) => {
+    const t = Date.UTC(2024, 2, 1, 12, 0, 0);
+    const local = new Date(t);
+    const pad = (n: number) => String(n).padStart(2, "0");
+    const today = isoToSerial(`${local.getFullYear()}-${pad(local.getMonth() + 1)}-${pad(local.getDate())}`, date1904)!;
+    const spy = jest.spyOn(Date, "now").mockReturnValue(t);
+    try {
+      const { summary, values } = await recalcSpec({ date1904, sheets: [{ name: "S", rows: row(1, c("A1", 0), zero, f("C1", "TODAY()+B1", -999)) }] });
+      expect(summary.errors).toEqual([]);
+      expect(values.get("S!C1")).toBe(today);
+      // 2024-03-01 (or the day either side of it, by time zone): 45352 or 43890 in UTC
+      expect(Math.abs(today - (date1904 ? 43890 : 45352))).toBeLessThanOrEqual(1);
+    } finally {
+      spy.mockRestore();
+    }
+  });
+});
