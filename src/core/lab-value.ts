@@ -116,7 +116,7 @@ export function labReading(text: string, decimalMark?: LabDecimalMark): LabReadi
     if (!(limit > 0)) throw new SoilError("OUT_OF_RANGE", `value: "${text}" states a limit of ${limit}; a detection or range limit must be above 0`);
     return /[<≤]/.test(sign) ? { kind: "below", limit } : { kind: "above", limit };
   }
-  if (/^[+-]?[\d.,]/.test(t) || /^[+-]?\d/.test(t)) return { kind: "number", value: parseNumber(text, t, decimalMark) };
+  if (/^[+-]?[\d.,]/.test(t)) return { kind: "number", value: parseNumber(text, t, decimalMark) };
   throw unreadable(
     text,
     `is not a lab value LABVALUE reads: a number ("12.5", "1 250", "12,5" with decimal ","), "<0.05", ">300", or ${listWords(LAB_WORDS.map((w) => `"${w}"`))}`,

@@ -33,6 +33,7 @@ export function nameTable<T>(entries: readonly { id: string; aliases?: readonly 
     let k = seen.get(word);
     if (k === undefined) {
       k = normaliseWord(word);
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: the cap only bounds the memo's memory; a word not remembered is normalised again to the same key
       if (seen.size < 4096) seen.set(word, k);
     }
     return k;

@@ -57,6 +57,7 @@ const shown = (v: number) => String(Number(v.toPrecision(12)));
 
 /** The hints for a refused percent: it looks like a fraction, or it is a real value in the gap. */
 function percentHints(value: number, b: Bound): string[] {
+  // Stryker disable next-line EqualityOperator: equivalent for value < 0: a refused 0 is out of the range (a range that holds 0, or allows it as none, never reaches here), so 0 × 100 gets no fraction hint, and it is never above a min for the advice
   if (b.unit !== "%" || value <= 0) return [];
   const hints: string[] = [];
   const pct = shown(value * 100);

@@ -30,7 +30,7 @@ const BAND = declare(band, [num("value"), range("limits"), optRange("labels")], 
  * @param {any[][]} limits A row or column of at least two strictly ascending lower bounds.
  * @returns {any[][]} Position: n limits give 0 … n−1; the open end bands run on with the width of the first and last band, so half a band out is −0.5 or n−0.5. Not clamped: values further out lie beyond that.
  * @throws #VALUE! for fewer than two limits or limits not strictly ascending.
- * @example =SOIL.BANDPOS(20, {15,24,31}) //=> 0.5556
+ * @example =SOIL.BANDPOS(20, {15,24,31}) //=> 0.555556
  * Source: the Bray-1 P limits of Magdoff & van Es (SARE) Table 21.2 (seen); the position (20 - 15)/(24 - 15) is derived.
  */
 export function bandpos(value: any[][], limits: any[][]): any[][] {

@@ -49,7 +49,7 @@ const LIMEBUFFER = declare(
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent. Estimates: split large rates, incorporate to the depth used, check local calibrations, regulations and licensed advice.
  * @throws #VALUE! when depth_cm or bulk_density is missing (the method is per kg of soil), or for a factor of 0 or less.
- * @example =SOIL.LIMEAL(2, , 20, 1.2) //=> 3.603
+ * @example =SOIL.LIMEAL(2, , 20, 1.2) //=> 3.6031
  * Source: Kamprath (1970) SSSA Proc. 34:252-254, 1.5 cmol(+) CaCO3 per cmol(+) of exchangeable Al (abstract and factor seen); 2 cmol(+)/kg Al over 20 cm at 1.2 g/cm3 is arithmetic (derived).
  */
 export function limeal(exch_al: any[][], factor?: any[][], depth_cm?: any[][], bulk_density?: any[][], unit?: any[][]): any[][] {
@@ -75,7 +75,7 @@ const LIMEAL = declare(
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent; 0 when the Al saturation is already at or below the target. Estimates: split large rates, check local calibrations, regulations and licensed advice.
  * @throws #VALUE! when target_al_sat or bulk_density is missing, or for a negative cation.
- * @example =SOIL.LIMEALSAT(2, 1, 0.5, 20, , , 1) //=> 1.952
+ * @example =SOIL.LIMEALSAT(2, 1, 0.5, 20, , , 1) //=> 1.95168
  * Source: Cochrane, Salinas & Sanchez (1980) Tropical Agriculture 57:133-140, LR = 1.5 [Al - RAS (Al + Ca + Mg)/100] meq/100 g (abstract seen); the rate for 20 cm at 1.0 g/cm3 is derived.
  */
 export function limealsat(
@@ -108,7 +108,7 @@ const LIMEALSAT = declare(
  * @param {any[][]} [unit] t/ha (default), ton/ac, kg/ha or lb/ac.
  * @returns {any[][]} Pure CaCO3 equivalent (PRNT 100 %); divide by PRNT/100 (SOIL.LIMEPRODUCT) for the product. Estimates: check local calibrations, regulations and licensed advice.
  * @throws #VALUE! for base_sat or target_base_sat outside 0 to 100, or a negative cec.
- * @example =SOIL.LIMEBASESAT(5.46, 8.42, 60) //=> 2.819
+ * @example =SOIL.LIMEBASESAT(5.46, 8.42, 60) //=> 2.81869
  * Source: base-saturation method as used in Brazil (van Raij et al. 1997, IAC Boletim Tecnico 100; attribution from memory): T 5.46 cmolc/dm3, V 8.42 to 60 %, worked example seen on a Brazilian agronomy page (2.82 t/ha with 1 t/ha per cmolc/dm3).
  */
 export function limebasesat(
@@ -168,7 +168,7 @@ const LIMEPHBC = declare(
  * @param {any[][]} [moisture_pct] Water in the product as received, % of its wet mass (0, or 1 to below 100: below 1 % enter 0); default 0.
  * @returns {any[][]} Product as received, same unit as caco3_rate. Handle with care: dust; burnt and hydrated lime are caustic. Estimates: check local calibrations and regulations.
  * @throws #VALUE! for cce_pct of 0 or above 250, fineness_pct of 0 or above 100, or moisture_pct of 100 or more.
- * @example =SOIL.LIMEPRODUCT(5, 70) //=> 7.143
+ * @example =SOIL.LIMEPRODUCT(5, 70) //=> 7.14286
  * Source: Penn State Agricultural Analytical Services Lab, home-garden report notes: 5 lb/100 ft2 at CCE 100 is 7 lb/100 ft2 of a CCE 70 product (seen; the source rounds 7.14).
  */
 export function limeproduct(caco3_rate: any[][], cce_pct: any[][], fineness_pct?: any[][], moisture_pct?: any[][]): any[][] {
@@ -203,7 +203,7 @@ const FINENESS = declare(fineness, [range("fractions"), optRange("efficiencies")
  * @param {any[][]} analysis_pct % of each component in the material, one row or column (0 to 100 each, together at most 100 plus 1 for rounding; 0 for a component it lacks).
  * @param {any[][]} forms The component of each percentage, same shape: CaCO3, MgCO3, CaMg(CO3)2, CaO, MgO, Ca(OH)2, Mg(OH)2, or the elements Ca and Mg (not both an element and its compounds).
  * @returns {any[][]} CCE, % on the analysis' own basis. Ca and Mg as elements count as neutralizing: gypsum or silicate Ca does not, so use a measured CCE for by-products. Burnt and hydrated lime are caustic.
- * @example =SOIL.CCE({21.7,13.1},{"Ca","Mg"}) //=> 108.1
+ * @example =SOIL.CCE({21.7,13.1},{"Ca","Mg"}) //=> 108.136
  * Source: Minnesota Department of Agriculture, dolomite of 21.7 % Ca and 13.1 % Mg (seen); CCE derived from IUPAC/CIAAW molar masses.
  */
 export function cce(analysis_pct: any[][], forms: any[][]): any[][] {

@@ -55,7 +55,7 @@ const NFIXDM = declare(
  * @param {any[][]} [min_gap] Smallest reference − B for a reliable result, ‰ (0–20); default 2.
  * @returns {any[][]} %Ndfa; values a little outside 0–100 reflect measurement error and are returned as computed.
  * @throws #VALUE! when d15n_reference is less than min_gap above b_value, or the result is below -20 % or above 120 % (the message says why).
- * @example =SOIL.NDFA(6, 1, -1) //=> 71.43
+ * @example =SOIL.NDFA(6, 1, -1) //=> 71.4286
  * Source: %Ndfa = 100 (d15N reference - d15N legume)/(d15N reference - B) (Ledgard 1989; Peoples et al. 1989 ACIAR Monograph 11; equation seen); these delta values are arithmetic on it (derived).
  */
 export function ndfa(d15n_reference: any[][], d15n_legume: any[][], b_value: any[][], min_gap?: any[][]): any[][] {

@@ -33,7 +33,7 @@ const CONVERT = declare(
  * @param {any[][]} ion Ca, Mg, K, Na, NH4, H, Al (Al3+) or Mn (Mn2+).
  * @returns {any[][]} cmol(+)/kg.
  * @throws #VALUE! for an ion not in the list, or a negative amount.
- * @example =SOIL.CMOL(200, "Ca") //=> 0.998
+ * @example =SOIL.CMOL(200, "Ca") //=> 0.998054
  * Source: Clemson University Agricultural Service Laboratory, "CEC calculations": 200 ppm Ca (400 lb/acre) is 1 meq/100 g with the handbook divisor (seen); 0.998 with the IUPAC/CIAAW equivalent weight 200.39 (derived).
  */
 export function cmol(mg_per_kg: any[][], ion: any[][]): any[][] {
@@ -64,7 +64,7 @@ const MGKG = declare(mgkg, [num("cmol_per_kg"), text("ion")], (cmolKg, ion) => m
  * @param {any[][]} to_form A form of the same element.
  * @returns {any[][]} The amount in to_form.
  * @throws #VALUE! for forms of different elements (P to K2O), or a form not in the list.
- * @example =SOIL.OXIDE(49.8, "K", "K2O") //=> 60.0
+ * @example =SOIL.OXIDE(49.8, "K", "K2O") //=> 59.9891
  * Source: Reiter, Virginia Cooperative Extension SPES-201NP, "Conversion Factors Needed for Common Fertilizer Calculations": 49.8 % K x 1.2051 = 60 % K2O (seen); the IUPAC factor 1.2046 gives 59.99.
  */
 export function oxide(value: any[][], from_form: any[][], to_form: any[][]): any[][] {

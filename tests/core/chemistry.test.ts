@@ -1,6 +1,7 @@
 import fc from "fast-check";
-import { cmolFromMgKg, mgKgFromCmol, mgPerCmol, formFactor, convertForm, molarMass, caco3GramsPerCmolCharge, ION_IDS } from "../../src/core/chemistry";
+import { atomicWeight, cmolFromMgKg, mgKgFromCmol, mgPerCmol, formFactor, convertForm, molarMass, caco3GramsPerCmolCharge, ION_IDS } from "../../src/core/chemistry";
 import { SoilError } from "../../src/core/errors";
+import { errorMessage } from "../helpers/errors";
 
 // Atomic weights: IUPAC/CIAAW abridged standard atomic weights (Prohaska et al. 2022), as listed
 // in src/data/atomic-weights.json (from memory, see that file).
@@ -98,5 +99,24 @@ describe("molar masses", () => {
     expect(cce("Ca(OH)2")).toBeCloseTo(135.1, 0);
     expect(Math.abs(cce("MgO") - 250)).toBeLessThan(2);
     expect(cce("CaMg(CO3)2", 2)).toBeCloseTo(108.6, 0); // OXI-11, stoichiometry (derived)
+  });
+});
+
+// Mutation testing (issue 21): refusals read whole; formula parsing edge cases. Inputs invented.
+describe("refusals and formula parsing", () => {
+  const msg = (f: () => unknown) => errorMessage(f);
+  it("an element without an atomic weight, forms of two elements, an unknown ion: the whole message", () => {
+    expect(msg(() => atomicWeight("Xx"))).toBe('no atomic weight for element "Xx"');
+    expect(msg(() => formFactor("P", "K2O"))).toBe("P and K2O are forms of different elements (P, K); P converts to P, P2O5");
+    expect(msg(() => cmolFromMgKg(1, "Fe"))).toBe('unknown ion "Fe"; use Ca, Mg, K, Na, NH4, H, Al or Mn');
+  });
+  it("a malformed formula is refused, never read as something else", () => {
+    expect(msg(() => molarMass("Ca(OH2"))).toBe("unbalanced formula Ca(OH2");
+    expect(msg(() => molarMass("ca"))).toBe("bad formula ca");
+    expect(msg(() => molarMass("CaCO3)"))).toBe("bad formula CaCO3)");
+  });
+  it("groups and two-digit counts: Ca(OH)2 = 40.078 + 2 × 17.007 = 74.092; C12 = 144.132 (IUPAC/CIAAW abridged weights, from memory)", () => {
+    expect(molarMass("Ca(OH)2")).toBeCloseTo(74.092, 9);
+    expect(molarMass("C12")).toBeCloseTo(144.132, 9);
   });
 });

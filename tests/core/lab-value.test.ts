@@ -6,7 +6,7 @@
  * cell texts are invented, in the forms lab exports use.
  */
 import fc from "fast-check";
-import { labReading, labValue, LAB_BELOW_POLICIES, LAB_ABOVE_POLICIES, LAB_DECIMAL_MARKS } from "../../src/core/lab-value";
+import { labReading, labValue, LAB_BELOW_POLICIES, LAB_ABOVE_POLICIES, LAB_DECIMAL_MARKS, LAB_WORDS } from "../../src/core/lab-value";
 import { errorCode, errorMessage } from "../helpers/errors";
 
 describe("below detection: \"<0.05\" by the policy named", () => {
@@ -156,5 +156,37 @@ describe("numbers as labs format them", () => {
         return labValue(t, "half") === (labValue(t, "limit") as number) / 2;
       }),
     );
+  });
+});
+
+// Mutation testing (issue 21): edges of the reader, each read whole. Inputs invented.
+describe("reader edges", () => {
+  it("a policy or mark given as spaces counts as not given", () => {
+    expect(errorMessage(() => labValue("<0.05", "  "))).toBe('value "<0.05" is below detection: say how to count it with below: limit (0.05), half (0.025), zero or blank');
+    expect(errorMessage(() => labValue(">300", undefined, "  "))).toBe('value ">300" is above the lab\'s range: say how to count it with above: limit (300, the least it can be) or blank');
+    expect(errorMessage(() => labValue("12,5", undefined, undefined, "  "))).toMatch(/^value: "12,5" has a comma, which labs use both as a decimal mark/);
+  });
+  it("the value is quoted trimmed in the message", () => {
+    expect(errorMessage(() => labValue("  >300 "))).toMatch(/^value ">300" is above the lab's range/);
+  });
+  it("signs, a leading decimal point and grouped thousands", () => {
+    expect(labValue("-12.5")).toBe(-12.5);
+    expect(labValue("-1 250")).toBe(-1250);
+    expect(labValue("+.5")).toBe(0.5);
+    expect(labValue("-.5")).toBe(-0.5);
+    expect(labValue(".5")).toBe(0.5);
+    expect(labValue("1  250")).toBe(1250);
+    expect(labValue("1\u00a0250")).toBe(1250);
+    expect(labValue("1.5e3")).toBe(1500);
+  });
+  it.each(["a<0.05", "n1", "+ 12.5", "1e5x", "1-2"])("%s is refused as not a number", (text) => {
+    expect(errorCode(() => labValue(text))).toBe("NOT_A_NUMBER");
+  });
+  it("text after the decimals is refused with the mark named", () => {
+    expect(errorMessage(() => labValue("12,5x", undefined, undefined, ","))).toBe('value: "12,5x" is not a number written with the decimal mark ","');
+  });
+  it("the refusal of an unreadable text lists the words it reads", () => {
+    const m = errorMessage(() => labValue("n1"));
+    for (const w of LAB_WORDS) expect(m).toContain(`"${w}"`);
   });
 });

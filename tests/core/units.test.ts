@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import { convertUnit, unitById, unitOfFamily, REFUSED_UNIT_WORDS, UNITS } from "../../src/core/units";
+import { convertRate, convertUnit, unitById, unitOfFamily, REFUSED_UNIT_WORDS, UNITS } from "../../src/core/units";
 import { normaliseWord } from "../../src/core/names";
 import unitData from "../../src/data/units.json";
 import { errorCode as code, errorMessage } from "../helpers/errors";
@@ -166,5 +166,40 @@ describe("convertUnit: properties", () => {
         expect(ab * bc).toBeCloseTo(ac, Math.max(0, 9 - Math.round(Math.log10(Math.abs(ac) + 1))));
       }),
     );
+  });
+});
+
+// Mutation testing (issue 21): the refusals read whole, not by prefix. Inputs invented.
+describe("refusals read whole", () => {
+  const msg = (f: () => unknown) => errorMessage(f);
+  it("charge to mass in either direction names both families and points to SOIL.CMOL / SOIL.MGKG", () => {
+    expect(msg(() => convertUnit(1, "mg/kg", "cmol(+)/kg"))).toBe(
+      "cannot convert mg/kg (mass fraction of dry soil) to cmol(+)/kg (exchangeable charge per mass of soil); charge and mass are linked through an ion: use SOIL.CMOL or SOIL.MGKG",
+    );
+    expect(msg(() => convertUnit(1, "cmol(+)/kg", "mg/kg"))).toBe(
+      "cannot convert cmol(+)/kg (exchangeable charge per mass of soil) to mg/kg (mass fraction of dry soil); charge and mass are linked through an ion: use SOIL.CMOL or SOIL.MGKG",
+    );
+  });
+  it("two families with no link and no charge: no hint", () => {
+    expect(msg(() => convertUnit(1, "mg/kg", "dS/m"))).toBe("cannot convert mg/kg (mass fraction of dry soil) to dS/m (electrical conductivity)");
+  });
+  it("an ambiguous word names the argument, the reason and the spellings to use", () => {
+    expect(msg(() => convertUnit(1, "cmol/kg", "kg/ha"))).toBe(
+      'from_unit "cmol/kg" is ambiguous: labs write it for centimoles of charge and for centimoles of the ion (1 cmol/kg of Ca2+ is 2 cmol(+)/kg); write cmol(+)/kg, cmolc/kg or meq/100g',
+    );
+  });
+  it("a missing layer input names it with its unit", () => {
+    expect(msg(() => convertUnit(1, "mg/kg", "kg/ha", { bulkDensity: 1.3 }))).toBe("converting mg/kg to kg/ha needs depth_cm (the soil layer depth in cm)");
+    expect(msg(() => convertUnit(1, "mg/kg", "kg/ha", { depthCm: 10 }))).toBe("converting mg/kg to kg/ha needs bulk_density (dry bulk density in g/cm3)");
+  });
+  it("a unit of the wrong family for a rate", () => {
+    expect(msg(() => convertRate(1, "mg/kg", "kg/ha"))).toBe('unit "mg/kg" is not accepted here; use kg/ha, t/ha, g/m2, lb/ac, ton/ac');
+  });
+  it("an unknown word lists the units, starting with mg/kg", () => {
+    expect(msg(() => convertUnit(1, "bogus", "kg/ha"))).toMatch(/^unknown unit "bogus"; use mg\/kg, g\/kg, %, cmol\(\+\)\/kg, mmolc\/kg, /);
+  });
+  it("spacing, and case where no SI prefix collides, do not matter (10 mg/kg over 10 cm at 1.0 is 10 kg/ha, UNIT-16)", () => {
+    expect(convertUnit(10, "  PPM ", "KG/HA", { depthCm: 10, bulkDensity: 1 })).toBeCloseTo(10, 12);
+    expect(convertUnit(10, "mg /  kg", "kg/ha", { depthCm: 10, bulkDensity: 1 })).toBeCloseTo(10, 12);
   });
 });

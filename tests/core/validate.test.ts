@@ -4,7 +4,7 @@
  * outside, and a value that looks like a fraction (Excel keeps a cell shown as 95 % as 0.95) is
  * refused with a hint. The ranges' sources are named in validate.ts beside each range.
  */
-import { Bound, check, PERCENT, percentListLooksFractional } from "../../src/core/validate";
+import { Bound, check, finite, PERCENT, percentListLooksFractional } from "../../src/core/validate";
 import { limeProductRate } from "../../src/core/lime/product";
 import { limeBaseSat } from "../../src/core/lime/methods";
 import { errorCode, errorMessage } from "../helpers/errors";
@@ -106,5 +106,51 @@ describe("percentListLooksFractional", () => {
     expect(percentListLooksFractional([100, 60, 20, 0])).toBe(false);
     expect(percentListLooksFractional([0, 0])).toBe(false);
     expect(percentListLooksFractional([0.5, 2])).toBe(false);
+  });
+});
+
+// Mutation testing (issue 21) showed the messages were checked by prefix only; these read them
+// whole. Bounds below are invented for the check; PERCENT ranges as above.
+describe("messages read whole: range wording, unit and hints", () => {
+  const msg = (v: number, b: Bound) => errorMessage(() => check(v, b));
+  it.each([
+    [{ name: "x", min: 5, max: 100, unit: "cm" }, 0.5, "x must be from 5 to 100 cm (got 0.5 cm)"],
+    [{ name: "x", min: 5, max: 100 }, 200, "x must be from 5 to 100 (got 200)"],
+    [{ name: "x", min: 5, minExclusive: true, max: 100, maxExclusive: true, unit: "cm" }, 100, "x must be above 5 to below 100 cm (got 100 cm)"],
+    [{ name: "x", min: 5, unit: "cm" }, 1, "x must be at least 5 cm (got 1 cm)"],
+    [{ name: "x", min: 5, minExclusive: true }, 5, "x must be greater than 5 (got 5)"],
+    [{ name: "x", max: 5, unit: "cm" }, 6, "x must be at most 5 cm (got 6 cm)"],
+    [{ name: "x", max: 5, maxExclusive: true }, 5, "x must be less than 5 (got 5)"],
+  ] as [Bound, number, string][])("%# %j at %d", (b, v, text) => expect(msg(v, b)).toBe(text));
+  it("a bound that is not a percent never gets a fraction hint", () => {
+    expect(msg(0.5, { name: "x", unit: "g/cm3", min: 5, max: 100 })).not.toContain("fraction");
+  });
+  it("a negative percent gets no hint", () => {
+    expect(msg(-0.5, PERCENT.cce)).toBe("cce_pct must be from 5 to 250 % (got -0.5 %)");
+  });
+  it("a percent above the range gets neither the fraction hint nor the small-value advice", () => {
+    expect(msg(150, PERCENT.moisture)).toBe("moisture_pct must be 0, or from 1 to below 100 % (got 150 %)");
+  });
+  it("the small-value advice is given at the lower limit itself (value ≤ min), with the fraction hint", () => {
+    expect(msg(1, PERCENT.baseSat)).toBe(
+      `base_sat must be 0, or above 1 to 100 % (got 1 %); 1 looks like a fraction; enter 100 for 100 %; ${PERCENT.baseSat.small}`,
+    );
+  });
+  it("a zero-allowed range without advice gives the fraction hint alone", () => {
+    expect(msg(0.5, { name: "x", unit: "%", min: 1, max: 100, zero: true })).toBe("x must be 0, or from 1 to 100 % (got 0.5 %); 0.5 looks like a fraction; enter 50 for 50 %");
+  });
+  it("advice without zero allowed is not given", () => {
+    expect(msg(0.5, { name: "x", unit: "%", min: 1, max: 100, small: "ADVICE" })).not.toContain("ADVICE");
+  });
+  it("a non-finite value says so", () => {
+    expect(msg(Infinity, PERCENT.cce)).toBe("cce_pct must be a finite number (got Infinity)");
+  });
+});
+
+describe("finite: no NaN or Infinity leaves core", () => {
+  it("passes a finite number, refuses the others naming what could not be computed", () => {
+    expect(finite(2.5, "the rate")).toBe(2.5);
+    expect(errorMessage(() => finite(NaN, "the rate"))).toBe("the rate cannot be computed for these inputs (result is not finite)");
+    expect(errorCode(() => finite(-Infinity, "the rate"))).toBe("OUT_OF_RANGE");
   });
 });

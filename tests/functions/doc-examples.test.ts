@@ -1,7 +1,7 @@
 /**
  * The worked examples on the help pages are tests: every `@example =SOIL.X(...) //=> value` in the
  * JSDoc of src/functions is typed into the headless engine as a user would type it, and must give
- * the value written (a number to the digits it is written with; a quoted text exactly, or as a
+ * the value written (a number within a relative 5e-6, tests/helpers/doc-tolerance.ts; a quoted text exactly, or as a
  * prefix when it ends with "…"). Every function in the metadata must have one, with a Source line
  * naming where its numbers come from: the help page shows both. The sources are in the JSDoc
  * beside each example; the helpers here read them, they do not add any.
@@ -9,6 +9,7 @@
 import fs from "fs";
 import path from "path";
 import { evaluateFormula } from "../../src/engine/evaluate";
+import { docTolerance } from "../helpers/doc-tolerance";
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const help = require("../../scripts/help.js") as {
@@ -30,10 +31,7 @@ function docOf(id: string) {
   return a ? docs.find((d) => d.module === a.module && d.functionName === a.functionName) : undefined;
 }
 
-function tolerance(written: string): number {
-  const dec = /\.(\d+)/.exec(written);
-  return 0.5 * 10 ** -(dec ? dec[1]!.length : 0) + 1e-12;
-}
+const tolerance = (written: string): number => docTolerance(Number(written));
 
 const examples = metadata.functions.flatMap((f) => (docOf(f.id)?.examples ?? []).map((e) => ({ id: f.id, ...e })));
 

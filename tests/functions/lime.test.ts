@@ -90,8 +90,13 @@ describe("SOIL.LIMEALSAT", () => {
 });
 
 describe("SOIL.LIMEBASESAT", () => {
-  it("worked example T 5.46, V 8.42 → 60 % (agronomiacomgismonti 2010): 2.82 t/ha for 0–20 cm", () => {
-    expect(one(limebasesat(g(5.46), g(8.42), g(60)))).toBeCloseTo(2.8187, 4);
+  // Source: agronomiacomgismonti (2010), seen: NC = (60 − 8.42) × 5.46 / 100 = 2.816 t/ha for 0–20 cm,
+  // printed to three decimals, at the method's rounded 1 t CaCO3/ha per cmolc/dm3. Ours uses the exact
+  // 1.00086 t (100.086 / 2 g per mol of charge × 2000 m3/ha of layer; derived from atomic weights).
+  it("worked example T 5.46, V 8.42 → 60 %: the source's 2.816 t/ha to its three decimals, × 1.00086 in ours", () => {
+    const r = one(limebasesat(g(5.46), g(8.42), g(60))) as number;
+    expect(Math.abs(r / 1.00086 - 2.816)).toBeLessThanOrEqual(0.0005);
+    expect(r).toBeCloseTo(((60 - 8.42) * 5.46 * 1.00086) / 100, 9);
   });
   it("issue 22: LIMEBASESAT(8.9, 0.5, 0.7) is #VALUE! with the fraction hint, not 0.0178", () => {
     expect(err(one(limebasesat(g(8.9), g(0.5), g(0.7))))).toMatch(/^#VALUE! base_sat must be 0, or above 1 to 100 %.*0\.5 looks like a fraction; enter 50 for 50 %/);

@@ -12,6 +12,10 @@ export interface Entry {
   readonly store?: boolean;
   /** The uncompressed size the headers claim (default: the real one). */
   readonly declaredSize?: number;
+  /** The CRC-32 the headers claim (default: the real one). */
+  readonly declaredCrc?: number;
+  /** Changes the stored (compressed) bytes before they are written, e.g. to damage them. */
+  readonly damage?: (body: Buffer) => Buffer;
 }
 
 export function writeZip(entries: readonly Entry[]): Buffer {
@@ -20,8 +24,9 @@ export function writeZip(entries: readonly Entry[]): Buffer {
   let offset = 0;
   for (const e of entries) {
     const name = Buffer.from(e.name, "utf8");
-    const body = e.store ? e.data : zlib.deflateRawSync(e.data, { level: 9 });
-    const crc = zlib.crc32(e.data) >>> 0;
+    const packed = e.store ? e.data : zlib.deflateRawSync(e.data, { level: 9 });
+    const body = e.damage ? e.damage(Buffer.from(packed)) : packed;
+    const crc = e.declaredCrc ?? zlib.crc32(e.data) >>> 0;
     const size = e.declaredSize ?? e.data.length;
     const method = e.store ? 0 : 8;
     const local = Buffer.alloc(30);

@@ -85,7 +85,7 @@ function midpoint(c: Coefficient): number {
  * @returns kg of the nutrient, in the form asked, per t of product on the row's basis
  * @throws UNKNOWN_NAME for an unknown crop or nutrient word; NO_REFERENCE_DATA when the source
  *   gives no value for that element and crop (the message lists those it gives)
- * @example removalCoefficient("corn", "P") //=> 3.164
+ * @example removalCoefficient("corn", "P") //=> 3.16411
  */
 export function removalCoefficient(cropWord: string, nutrientWord: string): number {
   const row = CROPS.lookup(cropWord, "crop");

@@ -100,7 +100,7 @@ const sumOf = (b: Record<BaseCation, number>) => b.Ca + b.Mg + b.K + b.Na;
  * @param bulkDensity dry bulk density, g/cm3; only for mg/dm3
  * @returns CEC, cmol(+)/kg (= meq/100 g)
  * @throws as cecChargeOf; OUT_OF_RANGE for negative acidity
- * @example cecSum(2000, 180, 150, 30, "mg/kg", 2) //=> 13.976
+ * @example cecSum(2000, 180, 150, 30, "mg/kg", 2) //=> 13.9759
  * Source: summation method as worked by Clemson University Agricultural Service Laboratory,
  * "CEC calculations" (seen), which uses rounded divisors; here IUPAC equivalent weights.
  */
@@ -210,7 +210,7 @@ const BASES = nameTable<RatioBasis>([
  * @returns the Ca:Mg ratio (dimensionless)
  * @throws OUT_OF_RANGE for negative inputs; NOT_APPLICABLE when mg is 0; UNKNOWN_NAME for a
  *   basis or unit not listed; MISSING_INPUT without a unit
- * @example cecCaMgRatio(2000, 180, "mg/kg", "charge") //=> 6.738
+ * @example cecCaMgRatio(2000, 180, "mg/kg", "charge") //=> 6.73825
  * Source: charge basis as used by Crop File 1.04.132 "What is base saturation" ("ratios are
  * calculated on charge equivalent basis", seen); critique: Kopittke P.M. & Menzies N.W. (2007)
  * A review of the use of the basic cation saturation ratio and the "ideal" soil. Soil Sci. Soc.
@@ -302,7 +302,7 @@ function fallback(out: ColumnResult, i: number, f: () => number): void {
 /**
  * cecSum over `n` samples.
  * @returns one result per sample: the CEC in cmol(+)/kg, or (in `errors`) the SoilError cecSum gives that sample
- * @example cecSumColumn([2000], [180], [150], [30], "mg/kg", [2], undefined, 1).values[0] //=> 13.976
+ * @example cecSumColumn([2000], [180], [150], [30], "mg/kg", [2], undefined, 1).values[0] //=> 13.9759
  * Source: as cecSum.
  */
 export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: ColumnOf, unitWord: string | undefined, acidity: ColumnOf, bulkDensity: ColumnOf, n: number): ColumnResult {

@@ -32,7 +32,7 @@ export const CCE_FORMS: readonly string[] = FORMS.ids;
 
 /**
  * Calcium carbonate equivalent of 1 % of a form in a material, % (CaCO3 1, MgO 2.48).
- * @example limeCceFactor("MgCO3") //=> 1.187
+ * @example limeCceFactor("MgCO3") //=> 1.18708
  * Source: bases × M(CaCO3) / M(form) from IUPAC atomic weights (derived); UNL PASSEL Table 4.4 prints 119 % for MgCO3 (seen).
  */
 export function limeCceFactor(formWord: string): number {
@@ -56,7 +56,7 @@ function elementsOf(f: CceForm): string[] {
  *   an unknown form; NOT_APPLICABLE for a form given twice or an element counted twice;
  *   OUT_OF_RANGE for a percentage outside 0–100, a total above 101, or a total of 1 or less
  *   (fractions typed for percentages)
- * @example limeCce([21.7, 13.1], ["Ca", "Mg"]) //=> 108.1
+ * @example limeCce([21.7, 13.1], ["Ca", "Mg"]) //=> 108.136
  * Source: the dolomite composition 21.7 % Ca, 13.1 % Mg of the MN Dept. of Agriculture (seen); the
  * CCE is derived (pure dolomite CaMg(CO3)2 is 108.6 %).
  */
@@ -108,7 +108,7 @@ const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
  * is refused (enter 0 for a component the product does not have).
  * @throws as limeCce; MISSING_INPUT for a blank percentage or a blank form; NOT_A_NUMBER for text
  *   where a percentage is expected
- * @example limeCceOfRanges([[40, 0.6]], [["Ca", "Mg"]]) //=> 102.4
+ * @example limeCceOfRanges([[40, 0.6]], [["Ca", "Mg"]]) //=> 102.362
  * Source: MN Dept. of Agriculture, calcite '40% Ca and 0-0.6% Mg' (seen); the CCE is derived.
  */
 export function limeCceOfRanges(analysisPct: LimeRange, formWords: LimeRange): number {

@@ -88,7 +88,7 @@ export function limeAlSatCmol(al: number, ca: number, mg: number, targetAlSat: n
  * @returns pure CaCO3 equivalent in `unit`
  * @throws MISSING_INPUT without target_al_sat or bulk_density; OUT_OF_RANGE for negative cations,
  *   a percentage outside 0–100 or a bad depth/density
- * @example limeAlSat(2, 1, 0.5, { targetAlSat: 20, bulkDensity: 1.0 }) //=> 1.9517
+ * @example limeAlSat(2, 1, 0.5, { targetAlSat: 20, bulkDensity: 1.0 }) //=> 1.95168
  * Source: Cochrane, Salinas & Sánchez (1980) (abstract seen); 20 cm derived from its conversion.
  */
 export function limeAlSat(

@@ -28,7 +28,7 @@ import { BOUNDS, PERCENT, check, finite, percentListLooksFractional } from "../v
  * @returns product rate as received, in caco3_rate's unit
  * @throws OUT_OF_RANGE for any argument outside its range, with a hint when a percent looks like
  *   a fraction ("0.95 looks like a fraction; enter 95 for 95 %")
- * @example limeProductRate(5, 70) //=> 7.1429
+ * @example limeProductRate(5, 70) //=> 7.14286
  * Source: Penn State AASL home-garden report notes: 5 lb/100 ft2 at CCE 100 → 7 lb of a CCE 70
  * product (the source rounds 7.14; seen).
  */

@@ -172,7 +172,9 @@ describe("LIMEPHBC: pH buffer capacity method", () => {
     expect(limePhBc(5.0, 6.0, 1.0, { depthCm: 10, bulkDensity: 1.3, unit: "kg/ha" })).toBeCloseTo(650.56, 2);
   });
   it("LIME-29 UGA lime buffer capacity (definition seen, numbers derived): LBC 400 mg CaCO3/kg/pH, pH 5.2 → 6.0: 320 mg/kg; 15 cm, BD 1.3 → 624 kg/ha", () => {
-    const capacityCmol = 400 / limeCaco3MgPerKg(1);
+    // 1 cmol(+)/kg of CaCO3 is 100.086 / 2 × 10 = 500.43 mg/kg (molar mass from IUPAC/CIAAW abridged
+    // atomic weights, from memory), written out so the factor under test does not cancel itself out.
+    const capacityCmol = 400 / 500.43;
     expect(limePhBc(5.2, 6.0, capacityCmol, { depthCm: 15, bulkDensity: 1.3, unit: "kg/ha" })).toBeCloseTo(624, 6);
   });
   it("0 when the target is at or below the soil pH", () => {

@@ -1,0 +1,108 @@
+#!/usr/bin/env node
+/**
+ * Mutation testing, folder by folder (src/core, then src/functions, then src/engine), each folder in
+ * parts (mutation/parts.js), then the score per folder and per part read from the committed
+ * incremental files (mutation/incremental/<part>.json).
+ *
+ *   node scripts/mutation.js                 every part of all three folders, then the table
+ *   node scripts/mutation.js core engine     only those folders, then the table
+ *   node scripts/mutation.js core-lime       only that part, then the table
+ *   node scripts/mutation.js --report        the table only, from the last runs
+ *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
+ *
+ * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
+ * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
+ * compile are left out (they can never reach a user), and mutants marked equivalent in the source
+ * (`// Stryker disable next-line <mutator>: <reason>`) are listed with their reason, never hidden.
+ * Static mutants (module-level code, which reruns the folder's every test per mutant) are skipped
+ * unless MUTATE_STATIC=1, and counted in their own column, not in the score.
+ */
+const fs = require("fs");
+const path = require("path");
+const { spawnSync } = require("child_process");
+
+const ROOT = path.join(__dirname, "..");
+const FOLDERS = ["core", "functions", "engine"];
+const { PARTS } = require("../mutation/parts.js");
+const TARGET = { core: 85, functions: 75, engine: 75 };
+
+const argv = process.argv.slice(2);
+const dash = argv.indexOf("--");
+const own = dash < 0 ? argv : argv.slice(0, dash);
+const passOn = dash < 0 ? [] : argv.slice(dash + 1);
+const reportOnly = own.includes("--report");
+const showSurvivors = own.includes("--survivors");
+const chosen = own.filter((a) => !a.startsWith("--"));
+for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
+const parts = Object.keys(PARTS).filter((p) => !chosen.length || chosen.includes(p) || chosen.includes(PARTS[p].folder));
+
+let failed = false;
+if (!reportOnly && !showSurvivors) {
+  for (const part of parts) {
+    const folder = PARTS[part].folder;
+    console.log(`\n== mutation testing ${part}: ${PARTS[part].mutate.join(" ")} ==`);
+    const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
+      cwd: ROOT,
+      stdio: "inherit",
+      env: { ...process.env, MUTATE_PART: part, MUTATE_FOLDER: folder },
+    });
+    if (r.status !== 0) {
+      console.error(`stryker failed on ${part} (exit ${r.status})`);
+      failed = true;
+    }
+  }
+}
+
+/** Counts of the mutants of some parts by status, from their incremental files (null: none run). */
+function tally(partNames) {
+  const files = partNames.map((p) => path.join(ROOT, "mutation", "incremental", `${p}.json`)).filter((f) => fs.existsSync(f));
+  if (!files.length) return null;
+  const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0, Static: 0 };
+  const survivors = [];
+  const ignored = [];
+  for (const [name, f] of files.flatMap((file) => Object.entries(JSON.parse(fs.readFileSync(file, "utf8")).files))) {
+    for (const m of f.mutants) {
+      counts[m.status] = (counts[m.status] ?? 0) + 1;
+      const where = `${name}:${m.location.start.line}:${m.location.start.column}`;
+      if (m.status === "Survived" || m.status === "NoCoverage") survivors.push(`${m.status.padEnd(10)} ${where} ${m.mutatorName} -> ${oneLine(m.replacement)}`);
+      if (m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "")) {
+        counts.Ignored--;
+        counts.Static = (counts.Static ?? 0) + 1;
+      } else if (m.status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
+    }
+  }
+  const detected = counts.Killed + counts.Timeout;
+  const valid = detected + counts.Survived + counts.NoCoverage;
+  return { counts, score: valid ? (100 * detected) / valid : NaN, survivors, ignored, missing: partNames.length - files.length };
+}
+const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
+
+console.log("\n                  killed  survived  no-cov  timeout  compile-err  equivalent  static-not-run  score    target");
+const row = (label, t, target) => {
+  const c = t.counts;
+  const goal = target ? `≥ ${target} % ${t.score >= target ? "met" : "NOT met"}` : "";
+  console.log(
+    `${label.padEnd(18)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
+      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ${goal}`,
+  );
+};
+for (const folder of FOLDERS) {
+  const names = Object.keys(PARTS).filter((p) => PARTS[p].folder === folder);
+  const t = tally(names);
+  if (!t) {
+    console.log(`src/${folder.padEnd(14)}(not run yet)`);
+    continue;
+  }
+  row(`src/${folder}`, t, TARGET[folder]);
+  if (t.missing) console.log(`  (${t.missing} of ${names.length} parts not run yet)`);
+  for (const p of names) {
+    const tp = tally([p]);
+    if (tp) row(`  ${p}`, tp);
+    else console.log(`  ${p.padEnd(16)}(not run yet)`);
+  }
+  if (showSurvivors) {
+    for (const s of t.survivors) console.log(`    ${s}`);
+    for (const s of t.ignored) console.log(`    equivalent ${s}`);
+  }
+}
+process.exit(failed ? 1 : 0);
