@@ -1,4 +1,6 @@
 /**
+ * (A helper: it holds no reference values of its own; the values compared come from each test's
+ * source or from invented workbooks.)
  * Comparing the values cells cache, as the oracle and real-workbook tests do: numbers to 1e-9
  * relative (LibreOffice writes 15 significant digits), text exactly, logical values exactly,
  * errors by code, and an empty cell only with an empty cell.

@@ -1,4 +1,5 @@
 /**
+ * (A helper: no reference values of its own; the workbooks it reads are invented.)
  * A sheet part's cells as raw XML, for byte-for-byte checks: each <c> element exactly as it
  * stands in the part, its formula by meaning (type, ref, shared index, decoded text), and what
  * surrounds <sheetData> (with <dimension> left out: a spill may widen it). Parsed with the

@@ -1,4 +1,5 @@
 /**
+ * Source of what is checked: the README itself and the Microsoft documentation pages it cites.
  * The README's install and hosting guides are there, as numbered steps, each citing Microsoft's
  * page for it, and say plainly that they could not be tried here. This checks presence and shape,
  * not that Excel behaves as described (no Excel on the machines these tests run on).

@@ -1,4 +1,5 @@
 /**
+ * (A helper: no reference values of its own; the workbooks it runs are invented.)
  * Runs the soilcell command as a user would (node bin/soilcell.js …), with its peak memory
  * recorded by rusage-hook.js, a time limit (a hang fails fast) and optionally a capped heap.
  * Shared by the reliability tests.

@@ -1,3 +1,4 @@
+// (A helper: no reference values of its own; the workbooks it pauses are invented.)
 // Preloaded with `node -r` by the kill tests: stops the soilcell process at one chosen point of a
 // recalc, says so on stderr ("PAUSED <point>"), and waits there until the test kills it, so each
 // kill lands exactly where it is meant to (a timer cannot promise that). The point is
