@@ -15,7 +15,8 @@ process.env.MUTATE_FOLDER = folder; // read by mutation/jest.config.js in the te
 export default {
   packageManager: "npm",
   testRunner: "jest",
-  jest: { configFile: "mutation/jest.config.js", enableFindRelatedTests: false },
+  // Only the test files that import the mutated file (directly or not) are loaded for its mutants.
+  jest: { configFile: "mutation/jest.config.js", enableFindRelatedTests: true },
   // No TypeScript checker: tried first, it was the bottleneck on the shared 2-core machine (about
   // 10 mutants a minute, the test runners waiting on it). Without it, a mutant that would not
   // compile runs as plain JavaScript (tests are transpiled only, mutation/tsconfig.json) and is

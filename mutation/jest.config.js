@@ -16,7 +16,8 @@ const root = path.join(__dirname, "..");
 module.exports = {
   rootDir: root,
   testEnvironment: "node",
-  roots: ["<rootDir>/tests"],
+  // src is a root too, so Jest can find the tests related to a mutated file (enableFindRelatedTests).
+  roots: ["<rootDir>/tests", "<rootDir>/src"],
   transform: { "^.+\\.ts$": ["ts-jest", { tsconfig: path.join(__dirname, "tsconfig.json") }] },
   testMatch: TESTS.map((t) => (t.endsWith(".ts") ? `<rootDir>/${t}` : `<rootDir>/${t}/**/*.test.ts`)),
   // The oracle test recalculates through build/ (the compiled CLI), which a mutant never reaches.
