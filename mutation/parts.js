@@ -16,5 +16,10 @@ const PARTS = {
   "engine-functions": { folder: "engine", mutate: ["src/engine/formula/functions/**/*.ts"] },
   "engine-book": { folder: "engine", mutate: ["src/engine/{book,plan,recalc,host}.ts"] },
   "engine-small": { folder: "engine", mutate: ["src/engine/{cellref,registry,soil,formula-text,evaluate}.ts"] },
+  "engine-reports": { folder: "engine", mutate: ["src/engine/{report-template,report-batch,report-package,table-xlsx}.ts", "src/engine/season/{inputs,summary,one}.ts"] },
 };
-module.exports = { PARTS };
+// Not mutated, because no in-process test can reach them (their mutants could only "survive"):
+// src/engine/office-pdf.ts drives LibreOffice in a child process, and src/engine/season/pool.ts and
+// worker.ts run the compiled build/ in worker threads. Their tests (tests/cli) run end to end.
+const NOT_MUTATED = ["src/engine/office-pdf.ts", "src/engine/season/pool.ts", "src/engine/season/worker.ts"];
+module.exports = { PARTS, NOT_MUTATED };
