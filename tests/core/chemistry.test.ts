@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { atomicWeight, cmolFromMgKg, mgKgFromCmol, mgPerCmol, formFactor, convertForm, molarMass, caco3GramsPerCmolCharge, ION_IDS } from "../../src/core/chemistry";
 import { SoilError } from "../../src/core/errors";
-import { errorMessage } from "../helpers/errors";
+import { errorCode, errorMessage } from "../helpers/errors";
 
 // Atomic weights: IUPAC/CIAAW abridged standard atomic weights (Prohaska et al. 2022), as listed
 // in src/data/atomic-weights.json (from memory, see that file).
@@ -118,5 +118,33 @@ describe("refusals and formula parsing", () => {
   it("groups and two-digit counts: Ca(OH)2 = 40.078 + 2 × 17.007 = 74.092; C12 = 144.132 (IUPAC/CIAAW abridged weights, from memory)", () => {
     expect(molarMass("Ca(OH)2")).toBeCloseTo(74.092, 9);
     expect(molarMass("C12")).toBeCloseTo(144.132, 9);
+  });
+});
+
+// Mutation testing (issue 21), second round: the code and words of each refusal, a formula with a
+// character that is no element, and results too large to be a number. Inputs invented.
+describe("refusals read whole, second round", () => {
+  const msg = (f: () => unknown) => errorMessage(f);
+  it("an element without an atomic weight is UNKNOWN_NAME", () => {
+    expect(errorCode(() => atomicWeight("Xx"))).toBe("UNKNOWN_NAME");
+  });
+  it("a formula with a space or a sign between elements is refused, not read past it", () => {
+    expect(msg(() => molarMass("Ca O"))).toBe("bad formula Ca O");
+    expect(msg(() => molarMass("-CaO"))).toBe("bad formula -CaO");
+  });
+  it("a negative amount is refused with its name and unit, either way", () => {
+    expect(msg(() => cmolFromMgKg(-1, "Ca"))).toBe("mg_per_kg must be at least 0 mg/kg (got -1 mg/kg)");
+    expect(msg(() => mgKgFromCmol(-1, "Ca"))).toBe("cmol_per_kg must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+  });
+  it("an unknown form names itself and the forms, as from or as to", () => {
+    expect(msg(() => formFactor("P2O7", "P"))).toMatch(/^unknown form "P2O7"; use P, P2O5, /);
+    expect(msg(() => formFactor("P", "P2O7"))).toMatch(/^unknown form "P2O7"; use P, P2O5, /);
+  });
+  it("convertForm refuses a value that is not finite naming 'value'", () => {
+    expect(msg(() => convertForm(NaN, "P", "P2O5"))).toBe("value must be a finite number (got NaN)");
+  });
+  it("a result too large for a number is refused, not returned as Infinity", () => {
+    expect(msg(() => mgKgFromCmol(1e307, "K"))).toBe("mg/kg cannot be computed for these inputs (result is not finite)");
+    expect(msg(() => convertForm(1e308, "P", "P2O5"))).toBe("the converted amount cannot be computed for these inputs (result is not finite)");
   });
 });

@@ -190,3 +190,76 @@ describe("reader edges", () => {
     for (const w of LAB_WORDS) expect(m).toContain(`"${w}"`);
   });
 });
+
+// Mutation testing (issue 21), second round: each refusal read whole, signs and marks at the
+// edges, the ambiguous "1.250" pattern probed around it, and the empty cell. Inputs invented.
+describe("reader edges, second round", () => {
+  const msg = (f: () => unknown) => errorMessage(f);
+  it("an empty or all-space cell is not analysed: blank, never 0", () => {
+    expect(labReading("")).toEqual({ kind: "missing" });
+    expect(labReading(" \u00a0 ")).toEqual({ kind: "missing" });
+    expect(labValue("")).toBeNull();
+  });
+  it("a number cell that is not finite is refused", () => {
+    expect(errorCode(() => labValue(NaN))).toBe("NOT_A_NUMBER");
+    expect(msg(() => labValue(Infinity))).toBe("value is not a finite number");
+  });
+  it("a censoring sign with no number after it is refused as having none", () => {
+    expect(msg(() => labValue("<", "half"))).toBe('value: "<" has no number');
+    expect(msg(() => labValue("> ", undefined, "limit"))).toBe('value: "> " has no number');
+  });
+  it("a censoring sign followed by a lone sign is not a number (never a limit of 0)", () => {
+    expect(msg(() => labValue("<-", "half"))).toBe(
+      'value: "<-" is not a number written with the decimal mark "." (thousands may be grouped by "," or a space, three digits a group)',
+    );
+    expect(errorCode(() => labValue("<+", "half"))).toBe("NOT_A_NUMBER");
+  });
+  it("a limit that is not above 0 is refused with the limit read, a space after its minus sign or a minus sign U+2212 included", () => {
+    expect(msg(() => labValue("<0", "half"))).toBe('value: "<0" states a limit of 0; a detection or range limit must be above 0');
+    expect(msg(() => labValue("<- 0.5", "half"))).toBe('value: "<- 0.5" states a limit of -0.5; a detection or range limit must be above 0');
+    expect(msg(() => labValue("<\u22120.5", "half"))).toBe('value: "<\u22120.5" states a limit of -0.5; a detection or range limit must be above 0');
+  });
+  it("more than one decimal mark is refused naming the mark", () => {
+    expect(msg(() => labValue("1,2,3", undefined, undefined, ","))).toBe('value: "1,2,3" has more than one decimal mark ","');
+  });
+  it("decimals that do not start with a digit are refused naming the mark", () => {
+    expect(msg(() => labValue("12,x5", undefined, undefined, ","))).toBe('value: "12,x5" is not a number written with the decimal mark ","');
+    expect(msg(() => labValue(".5-"))).toBe('value: ".5-" is not a number written with the decimal mark "."');
+  });
+  it("a badly grouped number names the grouping the mark allows", () => {
+    expect(msg(() => labValue("12,50,0", undefined, undefined, "."))).toBe(
+      'value: "12,50,0" is not a number written with the decimal mark "." (thousands may be grouped by "," or a space, three digits a group)',
+    );
+    expect(msg(() => labValue("12.50.0", undefined, undefined, ","))).toMatch(/^value: "12.50.0" is not a number written with the decimal mark "," \(thousands may be grouped by "\." or a space/);
+  });
+  it("a full stop before three digits is ambiguous without a stated mark only after one to three digits, signed or not", () => {
+    for (const t of ["1.250", "12.250", "123.456", "-1.250", "+1.250"]) {
+      expect(msg(() => labValue(t))).toBe(`value: "${t}" could be read with a decimal point or as thousands grouped by a full stop: give decimal "." or "," to say which`);
+    }
+    expect(labValue("1234.567")).toBe(1234.567); // four digits before the point: not a thousands group
+    expect(labValue("0.250")).toBe(0.25); // a leading 0 is never a thousands group
+    expect(labValue("1.25")).toBe(1.25);
+  });
+  it("an exponent is read with decimal \".\" but not with decimal \",\"", () => {
+    expect(labValue("1.5e3", undefined, undefined, ".")).toBe(1500);
+    expect(msg(() => labValue("1e3", undefined, undefined, ","))).toBe(
+      'value: "1e3" is not a number written with the decimal mark "," (thousands may be grouped by "." or a space, three digits a group)',
+    );
+  });
+  it("text after an exponent is refused as not a number, not as an infinite one", () => {
+    expect(msg(() => labValue("1e5x"))).toBe(
+      'value: "1e5x" is not a number written with the decimal mark "." (thousands may be grouped by "," or a space, three digits a group)',
+    );
+  });
+  it("a number too large for a double is refused, not returned as Infinity", () => {
+    expect(msg(() => labValue("1e999"))).toBe('value: "1e999" is not a finite number');
+  });
+  it("an unknown option word names the option and its words", () => {
+    expect(msg(() => labValue("12,5", undefined, undefined, ";"))).toBe('unknown decimal mark ";"; use . or ,');
+    expect(msg(() => labValue("<0.05", "third"))).toBe('unknown policy for below "third"; use limit, half, zero or blank');
+    expect(msg(() => labValue(">300", undefined, "half"))).toBe('unknown policy for above "half"; use limit or blank');
+  });
+  it("a below-detection value without a policy is quoted trimmed", () => {
+    expect(msg(() => labValue("  <0.05 "))).toMatch(/^value "<0.05" is below detection: /);
+  });
+});

@@ -203,3 +203,45 @@ describe("refusals read whole", () => {
     expect(convertUnit(10, "mg /  kg", "kg/ha", { depthCm: 10, bulkDensity: 1 })).toBeCloseTo(10, 12);
   });
 });
+
+// Mutation testing (issue 21), second round: spacing of cased spellings, the micro sign, the
+// words of each refusal, and results too large to be a number. Inputs invented.
+describe("spellings, refusals and overflow read whole", () => {
+  const msg = (f: () => unknown) => errorMessage(f);
+  it("a cased spelling is matched after trimming and with inner spaces read as one (Mg/ha is a tonne per hectare, NIST SP 811)", () => {
+    expect(convertUnit(1, " Mg/ha ", "t/ha")).toBe(1);
+    expect(convertUnit(1, "Mg  ha-1", "t/ha")).toBe(1);
+  });
+  it("the Greek letter mu is read as the micro sign: μg/g (U+03BC) is µg/g, i.e. mg/kg (SI definition)", () => {
+    expect(unitById("\u03bcg/g").id).toBe("mg/kg");
+    expect(convertUnit(1, "\u03bcg/g", "mg/kg")).toBe(1);
+  });
+  it("a wrong-case prefix typed with spaces is refused naming the right spelling", () => {
+    expect(msg(() => unitById("MS / cm"))).toBe(
+      'unit "MS / cm" has an SI prefix in the wrong case (m is milli, M is mega: Mg is a tonne, MS a megasiemens); write mS/cm',
+    );
+  });
+  it("unitById names the argument 'unit' when none is given, and quotes the word trimmed", () => {
+    expect(msg(() => unitById("cmol/kg"))).toMatch(/^unit "cmol\/kg" is ambiguous: /);
+    expect(msg(() => convertUnit(1, " cmol/kg ", "kg/ha"))).toMatch(/^from_unit "cmol\/kg" is ambiguous: /);
+  });
+  it("the refusal of mg/L carries its hint after the spellings to use", () => {
+    expect(msg(() => unitById("mg/L"))).toBe(
+      'unit "mg/L" is usually the concentration of an extract or a water, not an amount per volume of soil; write mg/dm3 ' +
+        "if the lab means mg per litre of soil (as volume-based soil indices do); an extract concentration must first be turned into mg per kg or dm3 of soil with the extraction ratio, and SOIL.SAR takes mg/L for a water or extract",
+    );
+  });
+  it("a missing depth is MISSING_INPUT, like a missing density", () => {
+    expect(code(() => convertUnit(10, "mg/kg", "kg/ha", { bulkDensity: 1.3 }))).toBe("MISSING_INPUT");
+  });
+  it("a value that is not finite is refused naming 'value'", () => {
+    expect(msg(() => convertUnit(Infinity, "mg/kg", "g/kg"))).toBe("value must be a finite number (got Infinity)");
+  });
+  it("a converted value too large for a number is refused, not returned as Infinity", () => {
+    expect(msg(() => convertUnit(1e308, "%", "mg/kg"))).toBe("the converted value cannot be computed for these inputs (result is not finite)");
+    expect(msg(() => convertRate(1e308, "ton/ac", "kg/ha"))).toBe("the converted rate cannot be computed for these inputs (result is not finite)");
+  });
+  it("convertRate refuses a to-unit of the wrong family naming it", () => {
+    expect(msg(() => convertRate(1, "kg/ha", "mg/kg"))).toBe('unit "mg/kg" is not accepted here; use kg/ha, t/ha, g/m2, lb/ac, ton/ac');
+  });
+});

@@ -154,3 +154,15 @@ describe("finite: no NaN or Infinity leaves core", () => {
     expect(errorCode(() => finite(-Infinity, "the rate"))).toBe("OUT_OF_RANGE");
   });
 });
+
+// Mutation testing (issue 21), second round. PERCENT ranges as above.
+describe("messages read whole, second round", () => {
+  it("a negative percent gets no hint, even where 0 is allowed and small-value advice exists", () => {
+    expect(errorMessage(() => check(-0.5, PERCENT.moisture))).toBe("moisture_pct must be 0, or from 1 to below 100 % (got -0.5 %)");
+    expect(errorMessage(() => check(-0.5, PERCENT.ndfa))).toBe("ndfa_pct must be 0, or above 1 to 100 % (got -0.5 %)");
+  });
+  it("the CCE range names the sources of its bottom, the weakest liming materials", () => {
+    expect(PERCENT.cce.basis).toContain("wood ash, 22-49 %: Commun. Soil Sci. Plant Anal. 2017");
+    expect(PERCENT.cce.basis).toContain("Muse & Mitchell 1995");
+  });
+});
