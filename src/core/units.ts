@@ -76,9 +76,11 @@ const REFUSED = new Map<string, RefusedRow>(
 /** The words the unit tables refuse, for tests and help. */
 export const REFUSED_UNIT_WORDS: readonly string[] = (unitData.refused as RefusedRow[]).flatMap((r) => r.words);
 
-/** Every spelling of each unit, to check the case of an SI prefix against. */
+/** A spelling without its spaces, so "mg kg-1" and "mgkg-1" compare as one word. */
+const compact = (w: string) => w.replace(/\s+/g, "");
+/** Every spelling of each unit, as the table writes it, to check the case of an SI prefix against. */
 const SPELLINGS = new Map<UnitDef, string[]>(
-  (unitData.units as UnitRow[]).map((row, i) => [UNITS[i] as UnitDef, [row.id, ...row.aliases, ...(row.cased_aliases ?? [])].map((w) => w.replace(/\s+/g, ""))] as const),
+  (unitData.units as UnitRow[]).map((row, i) => [UNITS[i] as UnitDef, [row.id, ...row.aliases, ...(row.cased_aliases ?? [])]] as const),
 );
 
 /**
@@ -87,12 +89,12 @@ const SPELLINGS = new Map<UnitDef, string[]>(
  * case-insensitively whose prefix case differs from every spelling of the unit is refused.
  */
 function prefixCaseDiffers(word: string, u: UnitDef): boolean {
-  const w = word.replace(/\s+/g, "");
+  const w = compact(word);
   const prefixes = (s: string) => [...s.matchAll(/(?<![A-Za-z])([mM])(?=[gGsS])/g)].map((m) => `${m.index}:${m[1]}`).join(",");
   const typed = prefixes(w);
   if (!typed) return false;
   // Stryker disable next-line ArrayDeclaration: equivalent: SPELLINGS holds every unit the table returns, so the fallback list is never used
-  return !(SPELLINGS.get(u) ?? []).some((s) => s.length === w.length && s.toLowerCase() === w.toLowerCase() && prefixes(s) === typed);
+  return !(SPELLINGS.get(u) ?? []).map(compact).some((s) => s.length === w.length && s.toLowerCase() === w.toLowerCase() && prefixes(s) === typed);
 }
 
 const PREFIX_CASE: RefusedRow = {
@@ -114,10 +116,11 @@ function classify(word: string): Found {
   // Stryker disable next-line StringLiteral: equivalent: the word was just found by TABLE.has, so this lookup never refuses and its "unit" never shows
   const u = TABLE.lookup(word, "unit");
   if (prefixCaseDiffers(word, u)) {
-    const w = word.replace(/\s+/g, "").toLowerCase();
-    // The unit's own spelling of the word typed (no unit has two that differ only in case).
+    const w = compact(word).toLowerCase();
+    // The unit's own spelling of the word typed, as the table writes it (spaces kept: "mg kg-1",
+    // not "mgkg-1"); no unit has two that differ only in case.
     // Stryker disable next-line ArrayDeclaration: equivalent: SPELLINGS holds every unit the table returns, so the fallback list is never used
-    const same = (SPELLINGS.get(u) ?? []).find((x) => x.toLowerCase() === w);
+    const same = (SPELLINGS.get(u) ?? []).find((x) => compact(x).toLowerCase() === w);
     return { ...PREFIX_CASE, use: [same ?? u.id] };
   }
   return u;

@@ -138,6 +138,11 @@ describe("unit words two trades read differently (issue 22 point 5)", () => {
     expect(unitById("mS/cm").id).toBe("dS/m");
     expect(unitById("Mg/ha").id).toBe("t/ha");
   });
+  it("the spelling suggested for a wrong-case prefix keeps the table's spaces", () => {
+    // "mg kg-1" as the unit table writes it, never the run-together "mgkg-1"
+    expect(errorMessage(() => unitById("MG KG-1"))).toMatch(/; write mg kg-1$/);
+    expect(errorMessage(() => unitById("MGKG-1"))).toMatch(/; write mg ?kg-1$/);
+  });
   it("no refused word is also an accepted spelling (data check)", () => {
     const accepted = new Set(
       (unitData.units as { id: string; aliases: string[] }[]).flatMap((u) => [u.id, ...u.aliases]).map(normaliseWord),
