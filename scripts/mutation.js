@@ -9,6 +9,8 @@
  *   node scripts/mutation.js core-lime       only that part, then the table
  *   node scripts/mutation.js --report        the table only, from the last runs
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
+ *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
+ *                                            (Markdown, for the README)
  *
  * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
  * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
@@ -32,9 +34,33 @@ const own = dash < 0 ? argv : argv.slice(0, dash);
 const passOn = dash < 0 ? [] : argv.slice(dash + 1);
 const reportOnly = own.includes("--report");
 const showSurvivors = own.includes("--survivors");
+const showEquivalents = own.includes("--equivalents");
 const chosen = own.filter((a) => !a.startsWith("--"));
 for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
 const parts = Object.keys(PARTS).filter((p) => !chosen.length || chosen.includes(p) || chosen.includes(PARTS[p].folder));
+
+/** Every `// Stryker disable next-line <mutators>: <reason>` in src, as a Markdown list. */
+function equivalents() {
+  const out = [];
+  const walk = (dir) => {
+    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
+      const p = path.join(dir, e.name);
+      if (e.isDirectory()) walk(p);
+      else if (e.name.endsWith(".ts")) {
+        fs.readFileSync(p, "utf8").split("\n").forEach((line, i) => {
+          const m = /\/\/\s*Stryker disable(?: next-line)? ([\w,]+):\s*(?:equivalent:\s*)?(.*)$/.exec(line);
+          if (m) out.push(`- \`${path.relative(ROOT, p)}:${i + 2}\` ${m[1].split(",").join(", ")}: ${m[2].trim()}`);
+        });
+      }
+    }
+  };
+  walk(path.join(ROOT, "src"));
+  return out;
+}
+if (showEquivalents) {
+  console.log(equivalents().join("\n"));
+  process.exit(0);
+}
 
 let failed = false;
 if (!reportOnly && !showSurvivors) {
