@@ -31,8 +31,9 @@ export type ListInput<T> = readonly T[] | CellGrid;
 
 const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
-function isGrid(x: unknown): x is CellGrid {
-  return Array.isArray(x) && x.length > 0 && x.every((r) => Array.isArray(r));
+/** A list of rows; an empty list counts as one too, and reads as no cells either way. */
+function isGrid(x: readonly unknown[]): x is CellGrid {
+  return x.every((r) => Array.isArray(r));
 }
 
 function isBlank(c: unknown): boolean {
@@ -61,9 +62,6 @@ function trimTrailing(cells: unknown[], name: string): unknown[] {
   return kept;
 }
 
-const limitCache = new WeakMap<object, readonly number[]>();
-const labelCache = new WeakMap<object, readonly string[]>();
-
 /**
  * The limits of a band scale from a list or a one-row/one-column range, checked.
  * @param input ascending lower bounds; numbers or numeric text; trailing blank cells are ignored
@@ -73,10 +71,6 @@ const labelCache = new WeakMap<object, readonly string[]>();
  *   NOT_APPLICABLE when the limits are not strictly ascending
  */
 function bandLimits(input: ListInput<number | string | boolean | null>): readonly number[] {
-  if (typeof input === "object" && input !== null) {
-    const cached = limitCache.get(input);
-    if (cached) return cached;
-  }
   const cells = trimTrailing(flatten(input, "limits"), "limits");
   if (cells.length === 0) throw new SoilError("MISSING_INPUT", "limits is empty: give one or more ascending lower bounds");
   const limits = cells.map((c, i) => {
@@ -84,7 +78,10 @@ function bandLimits(input: ListInput<number | string | boolean | null>): readonl
       if (!Number.isFinite(c)) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} is not a finite number`);
       return c;
     }
-    if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) return Number(c.trim());
+    if (typeof c === "string") {
+      const t = c.trim();
+      if (NUMERIC_TEXT.test(t)) return Number(t);
+    }
     throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} (${typeof c === "string" ? `"${c}"` : String(c)}) is not a number`);
   });
   for (let i = 1; i < limits.length; i++) {
@@ -95,9 +92,7 @@ function bandLimits(input: ListInput<number | string | boolean | null>): readonl
       );
     }
   }
-  const frozen = Object.freeze(limits);
-  if (typeof input === "object" && input !== null) limitCache.set(input, frozen);
-  return frozen;
+  return limits;
 }
 
 /**
@@ -114,18 +109,11 @@ function bandLabels(count: number, input?: ListInput<string | number | boolean |
       `${count} limit${count === 1 ? "" : "s"} make ${count + 1} bands: give labels (${count + 1} of them); default labels exist only for 4 limits (${DEFAULT_BAND_LABELS.join(", ")})`,
     );
   }
-  let labels = typeof input === "object" ? labelCache.get(input) : undefined;
-  if (!labels) {
-    const cells = trimTrailing(flatten(input, "labels"), "labels");
-    labels = Object.freeze(
-      cells.map((c, i) => {
-        if (typeof c === "string") return c.trim();
-        if (typeof c === "number" && Number.isFinite(c)) return String(c);
-        throw new SoilError("NOT_A_NUMBER", `label ${i + 1} must be text (got ${String(c)})`);
-      }),
-    );
-    if (typeof input === "object") labelCache.set(input, labels);
-  }
+  const labels = trimTrailing(flatten(input, "labels"), "labels").map((c, i) => {
+    if (typeof c === "string") return c.trim();
+    if (Number.isFinite(c)) return String(c); // true for finite numbers only
+    throw new SoilError("NOT_A_NUMBER", `label ${i + 1} must be text (got ${String(c)})`);
+  });
   if (labels.length !== count + 1) {
     throw new SoilError(
       "SHAPE_MISMATCH",
@@ -216,11 +204,10 @@ export function bandLabel(
 const f64 = new Float64Array(1);
 const u64 = new BigUint64Array(f64.buffer);
 
-/** The largest double below x (x finite). */
-function nextDown(x: number): number {
-  if (x === 0) return -Number.MIN_VALUE;
+/** The largest double below x, for x > 0 (a band number): one step down in its bits. */
+function nextDownPositive(x: number): number {
   f64[0] = x;
-  u64[0] = x > 0 ? (u64[0] as bigint) - 1n : (u64[0] as bigint) + 1n;
+  u64[0] = (u64[0] as bigint) - 1n;
   return f64[0] as number;
 }
 
@@ -250,14 +237,14 @@ export function bandPosition(value: number, limits: ListInput<number | string | 
   let pos: number;
   if (k === 0) {
     pos = (value - at(0)) / (at(1) - at(0));
-    if (!(pos < 0)) pos = nextDown(0);
+    // value < L0 makes the difference negative, but the division can underflow to −0.
+    if (!(pos < 0)) pos = -Number.MIN_VALUE;
   } else if (k === n) {
     pos = n - 1 + (value - at(n - 1)) / (at(n - 1) - at(n - 2));
-    if (pos < n - 1) pos = n - 1;
   } else {
+    // No guard below: value ≥ L(k−1) makes the fraction ≥ 0, and adding it to k − 1 never rounds below k − 1.
     pos = k - 1 + (value - at(k - 1)) / (at(k) - at(k - 1));
-    if (pos >= k) pos = nextDown(k);
-    if (pos < k - 1) pos = k - 1;
+    if (pos >= k) pos = nextDownPositive(k);
   }
   return finite(pos, "the band position");
 }

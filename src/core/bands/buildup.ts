@@ -34,6 +34,7 @@ export function buildupRate(soilTest: number, target: number, bufferFactor: numb
   check(target, BOUNDS.nonNegative("target"));
   check(bufferFactor, BOUNDS.positive("buffer_factor"));
   check(years, BOUNDS.positive("years"));
+  // Stryker disable next-line EqualityOperator: equivalent: at soilTest = target the formula below gives 0 as well
   if (soilTest >= target) return 0;
   return finite(((target - soilTest) * bufferFactor) / years, "the build-up rate");
 }

@@ -5,7 +5,7 @@
  */
 import fc from "fast-check";
 import { bandIndex, bandIndexAt, bandLabel, bandPosition, DEFAULT_BAND_LABELS } from "../../../src/core/bands/bands";
-import { errorCode as code } from "../../helpers/errors";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 
 const L = [10, 20, 30, 40]; // invented
@@ -233,5 +233,149 @@ describe("bandIndexAt: a published table's own edge rule, limit by limit", () =>
   });
   it("refuses rules that do not match the limits in number", () => {
     expect(code(() => bandIndexAt(5, [1, 2], ["above"]))).toBe("SHAPE_MISMATCH");
+  });
+});
+
+// The rest checks the code's own reading of ranges and its refusals (no published values): the
+// limits are the invented scale above or smaller invented ones.
+describe("reading limits and labels: shapes, blanks and single cells", () => {
+  it("a 2-D block is refused with its size, for limits and for labels", () => {
+    expect(message(() => bandLabel(25, [[10, 20], [30, 40]]))).toBe("limits must be a single row or a single column (got 2×2)");
+    expect(message(() => bandLabel(25, [10, 20], [["a", "b", "c"], ["d", "e", "f"]]))).toBe("labels must be a single row or a single column (got 2×3)");
+  });
+  it("a ragged range is measured by its longest row", () => {
+    expect(code(() => bandLabel(25, [[10], [20, 30]]))).toBe("SHAPE_MISMATCH");
+    expect(message(() => bandLabel(25, [[10], [20, 30]]))).toMatch(/\(got 2×2\)$/);
+  });
+  it("a list mixing cells and rows is not a range: the row is not a number", () => {
+    expect(code(() => bandLabel(5, [10, [20]] as never))).toBe("NOT_A_NUMBER");
+  });
+  it.each([
+    ["null", null],
+    ["empty text", ""],
+    ["white space", "   "],
+    ["undefined", undefined],
+  ])("a trailing blank cell (%s) is ignored", (_, blank) => {
+    expect(bandLabel(25, [10, 20, 30, 40, blank] as never)).toBe("Optimum");
+    expect(bandLabel(25, [10, 20], ["a", "b", "c", blank] as never)).toBe("c");
+  });
+  it("an inner blank names its position, in limits and in labels", () => {
+    expect(message(() => bandLabel(25, [[10], [null], [30], [40]]))).toBe("limits has a blank cell at position 2; fill it or remove it");
+    expect(message(() => bandLabel(25, [null, 20, 30, 40]))).toBe("limits has a blank cell at position 1; fill it or remove it");
+    expect(message(() => bandLabel(25, [10, 20], ["a", " ", "c"]))).toBe("labels has a blank cell at position 2; fill it or remove it");
+  });
+  it("no limits, or only blank cells, says the limits are empty", () => {
+    for (const empty of [[], [[null, null]], [null]]) {
+      expect(code(() => bandLabel(5, empty))).toBe("MISSING_INPUT");
+      expect(message(() => bandLabel(5, empty))).toBe("limits is empty: give one or more ascending lower bounds");
+    }
+  });
+  it("a single cell that is not in a list reads as a list of one", () => {
+    expect(bandLabel(5, 10 as never, ["below", "from 10"])).toBe("below");
+    expect(bandLabel(10, 10 as never, ["below", "from 10"])).toBe("from 10");
+    expect(message(() => bandLabel(5, [10], "only one" as never))).toBe("1 limit make 2 bands, so labels needs 2 entries (got 1)");
+  });
+});
+
+describe("reading limits: numbers and numeric text only", () => {
+  it("numeric text may have spaces around it", () => {
+    expect(bandLabel(25, [" 10", "20 ", " 30 ", "40"])).toBe("Optimum");
+  });
+  it("a limit that is not finite is refused, naming it", () => {
+    expect(code(() => bandLabel(5, [10, Infinity], ["a", "b", "c"]))).toBe("NOT_A_NUMBER");
+    expect(message(() => bandLabel(5, [10, Infinity], ["a", "b", "c"]))).toBe("limit 2 is not a finite number");
+    expect(message(() => bandLabel(5, [Number.NaN, 20], ["a", "b", "c"]))).toBe("limit 1 is not a finite number");
+  });
+  it("text is quoted in the refusal, a boolean is not", () => {
+    expect(message(() => bandLabel(5, [10, "twenty", 30, 40]))).toBe('limit 2 ("twenty") is not a number');
+    expect(message(() => bandLabel(5, [10, true, 30, 40]))).toBe("limit 2 (true) is not a number");
+  });
+});
+
+describe("reading labels", () => {
+  it("labels omitted as null are the default five for four limits", () => {
+    expect(bandLabel(25, L, null as never)).toBe("Optimum");
+  });
+  it("spaces around a label are dropped", () => {
+    expect(bandLabel(15, [10, 20], [" under ", " between ", " over "])).toBe("between");
+  });
+  it("a label that is a boolean or a number that is not finite is refused, naming it", () => {
+    expect(message(() => bandLabel(5, [10], ["a", true]))).toBe("label 2 must be text (got true)");
+    expect(code(() => bandLabel(5, [10], ["a", Number.NaN]))).toBe("NOT_A_NUMBER");
+    expect(message(() => bandLabel(5, [10], [Number.NaN, "b"]))).toBe("label 1 must be text (got NaN)");
+  });
+  it("labels omitted: the message counts the bands and lists the defaults", () => {
+    const defaults = "default labels exist only for 4 limits (Very low, Low, Optimum, High, Very high)";
+    expect(message(() => bandLabel(5, [10]))).toBe(`1 limit make 2 bands: give labels (2 of them); ${defaults}`);
+    expect(message(() => bandLabel(5, [10, 20, 30]))).toBe(`3 limits make 4 bands: give labels (4 of them); ${defaults}`);
+  });
+  it("a wrong number of labels: the message counts limits, bands and labels", () => {
+    expect(message(() => bandLabel(5, [10], ["a", "b", "c"]))).toBe("1 limit make 2 bands, so labels needs 2 entries (got 3)");
+    expect(message(() => bandLabel(5, L, ["a", "b", "c"]))).toBe("4 limits make 5 bands, so labels needs 5 entries (got 3)");
+  });
+});
+
+describe("the same array read again after it was refilled", () => {
+  // A caller may change an array between two calls: each call reads what the array holds now.
+  it.each([
+    ["one limit changed", (l: number[]): void => void (l[1] = 26), 25, 2, 1],
+    ["every limit changed", (l: number[]): void => void l.splice(0, 4, 26, 27, 28, 29), 25, 2, 0],
+    ["a limit removed", (l: number[]): void => void (l.length = 3), 45, 4, 3],
+    ["a limit added", (l: number[]): void => void l.push(50), 55, 4, 5],
+  ] as const)("%s", (_, refill, v, before, after) => {
+    const limits = [10, 20, 30, 40];
+    expect(bandIndex(v, limits)).toBe(before);
+    refill(limits);
+    expect(bandIndex(v, limits)).toBe(after);
+  });
+  it("a cell of a column range changed", () => {
+    const col = [[10], [20], [30], [40]];
+    expect(bandLabel(25, col)).toBe("Optimum");
+    (col[1] as number[])[0] = 26;
+    expect(bandLabel(25, col)).toBe("Low");
+  });
+  it("a label changed", () => {
+    const labels = ["a", "b", "c"];
+    expect(bandLabel(15, [10, 20], labels)).toBe("b");
+    labels[1] = "B";
+    expect(bandLabel(15, [10, 20], labels)).toBe("B");
+  });
+});
+
+describe("the value and the edge rules: refusals name the argument", () => {
+  it("a value that is not finite", () => {
+    expect(message(() => bandIndex(Number.NaN, L))).toBe("value must be a finite number (got NaN)");
+    expect(message(() => bandIndexAt(Infinity, [1, 2], ["above", "above"]))).toBe("value must be a finite number (got Infinity)");
+  });
+  it("edge rules that do not match the limits in number", () => {
+    expect(message(() => bandIndexAt(5, [1, 2], ["above"]))).toBe("2 limits need 2 edge rules (got 1)");
+  });
+});
+
+describe("bandPosition: the rounding guards (derived from binary floating point)", () => {
+  // The largest double below a positive x, one step down in its bits.
+  const below = (x: number) => {
+    const f = new Float64Array([x]);
+    const u = new BigUint64Array(f.buffer);
+    u[0] = (u[0] as bigint) - 1n;
+    return f[0] as number;
+  };
+  it("a value one step below a limit, where the division rounds up to the next whole number, stays in its band", () => {
+    // (7.25⁻ − 1.15) / (7.25 − 1.15) rounds to 1 exactly; the position is the largest double below 1.
+    const v1 = below(7.25);
+    expect((v1 - 1.15) / (7.25 - 1.15)).toBe(1);
+    expect(bandPosition(v1, [1.15, 7.25, 7.51])).toBe(1 - 2 ** -53);
+    // In the second band the sum 1 + fraction rounds up to 2; the position is the largest double below 2.
+    const v2 = below(15.32);
+    expect(1 + (v2 - 6.71) / (15.32 - 6.71)).toBe(2);
+    expect(bandPosition(v2, [2.25, 6.71, 15.32])).toBe(2 - 2 ** -52);
+    expect(bandIndex(v2, [2.25, 6.71, 15.32])).toBe(2);
+  });
+  it("a value just below the first limit has a negative position even where the division underflows to 0", () => {
+    expect(-Number.MIN_VALUE / 1e10).toBe(-0);
+    expect(bandPosition(-Number.MIN_VALUE, [0, 1e10])).toBe(-Number.MIN_VALUE);
+  });
+  it("a position too large to represent says so", () => {
+    expect(message(() => bandPosition(1e10, [0, 1e-300]))).toBe("the band position cannot be computed for these inputs (result is not finite)");
   });
 });

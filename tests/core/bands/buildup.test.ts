@@ -6,7 +6,7 @@
  */
 import fc from "fast-check";
 import { buildupRate, BUILDUP_DEFAULT_YEARS } from "../../../src/core/bands/buildup";
-import { errorCode as code } from "../../helpers/errors";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 
 describe("buildupRate", () => {
@@ -33,6 +33,21 @@ describe("buildupRate", () => {
     expect(code(() => buildupRate(10, 15, 0))).toBe("OUT_OF_RANGE");
     expect(code(() => buildupRate(10, 15, 20, 0))).toBe("OUT_OF_RANGE");
     expect(code(() => buildupRate(10, 15, 20, -2))).toBe("OUT_OF_RANGE");
+  });
+});
+
+describe("refusals name the argument (the code's own messages)", () => {
+  it.each([
+    ["soil_test", () => buildupRate(-1, 15, 20), "soil_test must be at least 0 (got -1)"],
+    ["target", () => buildupRate(10, -15, 20), "target must be at least 0 (got -15)"],
+    ["buffer_factor", () => buildupRate(10, 15, 0), "buffer_factor must be greater than 0 (got 0)"],
+    ["years", () => buildupRate(10, 15, 20, 0), "years must be greater than 0 (got 0)"],
+  ])("%s", (_, call, text) => {
+    expect(message(call)).toBe(text);
+  });
+  it("a rate too large to represent says so, not Infinity", () => {
+    expect(code(() => buildupRate(0, 1e308, 1e308))).toBe("OUT_OF_RANGE");
+    expect(message(() => buildupRate(0, 1e308, 1e308))).toBe("the build-up rate cannot be computed for these inputs (result is not finite)");
   });
 });
 

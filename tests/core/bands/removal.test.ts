@@ -4,7 +4,8 @@
  */
 import fc from "fast-check";
 import { removalAmount, removalBushelWeight, removalCoefficient, removalCrops, removalTables, REMOVAL_ROWS } from "../../../src/core/bands/removal";
-import { errorCode as code } from "../../helpers/errors";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
+import { FORM_IDS } from "../../../src/core/chemistry";
 
 
 const mid = (c: number | readonly number[]) => (typeof c === "number" ? c : ((c[0] as number) + (c[1] as number)) / 2);
@@ -147,7 +148,50 @@ describe("refusals", () => {
   });
 });
 
+describe("refusals name the argument and the words to use (the code's own messages)", () => {
+  const crops = "corn, soybean, wheat, barley, oats, rye, dry bean, canola, oilseed rape, peas, faba bean, grass hay, grass silage, maize silage, potatoes, sugar beet, lucerne hay or oaten hay";
+  it("an unknown crop, for the coefficient and for the bushel weight", () => {
+    expect(message(() => removalCoefficient("quinoa", "N"))).toBe(`unknown crop "quinoa"; use ${crops}`);
+    expect(message(() => removalBushelWeight("quinoa"))).toBe(`unknown crop "quinoa"; use ${crops}`);
+  });
+  it("an unknown nutrient word", () => {
+    expect(message(() => removalCoefficient("corn", "phosphoric acid"))).toBe('unknown nutrient "phosphoric acid"; use N, P, P2O5, K, K2O, S, SO3, SO4, Ca, CaO, Mg or MgO');
+  });
+  it("a crop without a bushel weight lists the crops that have one and the units to use instead", () => {
+    expect(message(() => removalBushelWeight("grass hay"))).toBe(
+      "no bushel weight is held for grass hay (bushel weights exist for corn, soybean, wheat, barley, oats, rye, canola, dry bean or peas); give the yield in kg/ha, t/ha, g/m2, lb/ac, ton/ac",
+    );
+  });
+  it("a negative yield and a result unit that is not a rate per area", () => {
+    expect(message(() => removalAmount("corn", -1, "P", "t/ha"))).toBe("yield must be at least 0 (got -1)");
+    expect(message(() => removalAmount("corn", 10, "P", "t/ha", "mg/kg"))).toBe('rate_unit "mg/kg" is not accepted here; use kg/ha, t/ha, g/m2, lb/ac, ton/ac');
+  });
+  it("a yield too large to convert says so, not Infinity", () => {
+    expect(code(() => removalAmount("corn", 1e306, "P2O5", "t/ha"))).toBe("OUT_OF_RANGE");
+    expect(message(() => removalAmount("corn", 1e306, "P2O5", "t/ha"))).toMatch(/cannot be computed for these inputs \(result is not finite\)$/);
+  });
+});
+
 describe("data integrity and properties", () => {
+  it("every coefficient is keyed by a form the chemistry knows, and every nutrient word reads for every crop or is #N/A", () => {
+    // removalCoefficient skips a key of another element by formFactor's UNIT_MISMATCH; any other
+    // refusal there would be a data error.
+    const words = ["N", "P", "P2O5", "K", "K2O", "S", "SO3", "SO4", "Ca", "CaO", "Mg", "MgO"];
+    for (const r of REMOVAL_ROWS) {
+      for (const [key, c] of Object.entries(r.kg_per_t)) {
+        expect(FORM_IDS).toContain(key);
+        expect(Number.isFinite(mid(c))).toBe(true);
+      }
+      for (const w of words) expect([undefined, "NO_REFERENCE_DATA"]).toContain(code(() => removalCoefficient(r.id, w)));
+    }
+  });
+  it("each crop's status says where its source was seen", () => {
+    for (const t of removalTables()) {
+      const row = REMOVAL_ROWS.find((r) => r.id === t.crop)!;
+      expect(t.status).toBe(`${row.status}; ${row.seen_at}`);
+    }
+    expect(removalTables()[0]!.status).toMatch(/^seen; https:\/\//);
+  });
   it("every crop row has a source, a basis and at least one coefficient; ranges are low-high", () => {
     for (const r of REMOVAL_ROWS) {
       expect(r.source.length).toBeGreaterThan(20);
