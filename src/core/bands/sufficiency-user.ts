@@ -39,20 +39,27 @@ function text(c: unknown): string {
   return typeof c === "string" ? c.trim() : typeof c === "number" ? String(c) : "";
 }
 
-/** A word's matching key: the canonical id where the vocabulary knows it, else the normalised word. */
-function keyOf(word: string, table: { has(w: string): boolean; lookup(w: string, what: string): string }): string {
-  if (word === "" || normaliseWord(word) === "any") return "";
-  return table.has(word) ? normaliseWord(table.lookup(word, "")) : normaliseWord(word);
+/**
+ * A word's matching key: "" (any) for an omitted word, a blank or "any"; the canonical id where the
+ * vocabulary knows the word; else the normalised word.
+ */
+function keyOf(word: string | undefined, table: { has(w: string): boolean; lookup(w: string, what: string): string }): string {
+  // Stryker disable next-line StringLiteral: equivalent: any other key for an omitted word has spaces, so no row key (normalised, spaceless) equals it, and a row keyed "" fits it either way
+  if (word === undefined) return "";
+  const key = normaliseWord(word);
+  if (key === "any") return "";
+  // Stryker disable next-line StringLiteral: equivalent: has() was checked, so lookup never throws and its word for the message is never shown
+  return table.has(word) ? normaliseWord(table.lookup(word, "")) : key;
 }
 
 export function nutrientKey(word: string): string {
   return keyOf(word, NUTRIENTS);
 }
 export function methodKey(word: string | undefined): string {
-  return keyOf(word ?? "", METHODS);
+  return keyOf(word, METHODS);
 }
 export function cropKey(word: string | undefined): string {
-  return keyOf(word ?? "", CROPS);
+  return keyOf(word, CROPS);
 }
 
 const cache = new WeakMap<object, readonly UserRow[]>();
@@ -65,6 +72,7 @@ const cache = new WeakMap<object, readonly UserRow[]>();
  */
 export function userTable(range: CellGrid): readonly UserRow[] {
   const cached = cache.get(range);
+  // Stryker disable next-line ConditionalExpression: equivalent: the cache only saves parsing again; a range parsed again gives the same rows
   if (cached) return cached;
   const rows: UserRow[] = [];
   range.forEach((cells, i) => {
@@ -72,6 +80,7 @@ export function userTable(range: CellGrid): readonly UserRow[] {
     if (cells.every(isBlank)) return;
     if (i === 0 && normaliseWord(text(cells[0])) === "nutrient") return;
     let end = cells.length;
+    // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: a row of blanks returned above, so a cell that is not blank stops the loop before end reaches 0
     while (end > 0 && isBlank(cells[end - 1])) end--;
     const [nut, meth, crop] = [text(cells[0]), text(cells[1]), text(cells[2])];
     if (nut === "") throw new SoilError("MISSING_INPUT", `row ${n} of the table has no nutrient in its first cell`);
@@ -92,8 +101,9 @@ export function userTable(range: CellGrid): readonly UserRow[] {
         }
         labels.push(c.trim());
       } else {
-        if (typeof c === "number" && Number.isFinite(c)) limits.push(c);
-        else if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) limits.push(Number(c.trim()));
+        // Number.isFinite is true only for a finite number (it converts nothing); Number() ignores the spaces the test allows.
+        if (Number.isFinite(c)) limits.push(c as number);
+        else if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) limits.push(Number(c));
         else throw new SoilError("NOT_A_NUMBER", `row ${n}, column ${col} of the table should be a limit (a number), got ${isBlank(c) ? "a blank" : `"${String(c)}"`}`);
         const k = limits.length - 1;
         if (k > 0 && !(limits[k]! > limits[k - 1]!)) {
@@ -127,15 +137,15 @@ export function userRowFor(rows: readonly UserRow[], nutrient: string, method: s
   const m = methodKey(method);
   const c = cropKey(crop);
   const fits = rows.filter((r) => r.nutrient === n && (r.method === "" || r.method === m) && (r.crop === "" || r.crop === c));
+  const asked = `${nutrient} ${method ?? "(no method)"} (${crop ?? "no crop"})`;
   if (fits.length === 0) {
-    const asked = `${nutrient} ${method ?? "(no method)"} (${crop ?? "no crop"})`;
     throw new SoilError("NO_REFERENCE_DATA", `the table has no row for ${asked}; its rows are ${rows.map((r) => r.shown).join("; ")}`);
   }
   const score = (r: UserRow) => (r.method === "" ? 0 : 2) + (r.crop === "" ? 0 : 1);
   const best = Math.max(...fits.map(score));
   const top = fits.filter((r) => score(r) === best);
   if (top.length > 1) {
-    throw new SoilError("NOT_APPLICABLE", `rows ${top.map((r) => r.row).join(" and ")} of the table both fit ${nutrient} ${method ?? ""} ${crop ?? ""}; keep one`);
+    throw new SoilError("NOT_APPLICABLE", `rows ${top.map((r) => r.row).join(" and ")} of the table both fit ${asked}; keep one`);
   }
   return top[0]!;
 }

@@ -4,8 +4,8 @@
  * integrity of every table file. Each check names its source (the same source the table row
  * carries) and how it was seen.
  */
-import { sufficiencyBand, sufficiencyTableId, sufficiencyTables, SUFFICIENCY_ROWS } from "../../../src/core/bands/sufficiency";
-import { readCrop } from "../../../src/core/bands/sufficiency-rows";
+import { sufficiencyBand, sufficiencyTableId, sufficiencyTables, SUFFICIENCY_ROWS, SufficiencyRow } from "../../../src/core/bands/sufficiency";
+import { knownCombinations, readCrop } from "../../../src/core/bands/sufficiency-rows";
 import { errorCode as code, errorMessage } from "../../helpers/errors";
 
 /** The crop argument that reaches a row: its rotation, its first crop, or none. */
@@ -556,5 +556,266 @@ describe("every table file", () => {
     for (const t of list) expect(t.nutrient && t.method && t.crop && t.unit && t.source && t.edgeRule).toBeTruthy();
     expect(list.find((t) => t.id === "tristate2020-m3-k-cec-5-or-less")!.cec).toBe("CEC ≤ 5 cmol(+)/kg");
     expect(list.find((t) => t.id === "tristate2020-m3-p-wheat-alfalfa")!.covers).toBe("rotation including wheat or alfalfa");
+  });
+});
+
+describe("messages: a refusal says why, in words", () => {
+  // These check the code's own wording (a refusal's reason, a boundary): no published value.
+  const M3_P = "P Mehlich-3 (rotation of corn and soybean only; mg/kg); P Mehlich-3 (rotation including wheat or alfalfa; mg/kg)";
+  const BRAY = "P Bray-1 (rotation of corn and soybean only; mg/kg); P Bray-1 (rotation including wheat or alfalfa; mg/kg); P Bray-1 (pasture; 0-10 cm; mg/kg)";
+  const K_M3 = "K Mehlich-3 (corn, soybean, wheat, alfalfa; CEC ≤ 5 cmol(+)/kg; mg/kg); K Mehlich-3 (corn, soybean, wheat, alfalfa; CEC > 5 cmol(+)/kg; mg/kg)";
+  const U = undefined;
+  it.each<[string, () => unknown, string, string]>([
+    ["cec must be above 0", () => sufficiencyBand("K", 110, "corn", "Mehlich-3", 0), "OUT_OF_RANGE", "cec must be greater than 0 cmol(+)/kg (got 0 cmol(+)/kg)"],
+    [
+      "a unit that is not a soil-test basis, named as typed but trimmed",
+      () => sufficiencyBand("P", 20, U, "Bray-1", U, U, " lb/ac "),
+      "UNIT_MISMATCH",
+      'unit "lb/ac" is not a soil-test or tissue basis: the tables are per kg of soil or dry matter (mg/kg, %) or per litre of soil (mg/dm3); convert the value first (SOIL.CONVERT, or SOIL.MGKG for a charge)',
+    ],
+    [
+      "no table in the value's basis",
+      () => sufficiencyBand("P", 20, U, "Bray-1", U, U, "mg/dm3"),
+      "NO_REFERENCE_DATA",
+      `no P Bray-1 table in mg/dm3: the tables are in "mg/kg" (P Bray-1 (any crop; mg/kg); ${BRAY}); convert the value first (SOIL.CONVERT; per kg to per litre of soil needs the bulk density), or pass your own table`,
+    ],
+    [
+      "the depth is needed",
+      () => sufficiencyBand("P", 13, "pasture", "Bray-1"),
+      "MISSING_INPUT",
+      "depth_cm is needed: the P Bray-1 levels are for a 0-10 cm sample (P Bray-1 (pasture; 0-10 cm; mg/kg)); give the depth of the sampled layer in cm (10 for a 0-10 cm core): a value from another depth must not be read against them",
+    ],
+    [
+      "no table for the depth given",
+      () => sufficiencyBand("P", 13, "pasture", "Bray-1", U, U, U, 15),
+      "NO_REFERENCE_DATA",
+      "no P Bray-1 table for a 0-15 cm sample: the tables are for a 0-10 cm sample (P Bray-1 (pasture; 0-10 cm; mg/kg))",
+    ],
+    ["cec is needed", () => sufficiencyBand("K", 150, "corn", "Mehlich-3"), "MISSING_INPUT", `cec is needed: the K Mehlich-3 levels depend on CEC (${K_M3})`],
+    [
+      "one crop where the levels depend on the rotation",
+      () => sufficiencyBand("P", 18, "corn", "Bray-1"),
+      "MISSING_INPUT",
+      'the P Bray-1 levels depend on the whole rotation, not the crop grown (P Bray-1 (rotation of corn and soybean only; mg/kg); P Bray-1 (rotation including wheat or alfalfa; mg/kg)): pass the rotation as crop, the crops joined by "-": corn-soybean, corn-soybean-wheat (a crop grown every year: corn-corn)',
+    ],
+    ["a rotation with a crop the rotation tables leave out", () => sufficiencyBand("P", 25, "corn-soybean-canola", "Mehlich-3"), "NO_REFERENCE_DATA", `no P Mehlich-3 table for a rotation with canola; tables exist for ${M3_P}`],
+    ["the same, one crop named of three", () => sufficiencyBand("P", 25, "corn-pasture-canola", "Bray-1"), "NO_REFERENCE_DATA", `no P Bray-1 table for a rotation with canola; tables exist for ${BRAY}`],
+    ["each crop has a table, none covers the rotation", () => sufficiencyBand("P", 25, "pasture-corn", "Bray-1"), "NO_REFERENCE_DATA", `no P Bray-1 table for the rotation pasture-corn; tables exist for ${BRAY}`],
+    [
+      "a rotation of crops with tables of their own, where the tables are for the crop grown",
+      () => sufficiencyBand("P", 25, "pasture-barley", "Bray-1"),
+      "MISSING_INPUT",
+      `the P Bray-1 tables are for the crop grown, and pasture-barley names crops with different tables: give the one crop (${BRAY})`,
+    ],
+    ["an unknown nutrient", () => sufficiencyBand("Px", 20, "corn", "Bray-1"), "UNKNOWN_NAME", 'unknown nutrient "Px"; use N, P, K, Ca, Mg, S, B, Cu, Fe, Mn, Mo or Zn'],
+    ["an unknown method", () => sufficiencyBand("P", 20, "corn", "Truog"), "UNKNOWN_NAME", 'unknown method "Truog"; use Bray-1, Mehlich-3, Olsen, Colwell, KCl-40, DTPA, hot CaCl2, ammonium acetate or tissue'],
+    [
+      "no table in the unit given for the crop, the other unit's named",
+      () => sufficiencyBand("P", 13, "wheat", "Olsen", U, U, "mg/kg"),
+      "NO_REFERENCE_DATA",
+      "no P Olsen table in mg/kg for wheat; tables exist for P Olsen (pasture; 0-10 cm; mg/kg); in another unit: P Olsen (any crop; mg/dm3) (convert the value first: SOIL.CONVERT, which needs the bulk density between per-kg and per-litre values)",
+    ],
+    ["no table for the crop", () => sufficiencyBand("P", 30, "barley", "Colwell"), "NO_REFERENCE_DATA", "no P Colwell table for barley; tables exist for P Colwell (wheat; mg/kg); P Colwell (canola; mg/kg)"],
+    ["the crop is needed", () => sufficiencyBand("P", 25, U, "Mehlich-3"), "MISSING_INPUT", `crop is needed: P Mehlich-3 tables are crop-specific (${M3_P})`],
+    [
+      "several tables fit: their ids, with the sampling that tells them apart",
+      () => sufficiencyBand("S", 0.15, "subclover", "tissue"),
+      "MISSING_INPUT",
+      'several S tissue tables fit; name one as table: "jones1980-subclover-tissue-s-60d" (three youngest fully expanded leaves, 60 days from planting), "jones1980-subclover-tissue-s-133d" (three youngest fully expanded leaves, 133 days from planting)',
+    ],
+    [
+      "an unknown table id, trimmed, with where the ids are listed",
+      () => sufficiencyBand("P", 38, "wheat", "Colwell", U, " nosuch "),
+      "UNKNOWN_NAME",
+      `no built-in sufficiency table "nosuch"; the ids are listed by soilcell list (e.g. ${SUFFICIENCY_ROWS.slice(0, 3)
+        .map((r) => r.id)
+        .join(", ")}), or pass your own table as a range`,
+    ],
+    ["a named table: an unknown nutrient", () => sufficiencyBand("Px", 38, U, U, U, "grdc2020-colwell-p-wheat"), "UNKNOWN_NAME", 'unknown nutrient "Px"; use N, P, K, Ca, Mg, S, B, Cu, Fe, Mn, Mo or Zn'],
+    ["a named table: another nutrient", () => sufficiencyBand("K", 38, U, U, U, "grdc2020-colwell-p-wheat"), "NOT_APPLICABLE", 'table "grdc2020-colwell-p-wheat" is for P, not K'],
+    ["a named table: another method, as typed but trimmed", () => sufficiencyBand("P", 38, U, " Olsen ", U, "grdc2020-colwell-p-wheat"), "NOT_APPLICABLE", 'table "grdc2020-colwell-p-wheat" is for the Colwell method, not Olsen'],
+    ["a named table: an unknown method", () => sufficiencyBand("P", 38, U, "Truog", U, "grdc2020-colwell-p-wheat"), "UNKNOWN_NAME", 'unknown method "Truog"; use Bray-1, Mehlich-3, Olsen, Colwell, KCl-40, DTPA, hot CaCl2, ammonium acetate or tissue'],
+    ["a named table: a rotation it does not cover", () => sufficiencyBand("P", 38, "wheat-canola", "Colwell", U, "grdc2020-colwell-p-wheat"), "NOT_APPLICABLE", 'table "grdc2020-colwell-p-wheat" is for wheat, not wheat-canola'],
+    ["a named table: cec is needed", () => sufficiencyBand("K", 110, "corn", "Mehlich-3", U, "tristate2020-m3-k-cec-5-or-less"), "MISSING_INPUT", 'cec is needed: table "tristate2020-m3-k-cec-5-or-less" is for CEC ≤ 5 cmol(+)/kg'],
+    ["a named table: a CEC outside it", () => sufficiencyBand("K", 110, "corn", "Mehlich-3", 15, "tristate2020-m3-k-cec-5-or-less"), "NOT_APPLICABLE", 'table "tristate2020-m3-k-cec-5-or-less" is for CEC ≤ 5 cmol(+)/kg, not CEC 15'],
+    [
+      "a named table: another basis",
+      () => sufficiencyBand("P", 13, U, "Olsen", U, "ni2019-olsen-p-index", "mg/kg"),
+      "NOT_APPLICABLE",
+      'table "ni2019-olsen-p-index" is in mg/dm3, not mg/kg: convert the value first (SOIL.CONVERT; per kg to per litre of soil needs the bulk density)',
+    ],
+    ["a named table: another depth", () => sufficiencyBand("S", 7.2, "canola", "KCl-40", U, "anderson2013-kcl40-s-canola", U, 10), "NOT_APPLICABLE", 'table "anderson2013-kcl40-s-canola" is for a 0-30 cm sample, not 0-10 cm'],
+    ["one number where a table is expected", () => sufficiencyBand("P", 38, "wheat", "Colwell", U, [[42]]), "NOT_APPLICABLE", "table must be a built-in table id or a range holding your table, not the single value 42"],
+    [
+      "a column of one-cell rows is a table, not a table id",
+      () => sufficiencyBand("P", 38, "wheat", "Colwell", U, [["grdc2020-colwell-p-wheat"], [null]]),
+      "MISSING_INPUT",
+      "row 1 of the table needs band, limit, band, … after nutrient, method and crop: labels and limits alternating, starting and ending with a label (got 0 cells)",
+    ],
+    ["a negative value in a unit, named in that unit", () => sufficiencyBand("N", -1, "alfalfa", "tissue", U, U, "g/kg"), "OUT_OF_RANGE", "value must be at least 0 g/kg (got -1 g/kg)"],
+    ["a percentage above 100, refused before it is converted", () => sufficiencyBand("B", 150, "alfalfa", "tissue", U, U, "%"), "OUT_OF_RANGE", "value must be from 0 to 100 % (got 150 %)"],
+    ["a negative value in the table's unit", () => sufficiencyBand("N", -1, "alfalfa", "tissue"), "OUT_OF_RANGE", "value must be from 0 to 100 % (got -1 %)"],
+    [
+      "a value at the top of a closed scale",
+      () => sufficiencyBand("P", 71, U, "Olsen", U, U, "mg/dm3"),
+      "NO_REFERENCE_DATA",
+      "71 mg/dm3 is above the published scale of P Olsen (any crop; mg/dm3), which ends below 71 mg/dm3",
+    ],
+    [
+      "a unit or depth with your own table",
+      () => sufficiencyBand("Cl", 1, U, "water", U, [["Cl", "water", "", "Low", 20, "High"]], "mg/kg"),
+      "NOT_APPLICABLE",
+      "unit and depth_cm are for the built-in tables: your own table is read in its own unit and depth, so leave them blank",
+    ],
+    ["a negative value with your own table", () => sufficiencyBand("Cl", -1, U, "water", U, [["Cl", "water", "", "Low", 20, "High"]]), "OUT_OF_RANGE", "value must be at least 0 (got -1)"],
+  ])("%s", (_, f, c, message) => {
+    expect([code(f), errorMessage(f)]).toEqual([c, message]);
+  });
+  it("a value on a limit the source leaves unclassified names the table and its edge rule", () => {
+    const mn = SUFFICIENCY_ROWS.find((r) => r.id === "havlin1999-dtpa-mn")!;
+    expect(errorMessage(() => sufficiencyBand("Mn", 1, undefined, "DTPA"))).toBe(`1 mg/kg is not classified by table "havlin1999-dtpa-mn": ${mn.edge_rule}`);
+  });
+  it("an unknown or ambiguous unit word is refused naming it as the unit; a blank one is no unit", () => {
+    expect(errorMessage(() => sufficiencyBand("P", 20, undefined, "Bray-1", undefined, undefined, "furlong"))).toMatch(/^unknown unit "furlong"; use mg\/kg, /);
+    expect(errorMessage(() => sufficiencyBand("P", 13, undefined, "Olsen", undefined, undefined, " mg/L "))).toMatch(/^unit "mg\/L" is usually the concentration of an extract/);
+    // Source: SARE Table 21.2 (as above): 20 ppm Bray-1 P is Optimum.
+    expect(sufficiencyBand("P", 20, undefined, "Bray-1", undefined, undefined, "   ")).toBe("Optimum");
+  });
+  it("a blank method is no method", () => {
+    expect(code(() => sufficiencyBand("P", 20, "corn", "   "))).toBe("MISSING_INPUT");
+    expect(errorMessage(() => sufficiencyBand("P", 20, "corn", "   "))).toMatch(/^method is needed: P tables exist for Bray-1, /);
+  });
+});
+
+describe("choice and naming edges", () => {
+  // Bands from the sources named above: SARE Table 21.2 (Bray-1 P), GRDC Update 2020 (Colwell P
+  // wheat 35 to 42), Bull. 974 via OSU (Mehlich-3 P rotations).
+  it("a rotation of crops that no table names reads the crop-independent table", () => {
+    expect(sufficiencyTableId("P", "barley-oats", "Bray-1")).toBe("sare-bray1-p");
+  });
+  it("a rotation one crop of which a rotation table covers is not read against that table", () => {
+    expect(code(() => sufficiencyTableId("P", "wheat-canola", "Mehlich-3"))).toBe("NO_REFERENCE_DATA");
+  });
+  it("a blank table id reads the table the other arguments choose", () => {
+    expect(sufficiencyBand("P", 20, undefined, "Bray-1", undefined, "  ")).toBe("Optimum");
+    expect(sufficiencyBand("P", 20, undefined, "Bray-1", undefined, "")).toBe("Optimum");
+    expect(sufficiencyBand("P", 20, undefined, "Bray-1", undefined, [[" "]])).toBe("Optimum");
+  });
+  it("a named table with a blank method, and a depth where its source states none", () => {
+    expect(sufficiencyBand("P", 38, "wheat", "  ", undefined, "grdc2020-colwell-p-wheat")).toMatch(/^Critical range/);
+    expect(sufficiencyBand("P", 38, "wheat", "Colwell", undefined, "grdc2020-colwell-p-wheat", undefined, 10)).toMatch(/^Critical range/);
+  });
+  it("sufficiencyTables: crops joined, no reason when the table can be chosen, status with where it was seen", () => {
+    const list = sufficiencyTables();
+    const k = list.find((t) => t.id === "tristate2020-m3-k-cec-above-5")!;
+    const row = SUFFICIENCY_ROWS.find((r) => r.id === k.id)!;
+    expect(k.crop).toBe("corn, soybean, wheat, alfalfa");
+    expect(k.cec).toBe("CEC > 5 cmol(+)/kg");
+    expect(k.onlyById).toBe("");
+    expect(k.status).toBe(`${row.status}; ${row.seen_at}`);
+    expect(list.find((t) => t.id === "tristate1995-bray1-p-corn-soybean")!.covers).toBe("rotation of corn and soybean only");
+  });
+});
+
+describe("choice rules on invented tables (no table held today has these shapes)", () => {
+  // Every row here is invented to reach a rule the held tables do not: its limits, labels and
+  // conditions are nobody's. The held tables are put back after each check.
+  const ROWS = SUFFICIENCY_ROWS as SufficiencyRow[];
+  const invented = (r: Partial<SufficiencyRow> & { id: string }): SufficiencyRow => ({
+    nutrient: "Mo",
+    method: "DTPA",
+    crops: ["any"],
+    unit: "mg/kg",
+    limits: [1],
+    at_limit: ["above"],
+    edge_rule: "invented for a check of the choice rules",
+    labels: ["Low", "High"],
+    source: "invented, no source",
+    seen_at: "-",
+    status: "invented",
+    ...r,
+  });
+  /** Runs f with the held tables edited, then puts them back. */
+  function withTables<T>(edit: (rows: SufficiencyRow[]) => SufficiencyRow[], f: () => T): T {
+    const held = [...ROWS];
+    ROWS.splice(0, ROWS.length, ...edit(held));
+    try {
+      return f();
+    } finally {
+      ROWS.splice(0, ROWS.length, ...held);
+    }
+  }
+  const adding = (...rows: SufficiencyRow[]) => (held: SufficiencyRow[]) => [...held, ...rows];
+  /** The table id chosen, or the refusal as "CODE: message". */
+  const outcome = (f: () => string) => {
+    try {
+      return f();
+    } catch (e) {
+      return `${(e as { code?: string }).code}: ${(e as Error).message}`;
+    }
+  };
+  const id = (crop?: string, cec?: number, unit?: string, depth?: number) => outcome(() => sufficiencyTableId("Mo", crop, "DTPA", cec, undefined, unit, depth));
+
+  it("tables for two depths: the depth is needed, must be one of them, and picks the table", () => {
+    const d10 = invented({ id: "inv-d10", depth: "0-10 cm", depth_cm: 10 });
+    const d30 = invented({ id: "inv-d30", depth: "0-30 cm", depth_cm: 30 });
+    const both = "Mo DTPA (any crop; 0-10 cm; mg/kg); Mo DTPA (any crop; 0-30 cm; mg/kg)";
+    withTables(adding(d10, d30), () => {
+      expect(id()).toBe(
+        `MISSING_INPUT: depth_cm is needed: the Mo DTPA levels are for a 0-10 cm or 0-30 cm sample (${both}); give the depth of the sampled layer in cm (10 for a 0-10 cm core): a value from another depth must not be read against them`,
+      );
+      expect(id(undefined, undefined, undefined, 20)).toBe(`NO_REFERENCE_DATA: no Mo DTPA table for a 0-20 cm sample: the tables are for a 0-10 cm or 0-30 cm sample (${both})`);
+      expect(id(undefined, undefined, undefined, 30)).toBe("inv-d30");
+    });
+  });
+  it("a table with a depth beside one without: any depth reads the one without, its own depth both", () => {
+    const d10 = invented({ id: "inv-d10", depth: "0-10 cm", depth_cm: 10 });
+    const open = invented({ id: "inv-open", stage: "any depth" });
+    withTables(adding(d10, open), () => {
+      expect(id(undefined, undefined, undefined, 20)).toBe("inv-open");
+      expect(id(undefined, undefined, undefined, 10)).toMatch(/^MISSING_INPUT: several Mo DTPA tables fit; name one as table: "inv-d10" \(0-10 cm\), "inv-open" \(any depth\)$/);
+    });
+  });
+  it("a CEC table beside one without: cec is needed, and a CEC outside the condition reads the one without", () => {
+    const sandy = invented({ id: "inv-sandy", cec: { max: 5 } });
+    const open = invented({ id: "inv-open" });
+    withTables(adding(sandy, open), () => {
+      expect(id(undefined, 10)).toBe("inv-open");
+      expect(id()).toBe("MISSING_INPUT: cec is needed: the Mo DTPA levels depend on CEC (Mo DTPA (any crop; CEC ≤ 5 cmol(+)/kg; mg/kg); Mo DTPA (any crop; mg/kg))");
+    });
+  });
+  it("CEC conditions with a gap: a CEC in it has no table", () => {
+    withTables(adding(invented({ id: "inv-low", cec: { max: 5 } }), invented({ id: "inv-high", cec: { above: 10 } })), () => {
+      expect(id(undefined, 7)).toBe("NO_REFERENCE_DATA: no Mo DTPA table covers CEC 7");
+      expect([id(undefined, 5), id(undefined, 10.5)]).toEqual(["inv-low", "inv-high"]);
+    });
+  });
+  it("a rotation table that covers the crops but not this rotation: #N/A for a rotation, the hint for one crop", () => {
+    const cs = invented({ id: "inv-cs", crops: ["corn", "soybean", "wheat"], rotation: { only: ["corn", "soybean"] } });
+    withTables(adding(cs), () => {
+      expect(id("corn-soybean")).toBe("inv-cs");
+      expect(id("corn-wheat")).toBe("NO_REFERENCE_DATA: no Mo DTPA table for the rotation corn-wheat; tables exist for Mo DTPA (rotation of corn and soybean only; mg/kg)");
+      expect(id("wheat")).toMatch(/^MISSING_INPUT: the Mo DTPA levels depend on the whole rotation, not the crop grown \(Mo DTPA \(rotation of corn and soybean only; mg\/kg\)\): pass the rotation/);
+    });
+  });
+  it("several tables fit that no sampling tells apart: their ids, with what they cover", () => {
+    withTables(adding(invented({ id: "inv-a" }), invented({ id: "inv-b" })), () => {
+      expect(id()).toBe('MISSING_INPUT: several Mo DTPA tables fit; name one as table: "inv-a" (any crop), "inv-b" (any crop)');
+    });
+  });
+  it("a nutrient with no table at all: #N/A pointing to your own table, listing the tables held", () => {
+    withTables(
+      (held) => held.filter((r) => r.nutrient !== "Mo"),
+      () => {
+        expect(outcome(() => sufficiencyBand("Mo", 1, "soybean", "tissue"))).toBe(
+          `NO_REFERENCE_DATA: no built-in table for Mo; pass your own as table (nutrient | method | crop | band | limit | band …). Tables exist for ${knownCombinations(SUFFICIENCY_ROWS)}`,
+        );
+      },
+    );
+  });
+  it("a table in a unit word that is not a soil basis is refused, naming it as the unit, not read", () => {
+    withTables(adding(invented({ id: "inv-mgl", unit: "mg/L" })), () => {
+      expect(id(undefined, undefined, "mg/kg")).toMatch(/^UNIT_MISMATCH: unit "mg\/L" is usually the concentration of an extract/);
+    });
   });
 });
