@@ -80,7 +80,9 @@ function bandLimits(input: ListInput<number | string | boolean | null>): readonl
     }
     if (typeof c === "string") {
       const t = c.trim();
-      if (NUMERIC_TEXT.test(t)) return Number(t);
+      // Text such as "1e999" reads as Infinity: refused like an infinite number, never a limit.
+      if (NUMERIC_TEXT.test(t) && Number.isFinite(Number(t))) return Number(t);
+      if (NUMERIC_TEXT.test(t)) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} ("${c}") is not a finite number`);
     }
     throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} (${typeof c === "string" ? `"${c}"` : String(c)}) is not a number`);
   });

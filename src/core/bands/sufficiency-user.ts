@@ -103,7 +103,8 @@ export function userTable(range: CellGrid): readonly UserRow[] {
       } else {
         // Number.isFinite is true only for a finite number (it converts nothing); Number() ignores the spaces the test allows.
         if (Number.isFinite(c)) limits.push(c as number);
-        else if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) limits.push(Number(c));
+        // Text such as "1e999" reads as Infinity, which is no limit: refused below.
+        else if (typeof c === "string" && NUMERIC_TEXT.test(c.trim()) && Number.isFinite(Number(c))) limits.push(Number(c));
         else throw new SoilError("NOT_A_NUMBER", `row ${n}, column ${col} of the table should be a limit (a number), got ${isBlank(c) ? "a blank" : `"${String(c)}"`}`);
         const k = limits.length - 1;
         if (k > 0 && !(limits[k]! > limits[k - 1]!)) {

@@ -379,3 +379,12 @@ describe("bandPosition: the rounding guards (derived from binary floating point)
     expect(message(() => bandPosition(1e10, [0, 1e-300]))).toBe("the band position cannot be computed for these inputs (result is not finite)");
   });
 });
+
+describe("a limit typed as text beyond the floating-point range", () => {
+  it('"1e999" (Infinity once read) is refused, never taken as a limit', () => {
+    expect(code(() => bandIndex(5, [1, "1e999"]))).toBe("NOT_A_NUMBER");
+    expect(message(() => bandIndex(5, [1, "1e999"]))).toContain('limit 2 ("1e999") is not a finite number');
+    expect(message(() => bandIndex(5, [1, "-1e999"]))).toContain('limit 2 ("-1e999") is not a finite number');
+    expect(bandIndex(5, [1, "1e300"])).toBe(1);
+  });
+});

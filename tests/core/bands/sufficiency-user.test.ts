@@ -155,3 +155,10 @@ describe("the row that fits a nutrient, method and crop", () => {
     expect(errorMessage(() => userRowFor(t, "K", undefined, undefined))).toBe("rows 2 and 4 of the table both fit K (no method) (no crop); keep one");
   });
 });
+
+describe("a limit typed as text beyond the floating-point range", () => {
+  it('"1e999" (Infinity once read) is refused, never taken as a limit', () => {
+    expect(refusal(scaleRow("Low", "1e999", "High"))).toEqual(["NOT_A_NUMBER", 'row 1, column 5 of the table should be a limit (a number), got "1e999"']);
+    expect(userTable(scaleRow("Low", "1e300", "High"))[0]!.limits).toEqual([1e300]);
+  });
+});
