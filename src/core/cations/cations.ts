@@ -412,8 +412,9 @@ export function cecSaturationColumn(
     const d = D[i] as number;
     const h = H[i] as number;
     const m = M[i] as number;
-    // The checks cecSaturation makes: cations and acidity (0 when absent) finite and not negative, a measured CEC above 0.
-    if (!(usable(a) && usable(b) && usable(c) && usable(d) && usable(h) && (!hasCec || (m > 0 && m < Infinity)))) {
+    // The checks cecSaturation makes: cations and acidity (0 when absent) finite and not negative, a measured CEC
+    // above 0 (an infinite one is caught with the denominator below).
+    if (!(usable(a) && usable(b) && usable(c) && usable(d) && usable(h) && (!hasCec || m > 0))) {
       fallback(out, i, scalar(i));
       continue;
     }
