@@ -62,6 +62,7 @@ function cationUnit(unitWord: string | undefined): UnitDef {
 export function cecChargeOf(value: number, ion: BaseCation, unitWord: string | undefined, bulkDensity?: number, argName?: string): number {
   const unit = cationUnit(unitWord);
   check(value, { name: argName ?? ion.toLowerCase(), unit: unit.id, min: 0 });
+  // Stryker disable next-line StringLiteral: equivalent: the charge units' factors (1 and 0.1 in units.json) cannot overflow a finite value; the check stays for a larger unit added there
   if (unit.family === "charge") return finite(value * unit.toBase, `${ion} in cmol(+)/kg`);
   const mgKg = unit.family === "per_volume" ? convertUnit(value, unit.id, "mg/kg", { bulkDensity }) : value * unit.toBase;
   return finite(mgKg / mgPerCmol(ion), `${ion} in cmol(+)/kg`);
@@ -178,7 +179,8 @@ export function cecSaturation(
   if (cec !== undefined) {
     denominator = check(cec, BOUNDS.positive("cec", "cmol(+)/kg"));
   } else {
-    denominator = sumOf(bases) + acid;
+    // Refused like cecSum's: an overflowing sum would turn every saturation into 0 %.
+    denominator = finite(sumOf(bases) + acid, "CEC");
     if (denominator === 0) {
       throw new SoilError("NOT_APPLICABLE", "all cations and acidity are 0, so the summed CEC is 0 and a saturation is undefined");
     }
@@ -269,12 +271,17 @@ const at = (x: ColumnOf, i: number): number | undefined => (typeof x === "number
 
 /** A column as a Float64Array of n (a shared value repeated), so the kernel's loop reads one kind of array. */
 function dense(x: ColumnOf, n: number): Float64Array {
+  if (x === undefined) return new Float64Array(n); // an absent acidity or cec: zeros, never read as a sample
+  if (typeof x === "number") return new Float64Array(n).fill(x);
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: only whether a column is read in place or copied first; each sample is read once either way, and one past a short column's end reads as undefined or NaN, both sent to the scalar function
   if (x instanceof Float64Array && x.length >= n) return x;
   const out = new Float64Array(n);
-  if (typeof x === "number") out.fill(x);
-  else if (x !== undefined) for (let i = 0; i < n; i++) out[i] = x[i] as number;
+  for (let i = 0; i < n; i++) out[i] = x[i] as number;
   return out;
 }
+
+/** What check() with min 0 accepts: finite and not negative (NaN is neither). */
+const usable = (x: number): boolean => x >= 0 && x < Infinity;
 
 /**
  * From the reported unit to cmol(+)/kg: value × toBase ÷ divisor per ion (divisor 1 for a charge
@@ -288,14 +295,19 @@ function chargeFactors(unitWord: string | undefined): { toBase: number; Ca: numb
   return { toBase: unit.toBase, Ca: d("Ca"), Mg: d("Mg"), K: d("K"), Na: d("Na") };
 }
 
+/** `e` if it is a refusal (SoilError); anything else is a fault, thrown on rather than kept as a sample's error. */
+function refusal(e: unknown): SoilError {
+  if (e instanceof SoilError) return e;
+  throw e;
+}
+
 /** Runs a scalar function for one sample, its SoilError kept. */
 function fallback(out: ColumnResult, i: number, f: () => number): void {
   try {
-    (out.values as Float64Array)[i] = f();
+    out.values[i] = f();
   } catch (e) {
-    if (!(e instanceof SoilError)) throw e;
+    out.errors.set(i, refusal(e));
     out.values[i] = NaN;
-    out.errors.set(i, e);
   }
 }
 
@@ -312,22 +324,21 @@ export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: Column
   try {
     f = chargeFactors(unitWord);
   } catch (e) {
-    if (!(e instanceof SoilError)) throw e;
+    const refused = refusal(e);
     out.values.fill(NaN);
-    for (let i = 0; i < n; i++) out.errors.set(i, e);
+    for (let i = 0; i < n; i++) out.errors.set(i, refused);
     return out;
   }
   if (!f) {
     for (let i = 0; i < n; i++) fallback(out, i, scalar(i));
     return out;
   }
+  // A charge unit's divisors are 1, and x / 1 is x exactly, so one formula serves both families.
   const { toBase: t, Ca, Mg, K, Na } = f;
-  const charge = Ca === 1;
   const A = dense(ca, n);
   const B = dense(mg, n);
   const C = dense(k, n);
   const D = dense(na, n);
-  const hasAcid = acidity !== undefined;
   const H = dense(acidity, n);
   const values = out.values;
   for (let i = 0; i < n; i++) {
@@ -336,12 +347,12 @@ export function cecSumColumn(ca: ColumnOf, mg: ColumnOf, k: ColumnOf, na: Column
     const c = C[i] as number;
     const d = D[i] as number;
     const h = H[i] as number;
-    // The checks cecSum makes: each cation and the acidity finite and not negative.
-    if (!(a >= 0 && a < Infinity && b >= 0 && b < Infinity && c >= 0 && c < Infinity && d >= 0 && d < Infinity && (!hasAcid || (h >= 0 && h < Infinity)))) {
+    // The checks cecSum makes: each cation and the acidity (0 when absent) finite and not negative.
+    if (!(usable(a) && usable(b) && usable(c) && usable(d) && usable(h))) {
       fallback(out, i, scalar(i));
       continue;
     }
-    const sum = charge ? a * t + b * t + c * t + d * t + h : (a * t) / Ca + (b * t) / Mg + (c * t) / K + (d * t) / Na + h;
+    const sum = (a * t) / Ca + (b * t) / Mg + (c * t) / K + (d * t) / Na + h;
     if (sum < Infinity) values[i] = sum;
     else fallback(out, i, scalar(i));
   }
@@ -375,22 +386,20 @@ export function cecSaturationColumn(
     part = PARTS.lookup(partWord, "part");
     f = chargeFactors(unitWord);
   } catch (e) {
-    if (!(e instanceof SoilError)) throw e;
+    const refused = refusal(e);
     out.values.fill(NaN);
-    for (let i = 0; i < n; i++) out.errors.set(i, e);
+    for (let i = 0; i < n; i++) out.errors.set(i, refused);
     return out;
   }
   if (!f || (part === "acidity" && acidity === undefined) || (part === "bases" && acidity === undefined && cec === undefined)) {
     for (let i = 0; i < n; i++) fallback(out, i, scalar(i));
     return out;
   }
-  const { toBase: t, Ca, Mg, K, Na } = f;
-  const charge = Ca === 1;
+  const { toBase: t, Ca, Mg, K, Na } = f; // divisors 1 for a charge unit, as in cecSumColumn
   const A = dense(ca, n);
   const B = dense(mg, n);
   const C = dense(k, n);
   const D = dense(na, n);
-  const hasAcid = acidity !== undefined;
   const H = dense(acidity, n);
   const hasCec = cec !== undefined;
   const M = dense(cec, n);
@@ -403,23 +412,25 @@ export function cecSaturationColumn(
     const d = D[i] as number;
     const h = H[i] as number;
     const m = M[i] as number;
-    // The checks cecSaturation makes: cations and acidity finite and not negative, a measured CEC above 0.
-    if (!(a >= 0 && a < Infinity && b >= 0 && b < Infinity && c >= 0 && c < Infinity && d >= 0 && d < Infinity && (!hasAcid || (h >= 0 && h < Infinity)) && (!hasCec || (m > 0 && m < Infinity)))) {
+    // The checks cecSaturation makes: cations and acidity (0 when absent) finite and not negative, a measured CEC
+    // above 0 (an infinite one is caught with the denominator below).
+    if (!(usable(a) && usable(b) && usable(c) && usable(d) && usable(h) && (!hasCec || m > 0))) {
       fallback(out, i, scalar(i));
       continue;
     }
-    const cCa = charge ? a * t : (a * t) / Ca;
-    const cMg = charge ? b * t : (b * t) / Mg;
-    const cK = charge ? c * t : (c * t) / K;
-    const cNa = charge ? d * t : (d * t) / Na;
+    const cCa = (a * t) / Ca;
+    const cMg = (b * t) / Mg;
+    const cK = (c * t) / K;
+    const cNa = (d * t) / Na;
     const bases = cCa + cMg + cK + cNa;
     const denominator = hasCec ? m : bases + h;
-    // A charge that overflows is refused by the scalar function (as each ion's charge must be finite).
-    if (!(bases < Infinity) || !(denominator > 0)) {
+    // An ion's charge that overflows, or a summed CEC that does, is refused by the scalar function.
+    if (!(bases < Infinity && denominator < Infinity)) {
       fallback(out, i, scalar(i));
       continue;
     }
     const held = which === 0 ? bases : which === 1 ? h : which === 2 ? cCa : which === 3 ? cMg : which === 4 ? cK : cNa;
+    // A summed CEC of 0 (every input 0) gives 0 / 0 = NaN here, sent to the scalar function's refusal.
     const v = (100 * held) / denominator;
     if (v < Infinity) values[i] = v;
     else fallback(out, i, scalar(i));

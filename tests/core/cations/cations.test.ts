@@ -392,3 +392,43 @@ describe("unit round trips (property; invented inputs)", () => {
     );
   });
 });
+
+describe("refusals read whole: argument, unit and what could not be computed (boundaries; invented inputs)", () => {
+  const NOT_FINITE = "cannot be computed for these inputs (result is not finite)";
+  it("an amount in g/kg or % that overflows on its way to mg/kg is refused as that ion's charge", () => {
+    expect(messageOf(() => cecChargeOf(1e305, "Ca", "%"))).toBe(`Ca in cmol(+)/kg ${NOT_FINITE}`);
+    expect(messageOf(() => cecChargeOf(1e306, "Na", "g/kg"))).toBe(`Na in cmol(+)/kg ${NOT_FINITE}`);
+    expect(cecChargeOf(1e300, "Ca", "%")).toBeCloseTo(1e304 / mgPerCmol("Ca"), -290);
+  });
+  it("negative acidity names its unit", () => {
+    expect(messageOf(() => cecSum(1, 1, 1, 1, "mg/kg", -0.1))).toBe("acidity must be at least 0 cmol(+)/kg (got -0.1 cmol(+)/kg)");
+  });
+  it("a summed CEC that overflows is refused, in cecSum and as a saturation's denominator", () => {
+    expect(messageOf(() => cecSum(1.7e308, 1.7e308, 0, 0, "cmol(+)/kg"))).toBe(`CEC ${NOT_FINITE}`);
+    // Mg is 0.56 % of this (absurd) sum; dividing by the overflowed sum gave 0 %, a wrong number.
+    expect(messageOf(() => cecSaturation("Mg", 0, 1e306, 1.79e308, 0, "cmol(+)/kg", 0))).toBe(`CEC ${NOT_FINITE}`);
+    expect(messageOf(() => cecSaturation("Ca", 1e306, 0, 0, 0, "cmol(+)/kg", 1.79e308))).toBe(`CEC ${NOT_FINITE}`);
+    // Against a measured cec the sum is not the denominator, so a part of it can still be given.
+    expect(cecSaturation("Mg", 0, 1e306, 1.79e308, 0, "cmol(+)/kg", undefined, 20)).toBeCloseTo(5e306, -300);
+  });
+  it("a measured cec must be above 0: 0 and −3 refused with the unit, the smallest positive accepted", () => {
+    expect(messageOf(() => cecSaturation("Ca", 1, 1, 1, 1, "mg/kg", 0, -3))).toBe("cec must be greater than 0 cmol(+)/kg (got -3 cmol(+)/kg)");
+    expect(messageOf(() => cecSaturation("Ca", 1, 1, 1, 1, "mg/kg", 0, 0))).toBe("cec must be greater than 0 cmol(+)/kg (got 0 cmol(+)/kg)");
+    expect(cecSaturation("Ca", 0, 1, 1, 1, "mg/kg", 0, Number.MIN_VALUE)).toBe(0);
+    expect(messageOf(() => cecEsp(1, 0, "mg/kg"))).toBe("cec must be greater than 0 cmol(+)/kg (got 0 cmol(+)/kg)");
+    expect(cecEsp(0, Number.MIN_VALUE, "mg/kg")).toBe(0);
+  });
+  it("a saturation or ESP too large for a number is refused, not returned as Infinity", () => {
+    expect(messageOf(() => cecSaturation("Ca", 1e307, 0, 0, 0, "cmol(+)/kg", undefined, 0.5))).toBe(`saturation ${NOT_FINITE}`);
+    expect(messageOf(() => cecEsp(1e307, 0.5, "cmol(+)/kg"))).toBe(`ESP ${NOT_FINITE}`);
+    expect(cecEsp(1e305, 0.5, "cmol(+)/kg")).toBeCloseTo(2e307, -300);
+  });
+  it("Ca:Mg: an unknown basis, a negative ca or mg, and a ratio too large for a number are refused whole", () => {
+    expect(messageOf(() => cecCaMgRatio(100, 10, "mg/kg", "volume"))).toBe('unknown basis "volume"; use charge or mass');
+    expect(messageOf(() => cecCaMgRatio(-1, 100, "mg/kg"))).toBe("ca must be at least 0 mg/kg (got -1 mg/kg)");
+    expect(codeOf(() => cecCaMgRatio(100, -1, "mg/kg"))).toBe("OUT_OF_RANGE");
+    expect(messageOf(() => cecCaMgRatio(100, -1, "meq/100g"))).toBe("mg must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+    expect(messageOf(() => cecCaMgRatio(1e308, 1e-308, "mg/kg", "mass"))).toBe(`Ca:Mg ratio ${NOT_FINITE}`);
+    expect(cecCaMgRatio(1e300, 1e-7, "mg/kg", "mass")).toBeCloseTo(1e307, -300);
+  });
+});

@@ -8,7 +8,7 @@
 import fc from "fast-check";
 import { cecEspFromSar } from "../../../src/core/cations/esp-sar";
 import { cecSar } from "../../../src/core/cations/sar";
-import { errorCode as code } from "../../helpers/errors";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 describe("ESP from SAR (USDA Handbook 60 regression, secondary)", () => {
   it("SAR 6.708 (Na 15, Ca 6, Mg 4 mmolc/L) gives ESR 0.0863 and ESP 7.95 % (derived; published-values CEC-10, CEC-13)", () => {
@@ -29,6 +29,12 @@ describe("ESP from SAR (USDA Handbook 60 regression, secondary)", () => {
   it("a negative or non-finite SAR is refused", () => {
     expect(code(() => cecEspFromSar(-0.1))).toBe("OUT_OF_RANGE");
     expect(code(() => cecEspFromSar(Number.NaN))).toBe("OUT_OF_RANGE");
+    expect(message(() => cecEspFromSar(-0.1))).toBe("sar must be at least 0 (got -0.1)");
+  });
+  it("a SAR so large that 100 × ESR overflows is refused, not reported; just below it the estimate is near 100 % (boundary)", () => {
+    // 100 × 0.01475 × SAR passes Number.MAX_VALUE at SAR ≈ 1.22e308.
+    expect(message(() => cecEspFromSar(1.5e308))).toBe("the estimated ESP cannot be computed for these inputs (result is not finite)");
+    expect(cecEspFromSar(1e308)).toBeCloseTo(100, 9);
   });
   it("rises with SAR and stays below 100 % (property)", () => {
     fc.assert(
