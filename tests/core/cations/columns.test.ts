@@ -69,6 +69,8 @@ function watched(name: string, values: number[], log: string[]): ArrayLike<numbe
     },
   });
 }
+/** A refused sample's number is NaN (ColumnResult), never a 0 left in its place. */
+const refusedAreNaN = (r: { values: Float64Array; errors: Map<number, SoilError> }) => [...r.errors.keys()].every((i) => Number.isNaN(r.values[i]));
 /** The log of reading each named column once, one column after another. */
 const columnByColumn = (names: string[], n: number) => names.flatMap((c) => Array.from({ length: n }, (_, i) => `${c}${i}`));
 
@@ -140,6 +142,7 @@ describe("column kernels: a sample the kernel declines gets exactly the scalar f
       const r = cecSumColumn(col("ca"), col("mg"), col("k"), col("na"), unit, withAcid ? col("acid") : undefined, undefined, ROWS.length);
       expect(asResults(r)).toEqual(ROWS.map((x) => scalarOf(() => cecSum(x.ca, x.mg, x.k, x.na, unit, withAcid ? x.acid : undefined))));
       expect([...r.errors.keys()].every((i) => i < ROWS.length)).toBe(true);
+      expect(refusedAreNaN(r)).toBe(true);
     }
   });
   it.each(["cmol(+)/kg", "g/kg"].flatMap((u) => PARTS.map((p) => [p, u])))("cecSaturationColumn %s in %s", (part, unit) => {
@@ -149,6 +152,7 @@ describe("column kernels: a sample the kernel declines gets exactly the scalar f
         const want = ROWS.map((x) => scalarOf(() => cecSaturation(part, x.ca, x.mg, x.k, x.na, unit, withAcid ? x.acid : undefined, withCec ? x.cec : undefined)));
         expect(asResults(r)).toEqual(want);
         expect([...r.errors.keys()].every((i) => i < ROWS.length)).toBe(true);
+        expect(refusedAreNaN(r)).toBe(true);
       }
     }
   });
@@ -185,9 +189,11 @@ describe("column kernels: refusals of the whole column and the scalar path", () 
     const want = scalarOf(() => cecSum(2000, 180, 150, 30, unit, 2));
     expect(asResults(r)).toEqual([want, want, want]);
     expect(r.errors.size).toBe(3);
+    expect(refusedAreNaN(r)).toBe(true);
     const s = cecSaturationColumn("Ca", ca, 180, 150, 30, unit, 2, undefined, undefined, 3);
     expect(asResults(s)).toEqual([want, want, want]);
     expect(s.errors.size).toBe(3);
+    expect(refusedAreNaN(s)).toBe(true);
     expect(log).toEqual([]);
   });
   it("an unknown part gives every sample that refusal, and no sample is read", () => {
