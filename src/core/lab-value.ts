@@ -52,7 +52,7 @@ function unreadable(text: string, why: string): SoilError {
 function parseWithMark(text: string, body: string, mark: LabDecimalMark): number {
   const group = mark === "." ? "," : ".";
   const sign = /^[+-]/.test(body) ? body[0] : "";
-  const rest = sign ? body.slice(1).trimStart() : body;
+  const rest = sign ? body.slice(1) : body;
   const parts = rest.split(mark);
   if (parts.length > 2) throw unreadable(text, `has more than one decimal mark "${mark}"`);
   // Stryker disable next-line StringLiteral: equivalent: split always returns at least one part, so the default is never used
@@ -86,8 +86,10 @@ function parseUnstated(text: string, body: string): number {
 }
 
 function parseNumber(text: string, body: string, mark: LabDecimalMark | undefined): number {
-  // Stryker disable next-line MethodExpression: equivalent for the trim: the body is the trimmed cell text or what follows a censoring sign (the pattern takes the spaces after it), so it has no spaces at either end
-  const clean = body.replace(SPACES, " ").replace(/\u2212/g, "-").trim();
+  // A space after the sign ("- 12.5") is dropped here, so every check below (the ambiguous
+  // "1.250" among them) sees the number as if written "-12.5". The body comes from labReading's
+  // cleaned text: spaces already single, U+2212 already "-", nothing at either end.
+  const clean = body.replace(/^([+-]) /, "$1");
   if (clean === "") throw unreadable(text, "has no number");
   const value = mark === undefined ? parseUnstated(text, clean) : EXPONENT.test(clean) && mark === "." ? Number(clean) : parseWithMark(text, clean, mark);
   if (!Number.isFinite(value)) throw unreadable(text, "is not a finite number");
@@ -107,7 +109,8 @@ function parseNumber(text: string, body: string, mark: LabDecimalMark | undefine
  * Source: common practice (src/data/lab/words.json).
  */
 export function labReading(text: string, decimalMark?: LabDecimalMark): LabReading {
-  const t = text.replace(SPACES, " ").trim();
+  // U+2212 (the typographic minus some exports use) is a minus sign everywhere in the cell.
+  const t = text.replace(SPACES, " ").replace(/\u2212/g, "-").trim();
   if (t === "") return { kind: "missing" };
   const key = wordKey(t);
   if (BELOW_WORDS.has(key)) return { kind: "below" };
@@ -119,7 +122,7 @@ export function labReading(text: string, decimalMark?: LabDecimalMark): LabReadi
     if (!(limit > 0)) throw new SoilError("OUT_OF_RANGE", `value: "${text}" states a limit of ${limit}; a detection or range limit must be above 0`);
     return /[<≤]/.test(sign) ? { kind: "below", limit } : { kind: "above", limit };
   }
-  if (/^[+-]?[\d.,]/.test(t)) return { kind: "number", value: parseNumber(text, t, decimalMark) };
+  if (/^[+-]? ?[\d.,]/.test(t)) return { kind: "number", value: parseNumber(text, t, decimalMark) };
   throw unreadable(
     text,
     `is not a lab value LABVALUE reads: a number ("12.5", "1 250", "12,5" with decimal ","), "<0.05", ">300", or ${listWords(LAB_WORDS.map((w) => `"${w}"`))}`,

@@ -179,7 +179,7 @@ describe("reader edges", () => {
     expect(labValue("1\u00a0250")).toBe(1250);
     expect(labValue("1.5e3")).toBe(1500);
   });
-  it.each(["a<0.05", "n1", "+ 12.5", "1e5x", "1-2"])("%s is refused as not a number", (text) => {
+  it.each(["a<0.05", "n1", "+ x", "- -5", "1e5x", "1-2"])("%s is refused as not a number", (text) => {
     expect(errorCode(() => labValue(text))).toBe("NOT_A_NUMBER");
   });
   it("text after the decimals is refused with the mark named", () => {
@@ -218,6 +218,24 @@ describe("reader edges, second round", () => {
     expect(msg(() => labValue("<0", "half"))).toBe('value: "<0" states a limit of 0; a detection or range limit must be above 0');
     expect(msg(() => labValue("<- 0.5", "half"))).toBe('value: "<- 0.5" states a limit of -0.5; a detection or range limit must be above 0');
     expect(msg(() => labValue("<\u22120.5", "half"))).toBe('value: "<\u22120.5" states a limit of -0.5; a detection or range limit must be above 0');
+  });
+  it("a sign is read the same with or without a space after it, in a cell or a limit", () => {
+    expect(labValue("+ 12.5")).toBe(12.5);
+    expect(labValue("- 12.5")).toBe(-12.5);
+    expect(labValue("<+ 5", "limit")).toBe(5);
+    expect(labValue("> + 300", undefined, "limit")).toBe(300);
+  });
+  it("the ambiguous '1.250' is refused with a space after its sign too (it once read as 1.25)", () => {
+    const ambiguous = /could be read with a decimal point or as thousands grouped by a full stop/;
+    expect(msg(() => labValue("<+ 1.250", "limit"))).toMatch(ambiguous);
+    expect(msg(() => labValue("- 1.250"))).toMatch(ambiguous);
+    expect(msg(() => labValue("\u22121.250"))).toMatch(ambiguous);
+    expect(labValue("- 1.250", undefined, undefined, ",")).toBe(-1250);
+  });
+  it("a minus sign U+2212 reads as a minus in a cell as in a limit", () => {
+    expect(labValue("\u221212.5")).toBe(-12.5);
+    expect(labValue("\u2212 1 250")).toBe(-1250);
+    expect(labReading("\u22120,5", ",")).toEqual({ kind: "number", value: -0.5 });
   });
   it("more than one decimal mark is refused naming the mark", () => {
     expect(msg(() => labValue("1,2,3", undefined, undefined, ","))).toBe('value: "1,2,3" has more than one decimal mark ","');
