@@ -38,8 +38,10 @@ function isBlankCell(c: unknown): boolean {
 function cellNumber(c: unknown, where: string): number {
   // Number.isFinite is false for anything but a finite number (it does not coerce text).
   if (Number.isFinite(c)) return c as number;
-  // Stryker disable next-line MethodExpression: equivalent: Number() ignores the same surrounding white space that trim() removes
-  if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) return Number(c.trim());
+  if (typeof c === "string") {
+    const text = c.trim();
+    if (NUMERIC_TEXT.test(text)) return Number(text);
+  }
   if (isBlankCell(c)) throw new SoilError("NOT_APPLICABLE", `the calibration range has a blank cell at ${where}; fill it or trim the range`);
   throw new SoilError("NOT_A_NUMBER", `the calibration range has "${String(c)}" at ${where}, which is not a number`);
 }
