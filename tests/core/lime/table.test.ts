@@ -68,6 +68,11 @@ describe("cells", () => {
       'the calibration range has "low" at row 3, column 1, which is not a number',
     );
   });
+  it("a boolean cell is NOT_A_NUMBER, shown as text", () => {
+    expect(messageOf(() => limeTableFromRange([["", 6.0, 6.5], [6.0, 1, true], [6.5, 0, 1]]))).toBe(
+      'the calibration range has "true" at row 2, column 3, which is not a number',
+    );
+  });
   it("a non-finite number in a cell is NOT_A_NUMBER, not a range error", () => {
     expect(codeOf(() => limeTableFromRange([["", 6.0, 6.5], [6.0, 1, Infinity], [6.5, 0, 1]]))).toBe("NOT_A_NUMBER");
     expect(codeOf(() => limeTableFromRange([["", 6.0, 6.5], [6.0, 1, NaN], [6.5, 0, 1]]))).toBe("NOT_A_NUMBER");
