@@ -88,6 +88,7 @@ export function limeCce(analysisPct: readonly number[], formWords: readonly stri
       `the components add up to ${+total.toFixed(6)} %, too little for a liming material; if these are fractions (0.9 for 90 %), enter percentages`,
     );
   }
+  // Stryker disable next-line StringLiteral: equivalent: unreachable, each percentage is checked within 0–100 and each factor is finite, so the sum is finite
   return finite(analysisPct.reduce((acc, p, i) => acc + p * limeCceFactor(used[i]!.id), 0), "the CCE");
 }
 
@@ -97,7 +98,8 @@ function listOf(range: LimeRange, name: string): (number | string | null)[] {
   if (rows !== 1 && cols !== 1) {
     throw new SoilError("SHAPE_MISMATCH", `${name} must be a single row or column (it is ${rows}×${cols})`);
   }
-  return range.flat().map((c) => (c === null || (typeof c === "string" && c.trim() === "") ? null : typeof c === "boolean" ? String(c) : c));
+  // A blank cell (null, or text of spaces) becomes null; null itself passes through unchanged.
+  return range.flat().map((c) => (typeof c === "string" && c.trim() === "" ? null : typeof c === "boolean" ? String(c) : c));
 }
 
 const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
@@ -122,13 +124,17 @@ export function limeCceOfRanges(analysisPct: LimeRange, formWords: LimeRange): n
   a.forEach((v, i) => {
     const form = f[i];
     if (v === null && form === null) return;
-    if (form === null || typeof form !== "string") {
+    // A blank form (null) is not a string either.
+    if (typeof form !== "string") {
       throw new SoilError("MISSING_INPUT", `forms cell ${i + 1} is ${form === null ? "blank" : `the number ${form}`}: name the component (${listWords(CCE_FORMS)})`);
     }
     if (v === null) throw new SoilError("MISSING_INPUT", `analysis_pct for ${form.trim()} is blank; enter 0 if the product has none`);
     if (typeof v === "number") pcts.push(v);
-    else if (NUMERIC_TEXT.test(v.trim())) pcts.push(Number(v.trim()));
-    else throw new SoilError("NOT_A_NUMBER", `analysis_pct for ${form.trim()}: "${v}" is not a number`);
+    else {
+      const text = v.trim();
+      if (!NUMERIC_TEXT.test(text)) throw new SoilError("NOT_A_NUMBER", `analysis_pct for ${form.trim()}: "${v}" is not a number`);
+      pcts.push(Number(text));
+    }
     names.push(form);
   });
   return limeCce(pcts, names);

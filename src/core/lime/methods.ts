@@ -70,6 +70,7 @@ export function limeAlSatCmol(al: number, ca: number, mg: number, targetAlSat: n
   check(targetAlSat, PERCENT.targetAlSat);
   const c = methods.cochrane;
   const excess = al - (targetAlSat * (al + ca + mg)) / 100;
+  // Stryker disable next-line EqualityOperator: equivalent for < vs <=: an excess of exactly 0 gives factor × 0 = 0 on either path (al ≥ 0, so 0 > al is false)
   if (excess <= 0) return 0;
   if (factor !== undefined) return finite(factorOf(factor, c.factor_default) * excess, "the lime requirement");
   const low = c.factor_default * excess;

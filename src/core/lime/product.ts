@@ -78,10 +78,12 @@ export function limeFineness(fractions: readonly number[], efficiencies: readonl
     );
   }
   const sum = fractions.reduce((a, b) => a + b, 0);
+  // Stryker disable next-line EqualityOperator: equivalent for > vs >=: sum − 100 is a multiple of 2^-46 for sums near 99 or 101, and 1 + 1e-9 is not, so equality cannot occur
   if (Math.abs(sum - 100) > SUM_TOLERANCE + 1e-9) {
     const hint = percentListLooksFractional(fractions) ? "; they look like fractions: enter percentages (0.788 is 78.8 %)" : "";
     throw new SoilError("OUT_OF_RANGE", `fractions add up to ${+sum.toFixed(6)} %; they must add up to 100 ± ${SUM_TOLERANCE} %${hint}`);
   }
+  // Stryker disable next-line StringLiteral: equivalent: unreachable, every fraction and efficiency is checked within 0–100, so the sum is finite
   return finite(fractions.reduce((acc, f, i) => acc + (f * efficiencies[i]!) / 100, 0), "the fineness efficiency");
 }
 
@@ -96,7 +98,10 @@ function listOf(range: LimeRange, name: string): number[] {
     if (c === null || (typeof c === "string" && c.trim() === "")) {
       throw new SoilError("MISSING_INPUT", `${name} has a blank cell (class ${i + 1}); enter 0 for an empty class`);
     }
-    if (typeof c === "string" && /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(c.trim())) return Number(c.trim());
+    if (typeof c === "string") {
+      const text = c.trim();
+      if (/^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(text)) return Number(text);
+    }
     throw new SoilError("NOT_A_NUMBER", `${name}: "${String(c)}" (class ${i + 1}) is not a number`);
   });
 }

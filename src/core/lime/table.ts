@@ -36,8 +36,12 @@ function isBlankCell(c: unknown): boolean {
 }
 
 function cellNumber(c: unknown, where: string): number {
-  if (typeof c === "number" && Number.isFinite(c)) return c;
-  if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) return Number(c.trim());
+  // Number.isFinite is false for anything but a finite number (it does not coerce text).
+  if (Number.isFinite(c)) return c as number;
+  if (typeof c === "string") {
+    const text = c.trim();
+    if (NUMERIC_TEXT.test(text)) return Number(text);
+  }
   if (isBlankCell(c)) throw new SoilError("NOT_APPLICABLE", `the calibration range has a blank cell at ${where}; fill it or trim the range`);
   throw new SoilError("NOT_A_NUMBER", `the calibration range has "${String(c)}" at ${where}, which is not a number`);
 }
@@ -45,8 +49,10 @@ function cellNumber(c: unknown, where: string): number {
 /** Drops trailing rows and columns that are entirely blank (a generously selected range). */
 function trimmed(range: LimeRange): LimeRange {
   let rows = range.length;
+  // Stryker disable next-line EqualityOperator: equivalent: rows >= 0 also steps to -1 on an all-blank range, and slice(0, -1) of it is still all blank, trimmed to no columns below
   while (rows > 0 && (range[rows - 1] ?? []).every(isBlankCell)) rows--;
   let cols = Math.max(0, ...range.slice(0, rows).map((r) => r.length));
+  // Stryker disable next-line MethodExpression,EqualityOperator: equivalent: the rows cut off above are blank in every column, so including them changes no column's verdict; cols reaches 0 only when no row is kept (the last kept row has a non-blank cell), and a step to -1 on no rows changes nothing
   while (cols > 0 && range.slice(0, rows).every((r) => isBlankCell(r[cols - 1]))) cols--;
   return range.slice(0, rows).map((r) => r.slice(0, cols));
 }
@@ -54,11 +60,16 @@ function trimmed(range: LimeRange): LimeRange {
 /** Order that sorts an axis ascending; the axis must be strictly monotonic as given. */
 function axisOrder(values: readonly number[], what: string): number[] {
   const idx = values.map((_, i) => i);
+  // Stryker disable next-line ConditionalExpression: equivalent: with one value the loop below does not run and the one index reversed is itself
   if (values.length < 2) return idx;
+  // Stryker disable next-line EqualityOperator: equivalent: equal first values are refused as a repeat in the loop whichever way up is set
   const up = values[1]! > values[0]!;
   for (let i = 1; i < values.length; i++) {
     const step = values[i]! - values[i - 1]!;
-    if (step === 0 || step > 0 !== up) {
+    // A repeat (step 0) is refused first, so whether 0 counts as rising does not matter.
+    // Stryker disable next-line EqualityOperator: equivalent: step 0 never reaches the comparison with up
+    const rises = step > 0;
+    if (step === 0 || rises !== up) {
       throw new SoilError(
         "NOT_APPLICABLE",
         `the calibration range's ${what} values must rise or fall steadily without repeats (found ${values[i - 1]} then ${values[i]})`,
@@ -90,7 +101,10 @@ export function limeTableFromRange(range: LimeRange, name = "the calibration ran
       "a calibration range needs at least 2 rows and 2 columns: target pH values across the top row, buffer pH values down the left column, lime rates in the body",
     );
   }
-  const targets = grid[0]!.slice(1, cols).map((c, j) => check(cellNumber(c, `row 1, column ${j + 2}`), { name: "a target pH in the calibration range", min: 0, max: 14 }));
+  // Every column of the range needs its target pH: a top row shorter than the body is a blank cell
+  // to refuse, not a narrower table that silently drops the body's last columns.
+  const top = grid[0]!;
+  const targets = Array.from({ length: cols - 1 }, (_, j) => top[j + 1]).map((c, j) => check(cellNumber(c, `row 1, column ${j + 2}`), { name: "a target pH in the calibration range", min: 0, max: 14 }));
   const buffers = grid.slice(1).map((r, i) => check(cellNumber(r[0], `row ${i + 2}, column 1`), { name: "a buffer pH in the calibration range", min: 0, max: 14 }));
   const body = grid.slice(1).map((r, i) =>
     targets.map((_, j) =>
@@ -114,7 +128,10 @@ function bracket(axis: readonly number[], x: number): { lo: number; hi: number; 
   const last = axis[n - 1]!;
   if (x < first - EDGE || x > last + EDGE) return undefined;
   if (n === 1) return { lo: 0, hi: 0, t: 0 };
+  // Within the edge slack: clamp to the edge rather than extrapolate by a hair.
+  // Stryker disable next-line EqualityOperator: equivalent: x equal to the first value gives lo 0, hi 1, t 0 through the search below too
   if (x <= first) return { lo: 0, hi: 1, t: 0 };
+  // Stryker disable next-line EqualityOperator: equivalent: x equal to the last value gives lo n-2, hi n-1, t (x − a)/(x − a) = 1 through the search below too
   if (x >= last) return { lo: n - 2, hi: n - 1, t: 1 };
   let hi = 1;
   while (axis[hi]! < x) hi++;

@@ -342,3 +342,69 @@ describe("ABOUT lines carry the method, its source and the cautions (cautions.js
     expect(cautions.cautions.every((c) => c.source.length > 0)).toBe(true);
   });
 });
+
+describe("edges and messages (invented inputs; boundary probes of the code's own logic)", () => {
+  const msg = messageOf;
+  it("each pH argument is named in its refusal", () => {
+    expect(msg(() => limeBuffer(15, 6, { calibration: SIK }))).toBe("buffer_ph must be from 0 to 14 (got 15)");
+    expect(msg(() => limeBuffer(6, -1, { calibration: SIK }))).toBe("target_ph must be from 0 to 14 (got -1)");
+    expect(msg(() => limeBuffer(6, 6, { calibration: SIK, soilPh: 20 }))).toBe("soil_ph must be from 0 to 14 (got 20)");
+    expect(msg(() => limeMehlichAcidity(6.7))).toBe("buffer_ph must be from 0 to 6.6 (got 6.7)");
+    expect(msg(() => limeMehlichFactor(15, 6))).toBe("soil_ph must be from 0 to 14 (got 15)");
+    expect(msg(() => limeMehlichFactor(5, 15))).toBe("target_ph must be from 0 to 14 (got 15)");
+    expect(msg(() => limeMehlichFactor(5, 6.8))).toBe("target_ph must be from 0 to 6.6 (got 6.8)");
+  });
+  it("Mehlich factor: target equal to the soil pH is 0, even at or above the buffer's reference pH 6.6", () => {
+    expect(limeMehlichFactor(6.6, 6.6)).toBe(0);
+    expect(limeMehlichFactor(7, 7)).toBe(0);
+    expect(limeMehlichFactor(7.5, 7)).toBe(0);
+    expect(limeMehlichFactor(6.5, 6.6)).toBeCloseTo(1, 12); // at the reference pH the factor is 1
+  });
+  it("a calibration of spaces is MISSING_INPUT like a blank one", () => {
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: "   " }))).toBe("MISSING_INPUT");
+    expect(msg(() => limeBuffer(6.0, 5.6, { calibration: "   " }))).toMatch(/^calibration is required/);
+  });
+  it("a 1×1 range holding undefined is a blank cell (MISSING_INPUT)", () => {
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [[undefined]] as unknown as LimeRange }))).toBe("MISSING_INPUT");
+  });
+  it("a single row of several cells, or a column whose first cell is a name, is a (too small) table, not a name", () => {
+    expect(codeOf(() => limeBuffer(6.0, 6.0, { calibration: [["", 6.0, 6.5]] }))).toBe("SHAPE_MISMATCH");
+    expect(msg(() => limeBuffer(6.0, 6.0, { calibration: [["", 6.0, 6.5]] }))).toMatch(/at least 2 rows and 2 columns/);
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [[SIK], ["more"]] }))).toBe("SHAPE_MISMATCH");
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [[SIK, null]], unit: "ton/ac" }))).toBe("NOT_APPLICABLE"); // 1×2: a range, so unit is refused
+  });
+  it("a range with one missing row is a too-small table", () => {
+    expect(codeOf(() => limeBuffer(6.0, 5.6, { calibration: [undefined] as unknown as LimeRange }))).toBe("SHAPE_MISMATCH");
+  });
+  it("a 1×1 number's refusal shows the value", () => {
+    expect(msg(() => limeBuffer(6.0, 5.6, { calibration: [[6.5]] }))).toBe(
+      "calibration must be the name of a built-in calibration (SMP, SIKORA-OR2025, MEHLICH) or a range holding a table, not the single value 6.5",
+    );
+  });
+  it("built-in table: soil pH below the target still gives the table's rate; at the target it gives 0", () => {
+    expect(tonAc(6.0, 5.6, { soilPh: 5.0 })).toBeCloseTo(1.7, 10);
+    expect(tonAc(6.0, 5.6, { soilPh: 5.6 })).toBe(0);
+  });
+  it("range: soil pH below the target gives the table's rate; equal to the target gives 0", () => {
+    expect(limeBuffer(6.4, 6.5, { calibration: INVENTED, soilPh: 6.0 })).toBe(2.0);
+    expect(limeBuffer(6.4, 6.5, { calibration: INVENTED, soilPh: 6.5 })).toBe(0);
+    expect(limeBuffer(6.4, 6.5, { calibration: INVENTED, soilPh: 6.49 })).toBe(2.0);
+  });
+  it("a table calibration whose table is not shipped answers NO_REFERENCE_DATA naming it", () => {
+    const cal = { kind: "table", id: "INVENTED-X", source: "invented", unit: "ton/ac", depthCm: 20, neutralizingValuePct: 100, status: "invented", table: undefined } as const;
+    expect(codeOf(() => limeBufferTableRate(cal, 6, 6))).toBe("NO_REFERENCE_DATA");
+    expect(msg(() => limeBufferTableRate(cal, 6, 6))).toBe("the INVENTED-X table is not shipped");
+  });
+  it("the depth refusals name the calibration", () => {
+    const cal: LimeTableCalibration = {
+      kind: "table", id: "INVENTED-ND", source: "invented", unit: "ton/ac", depthCm: undefined, neutralizingValuePct: 100, status: "invented",
+      table: limeTableFromRange([["", 6.5], [6.0, 2.0], [7.0, 0.0]]),
+    };
+    expect(msg(() => limeBufferTableRate(cal, 6.0, 6.5, { depthCm: 10 }))).toBe(
+      "the INVENTED-ND source does not state its depth, so depth_cm cannot be scaled; leave it blank",
+    );
+    expect(msg(() => limeBuffer(6.3, 6.0, { calibration: "MEHLICH", soilPh: 5.0, depthCm: 20 }))).toBe(
+      "the MEHLICH (NCDA&CS) source does not state the depth its rates are for, so depth_cm cannot be scaled; leave it blank",
+    );
+  });
+});

@@ -9,7 +9,7 @@
 import fc from "fast-check";
 import { CCE_FORMS, limeCce, limeCceFactor, limeCceOfRanges } from "../../../src/core/lime/cce";
 import { limeProductRate } from "../../../src/core/lime/product";
-import { errorCode as code } from "../../helpers/errors";
+import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 describe("CCE of pure forms (UNL PASSEL Table 4.4, seen)", () => {
   it.each([
@@ -101,5 +101,78 @@ describe("properties", () => {
       }),
     );
     for (const f of CCE_FORMS) expect(limeCceFactor(f)).toBeGreaterThan(0.9);
+  });
+});
+
+describe("messages and boundaries (invented analyses; probes of the code's own limits)", () => {
+  const FORMS_LISTED = "CaCO3, MgCO3, CaMg(CO3)2, CaO, MgO, Ca(OH)2, Mg(OH)2, Ca or Mg";
+  it("an unknown form is named as a form, listing the accepted ones", () => {
+    expect(message(() => limeCceFactor("CaSO4"))).toBe(`unknown form "CaSO4"; use ${FORMS_LISTED}`);
+    expect(message(() => limeCce([50], ["CaSO4"]))).toBe(`unknown form "CaSO4"; use ${FORMS_LISTED}`);
+  });
+  it("counts that differ are SHAPE_MISMATCH giving both counts", () => {
+    expect(code(() => limeCce([50, 40], ["CaCO3"]))).toBe("SHAPE_MISMATCH");
+    expect(message(() => limeCce([50, 40], ["CaCO3"]))).toBe("analysis_pct has 2 values but forms has 1; give one form per percentage");
+    expect(message(() => limeCce([50], ["CaCO3", "MgO"]))).toBe("analysis_pct has 1 values but forms has 2; give one form per percentage");
+  });
+  it("the empty-analysis refusal lists the components", () => {
+    expect(message(() => limeCce([], []))).toBe(`the analysis is empty: give the % of each component (${FORMS_LISTED})`);
+  });
+  it("a form twice, and an element with its compound, are named (whichever comes first)", () => {
+    expect(message(() => limeCce([40, 40], ["CaCO3", "calcite"]))).toBe("CaCO3 is given twice; give each component once");
+    expect(message(() => limeCce([20, 30], ["CaCO3", "Ca"]))).toBe("Ca and CaCO3 both count Ca: give Ca as an element or as its compounds, not both");
+    expect(message(() => limeCce([30, 20], ["Ca", "CaCO3"]))).toBe("Ca and CaCO3 both count Ca: give Ca as an element or as its compounds, not both");
+  });
+  it("two compounds holding the same element are fine (only an element with its compounds counts twice)", () => {
+    // 50 % dolomite + 30 % CaO: 50 × 1.0855 + 30 × 1.7848 (stoichiometric factors, derived)
+    expect(limeCce([50, 30], ["CaMg(CO3)2", "CaO"])).toBeCloseTo(50 * limeCceFactor("dolomite") + 30 * limeCceFactor("CaO"), 9);
+    expect(limeCce([50, 30], ["CaMg(CO3)2", "MgO"])).toBeCloseTo(50 * limeCceFactor("dolomite") + 30 * limeCceFactor("MgO"), 9);
+  });
+  it("a percentage out of range names its component and the unit", () => {
+    expect(message(() => limeCce([-1, 50], ["CaCO3", "MgCO3"]))).toBe("analysis_pct (CaCO3) must be from 0 to 100 % (got -1 %)");
+  });
+  it("the total: exactly 101 % is allowed, beyond 101 % + 1e-9 is refused with the total shown", () => {
+    expect(limeCce([100, 1], ["CaCO3", "MgCO3"])).toBeCloseTo(100 + limeCceFactor("MgCO3"), 9);
+    const atLimit = 100 + 1 + 1e-9 - 100; // 100 + this adds up to the limit itself
+    expect(limeCce([100, atLimit], ["CaCO3", "MgCO3"])).toBeGreaterThan(100);
+    expect(code(() => limeCce([100, 1.00001], ["CaCO3", "MgCO3"]))).toBe("OUT_OF_RANGE");
+    expect(message(() => limeCce([95, 6.5], ["CaCO3", "MgCO3"]))).toBe(
+      "the components add up to 101.5 %; a material cannot hold more than 100 % (1 % allowed for rounding)",
+    );
+  });
+  it("a total of exactly 1 % is refused as fractions; just above is accepted", () => {
+    expect(code(() => limeCce([1], ["CaCO3"]))).toBe("OUT_OF_RANGE");
+    expect(limeCce([1.01], ["CaCO3"])).toBeCloseTo(1.01, 12);
+    expect(message(() => limeCce([0.9, 0.05], ["CaCO3", "MgCO3"]))).toBe(
+      "the components add up to 0.95 %, too little for a liming material; if these are fractions (0.9 for 90 %), enter percentages",
+    );
+  });
+  it("ranges: a ragged 2-row range is 2-D, named in the refusal", () => {
+    expect(message(() => limeCceOfRanges([[90], [5, 3]], [["CaCO3"], ["MgCO3"], ["MgO"]]))).toBe("analysis_pct must be a single row or column (it is 2×2)");
+    expect(message(() => limeCceOfRanges([[90, 5]], [["CaCO3", "MgCO3"], ["Ca", "Mg"]]))).toBe("forms must be a single row or column (it is 2×2)");
+  });
+  it("ranges: cell counts that differ are refused giving both", () => {
+    expect(message(() => limeCceOfRanges([[90, 5]], [["CaCO3"]]))).toBe("analysis_pct has 2 cells but forms has 1; give one form per percentage");
+  });
+  it("ranges: pairs of spaces are blank pairs and ignored", () => {
+    expect(limeCceOfRanges([[90, "  "]], [["CaCO3", " "]])).toBeCloseTo(90, 12);
+    expect(limeCceOfRanges([[90, null]], [["CaCO3", "\t"]])).toBeCloseTo(90, 12);
+  });
+  it("ranges: a blank or numeric form is refused, placed by cell", () => {
+    expect(message(() => limeCceOfRanges([[90, 5]], [["CaCO3", null]]))).toBe(`forms cell 2 is blank: name the component (${FORMS_LISTED})`);
+    expect(message(() => limeCceOfRanges([[90, 5]], [["CaCO3", "  "]]))).toBe(`forms cell 2 is blank: name the component (${FORMS_LISTED})`);
+    expect(code(() => limeCceOfRanges([[90, 5]], [["CaCO3", 7]]))).toBe("MISSING_INPUT");
+    expect(message(() => limeCceOfRanges([[90, 5]], [["CaCO3", 7]]))).toBe(`forms cell 2 is the number 7: name the component (${FORMS_LISTED})`);
+    expect(message(() => limeCceOfRanges([[5, 90]], [[7, "CaCO3"]]))).toBe(`forms cell 1 is the number 7: name the component (${FORMS_LISTED})`);
+  });
+  it("ranges: a blank or text percentage names the component, trimmed", () => {
+    expect(message(() => limeCceOfRanges([[90, null]], [["CaCO3", " MgCO3 "]]))).toBe("analysis_pct for MgCO3 is blank; enter 0 if the product has none");
+    expect(message(() => limeCceOfRanges([[90, "n.d."]], [["CaCO3", " MgCO3 "]]))).toBe('analysis_pct for MgCO3: "n.d." is not a number');
+  });
+  it("ranges: numeric text with spaces is read; a boolean is text, not a number", () => {
+    expect(limeCceOfRanges([[" 90 ", "5"]], [["CaCO3", "MgCO3"]])).toBeCloseTo(limeCce([90, 5], ["CaCO3", "MgCO3"]), 12);
+    expect(code(() => limeCceOfRanges([[true]], [["CaCO3"]]))).toBe("NOT_A_NUMBER");
+    expect(message(() => limeCceOfRanges([[true]], [["CaCO3"]]))).toBe('analysis_pct for CaCO3: "true" is not a number');
+    expect(code(() => limeCceOfRanges([[90]], [[false]]))).toBe("UNKNOWN_NAME"); // a boolean form is the word FALSE, not a component
   });
 });

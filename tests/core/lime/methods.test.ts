@@ -11,7 +11,7 @@ import methods from "../../../src/data/lime/methods.json";
 import { limeAlSat, limeAlSatCmol, limeBaseSat, limeExchAl, limePhBc } from "../../../src/core/lime/methods";
 import { limeCaco3MgPerKg, limeLayerKgPerHa } from "../../../src/core/lime/rate";
 import { limeProductRate } from "../../../src/core/lime/product";
-import { errorCode as codeOf } from "../../helpers/errors";
+import { errorCode as codeOf, errorMessage as messageOf } from "../../helpers/errors";
 
 
 /** depth × bulk density giving a 2 000 000 lb/acre furrow slice (UNIT-12 convention): 22.417 cm·g/cm3. */
@@ -201,6 +201,51 @@ describe("LIMEPHBC: pH buffer capacity method", () => {
           return Math.abs(r - unit * cap * (target - ph) * d) <= 1e-9 * Math.max(1, r);
         },
       ),
+    );
+  });
+});
+
+describe("messages and guards (invented inputs; probes of the code's own limits)", () => {
+  it("the layer refusals say which input is missing and why", () => {
+    expect(messageOf(() => limeLayerKgPerHa(100, undefined, 1.2))).toBe(
+      "depth_cm is needed: this method gives lime per kg of soil, so give the depth (cm) of the layer to be limed",
+    );
+    expect(messageOf(() => limeLayerKgPerHa(100, 20, undefined))).toBe(
+      "bulk_density is needed: this method gives lime per kg of soil, so give the dry bulk density (g/cm3) of the layer",
+    );
+  });
+  it("acidity too large to convert refuses instead of returning Infinity", () => {
+    expect(codeOf(() => limeCaco3MgPerKg(1e308))).toBe("OUT_OF_RANGE");
+    expect(messageOf(() => limeCaco3MgPerKg(1e308))).toBe("the CaCO3 equivalent cannot be computed for these inputs (result is not finite)");
+  });
+  it("Kamprath: exch_al and factor are named in their refusals", () => {
+    expect(messageOf(() => limeExchAl(-1, { depthCm: 20, bulkDensity: 1.2 }))).toBe("exch_al must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+    expect(messageOf(() => limeExchAl(1, { factor: 0, depthCm: 20, bulkDensity: 1.2 }))).toBe("factor must be greater than 0 (got 0)");
+  });
+  it("Cochrane: each cation is named in its refusal", () => {
+    expect(messageOf(() => limeAlSatCmol(-1, 1, 1, 10))).toBe("al must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+    expect(messageOf(() => limeAlSatCmol(1, -1, 1, 10))).toBe("ca must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+    expect(messageOf(() => limeAlSatCmol(1, 1, -1, 10))).toBe("mg must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+  });
+  it("Cochrane: Al saturation exactly at the target gives 0 (with and without a factor)", () => {
+    // Al 1 of Al + Ca + Mg = 4 is 25 %
+    expect(limeAlSatCmol(1, 2, 1, 25)).toBe(0);
+    expect(limeAlSatCmol(1, 2, 1, 25, 3)).toBe(0);
+  });
+  it("Cochrane: a requirement too large to represent refuses instead of returning Infinity", () => {
+    expect(messageOf(() => limeAlSatCmol(1e308, 0, 0, 0, 10))).toBe("the lime requirement cannot be computed for these inputs (result is not finite)");
+    expect(messageOf(() => limeAlSatCmol(1e308, 0, 0, 0))).toBe("the lime requirement cannot be computed for these inputs (result is not finite)");
+  });
+  it("base saturation: the CEC's unit in its refusal follows the basis (per dm3 without a density, per kg with one)", () => {
+    expect(messageOf(() => limeBaseSat(-1, 40, 60))).toBe("cec must be at least 0 cmol(+)/dm3 (got -1 cmol(+)/dm3)");
+    expect(messageOf(() => limeBaseSat(-1, 40, 60, { bulkDensity: 1.2 }))).toBe("cec must be at least 0 cmol(+)/kg (got -1 cmol(+)/kg)");
+  });
+  it("pH buffer capacity: each argument is named in its refusal", () => {
+    const layer = { depthCm: 20, bulkDensity: 1.2 };
+    expect(messageOf(() => limePhBc(15, 6, 1, layer))).toBe("soil_ph must be from 0 to 14 (got 15)");
+    expect(messageOf(() => limePhBc(5, 15, 1, layer))).toBe("target_ph must be from 0 to 14 (got 15)");
+    expect(messageOf(() => limePhBc(5, 6, -1, layer))).toBe(
+      "ph_buffer_capacity must be at least 0 cmol(+)/kg per pH unit (got -1 cmol(+)/kg per pH unit)",
     );
   });
 });

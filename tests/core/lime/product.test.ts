@@ -121,3 +121,68 @@ describe("limeFineness", () => {
     expect(limeFineness([78.8, 10, 2.4, 7.8], [100, 60, 20, 0])).toBeCloseTo(85.28, 10);
   });
 });
+
+describe("messages and edges (invented inputs; probes of the code's own limits)", () => {
+  it("a negative rate names caco3_rate; a rate too large to divide refuses instead of returning Infinity", () => {
+    expect(messageOf(() => limeProductRate(-1, 90))).toBe("caco3_rate must be at least 0 (got -1)");
+    expect(codeOf(() => limeProductRate(1e308, 5))).toBe("OUT_OF_RANGE");
+    expect(messageOf(() => limeProductRate(1e308, 5))).toBe("the product rate cannot be computed for these inputs (result is not finite)");
+  });
+  it("count mismatch: the default rating's message names its four classes; a user rating's gives both counts", () => {
+    expect(messageOf(() => limeFineness([90, 10]))).toBe(
+      "the default rating has 4 classes (finer than 60 mesh, 20-60, 8-20, coarser than 8 mesh) but fractions has 2; give efficiencies for your classes",
+    );
+    expect(messageOf(() => limeFineness([90, 10], [100, 50, 0]))).toBe("fractions has 2 classes but efficiencies has 3; give one efficiency per fraction");
+    // an equal copy of the default is a rating of the user's own
+    expect(messageOf(() => limeFineness([90, 10], [100, 60, 20, 0]))).toBe("fractions has 2 classes but efficiencies has 4; give one efficiency per fraction");
+  });
+  it("no fractions at all is MISSING_INPUT", () => {
+    expect(codeOf(() => limeFineness([], []))).toBe("MISSING_INPUT");
+    expect(messageOf(() => limeFineness([], []))).toBe("fractions is empty");
+  });
+  it("a value out of range names its class, counted from 1, and the unit", () => {
+    expect(messageOf(() => limeFineness([110, -10, 0, 0]))).toBe("fraction 1 must be from 0 to 100 % (got 110 %)");
+    expect(messageOf(() => limeFineness([100, -10, 0, 10]))).toBe("fraction 2 must be from 0 to 100 % (got -10 %)");
+    expect(messageOf(() => limeFineness([100, 0, 0, 0], [100, 120, 20, 0]))).toBe("efficiency 2 must be from 0 to 100 % (got 120 %)");
+  });
+  it("efficiencies given as fractions of 1 are listed in the refusal", () => {
+    expect(messageOf(() => limeFineness([78.8, 10, 2.4, 7.8], [1, 0.6, 0.2, 0]))).toBe(
+      "efficiencies are all at most 1 (1, 0.6, 0.2, 0): they look like fractions; enter percentages (e.g. 100, 60, 20, 0)",
+    );
+  });
+  it("ranges: a ragged 2-row range is 2-D; the refusal names the argument", () => {
+    expect(messageOf(() => limeFinenessOfRanges([[90], [6, 4]]))).toBe("fractions must be a single row or column (it is 2×2), finest class first");
+    expect(messageOf(() => limeFinenessOfRanges([[70, 20, 10]], [[100, 50], [10, 0]]))).toBe(
+      "efficiencies must be a single row or column (it is 2×2), finest class first",
+    );
+  });
+  it("ranges: a blank cell (empty or spaces) names the argument and the class", () => {
+    expect(messageOf(() => limeFinenessOfRanges([[90, null, 4, 6]]))).toBe("fractions has a blank cell (class 2); enter 0 for an empty class");
+    expect(codeOf(() => limeFinenessOfRanges([[90, "  ", 4, 6]]))).toBe("MISSING_INPUT");
+    expect(messageOf(() => limeFinenessOfRanges([[100]], [[" "]]))).toBe("efficiencies has a blank cell (class 1); enter 0 for an empty class");
+  });
+  it("ranges: text and booleans are NOT_A_NUMBER quoting the cell and its class", () => {
+    expect(messageOf(() => limeFinenessOfRanges([[90, "six", 4, 0]]))).toBe('fractions: "six" (class 2) is not a number');
+    expect(codeOf(() => limeFinenessOfRanges([[90, true, 4, 0]]))).toBe("NOT_A_NUMBER");
+    expect(messageOf(() => limeFinenessOfRanges([[100]], [[false]]))).toBe('efficiencies: "false" (class 1) is not a number');
+  });
+  it.each([
+    ["90", 90],
+    [" 90 ", 90],
+    ["+60", 60],
+    ["6.25", 6.25],
+    ["6.", 6],
+    [".5e1", 5],
+    [".25e2", 25],
+    ["1e1", 10],
+    ["1e+1", 10],
+    ["1.5e01", 15],
+    ["2.5E1", 25],
+    ["500e-1", 50],
+  ])("ranges: numeric text %j is read as %s (as an efficiency of a single 100 %% class)", (text, value) => {
+    expect(limeFinenessOfRanges([[100]], [[text]])).toBeCloseTo(value, 12);
+  });
+  it.each(["x6", "6x", "1e", "e1", ".", "6.5.1", "1e1.5", "--6", "6 5"])("ranges: %j is NOT_A_NUMBER", (text) => {
+    expect(codeOf(() => limeFinenessOfRanges([[100]], [[text]]))).toBe("NOT_A_NUMBER");
+  });
+});
