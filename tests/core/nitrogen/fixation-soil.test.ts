@@ -321,7 +321,6 @@ describe("levels the data file does not hold today (a changed copy of legume-che
     let mod: FixSoil | undefined;
     jest.isolateModules(() => {
       jest.doMock(DATA, () => copy);
-      // eslint-disable-next-line @typescript-eslint/no-require-imports
       mod = require("../../../src/core/nitrogen/fixation-soil") as FixSoil;
     });
     jest.dontMock(DATA);

@@ -55,7 +55,6 @@ describe("load-time checks of legume-checks.json (a broken copy of the file, moc
     return () =>
       jest.isolateModules(() => {
         jest.doMock(DATA, () => copy);
-        // eslint-disable-next-line @typescript-eslint/no-require-imports
         require(MODULE);
       });
   };
