@@ -49,6 +49,7 @@ export function nfixNdfa(reference: number, legume: number, b: number, minGap?: 
       `d15n_reference equals b_value (${fmt(b)} ‰): the natural abundance method cannot tell soil N from fixed N here`,
     );
   }
+  // Stryker disable next-line EqualityOperator: equivalent for spread <= 0: a spread of 0 was refused just above
   if (spread < 0) {
     throw new SoilError(
       "NOT_APPLICABLE",
@@ -94,15 +95,15 @@ export function nfixNdfa(reference: number, legume: number, b: number, minGap?: 
 export function nfixNDifference(legumeN: number, referenceN: number, legumeSoilN?: number, referenceSoilN?: number): number {
   check(legumeN, NDFA_BOUNDS.nYield("legume_n"));
   check(referenceN, NDFA_BOUNDS.nYield("reference_n"));
-  if ((legumeSoilN === undefined) !== (referenceSoilN === undefined)) {
-    const missing = legumeSoilN === undefined ? "legume_soil_n" : "reference_soil_n";
-    throw new SoilError("MISSING_INPUT", `${missing} is needed: the soil N term takes both legume_soil_n and reference_soil_n, or neither`);
-  }
   let q = legumeN - referenceN;
+  // Both, or neither: tested in this order so each part of each test can be observed.
   if (legumeSoilN !== undefined && referenceSoilN !== undefined) {
     check(legumeSoilN, NDFA_BOUNDS.nYield("legume_soil_n"));
     check(referenceSoilN, NDFA_BOUNDS.nYield("reference_soil_n"));
     q += legumeSoilN - referenceSoilN;
+  } else if (legumeSoilN !== undefined || referenceSoilN !== undefined) {
+    const missing = legumeSoilN === undefined ? "legume_soil_n" : "reference_soil_n";
+    throw new SoilError("MISSING_INPUT", `${missing} is needed: the soil N term takes both legume_soil_n and reference_soil_n, or neither`);
   }
   return finite(q, "fixed N");
 }

@@ -117,8 +117,10 @@ interface RawLevel {
 
 function level(r: RawLevel): Level {
   const value = r.level ?? r.per_plant;
-  if (value === undefined || !(r.flag_when in FLAG_WORDS)) throw new Error(`legume-checks.json: level ${r.id} is malformed`);
-  return { id: r.id, level: value, flagWhen: r.flag_when as FlagWhen, meaning: r.meaning ?? r.met_meaning ?? "", short: r.short };
+  // A level without its meaning would show a blank where the source's words belong.
+  const meaning = r.meaning ?? r.met_meaning;
+  if (value === undefined || meaning === undefined || !(r.flag_when in FLAG_WORDS)) throw new Error(`legume-checks.json: level ${r.id} is malformed`);
+  return { id: r.id, level: value, flagWhen: r.flag_when as FlagWhen, meaning, short: r.short };
 }
 
 function byId<T extends { id: string }>(rows: readonly T[]): Map<string, T> {

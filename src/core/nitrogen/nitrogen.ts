@@ -41,8 +41,10 @@ function checkHinted(value: number, bound: Bound, hint: (v: number) => string | 
 }
 
 const unitHint = (unit: string) => (v: number) =>
+  // Stryker disable next-line EqualityOperator: equivalent for v >= 0: a value of 0 is inside both t/ha bounds, so it is never refused and never reaches the hint
   v > 0 ? `this looks like kg/ha: give ${unit} in t/ha (kg/ha ÷ 1000)` : undefined;
 const proteinHint = (v: number) =>
+  // Stryker disable next-line EqualityOperator: equivalent for v >= 16: 16 % itself is accepted, so it never reaches the hint
   v > TISSUE.max_n_pct.value ? "this looks like crude protein: N % = crude protein % ÷ 6.25" : undefined;
 
 const shootDmOk = (v: number) => checkHinted(v, NFIX_BOUNDS.shootDm, unitHint("shoot_dm"));
@@ -115,9 +117,11 @@ export function nfixRootFactor(value: string | number | undefined): number {
     if (!ROOT_FACTORS.has(v)) {
       throw new SoilError("UNKNOWN_NAME", `unknown root_factor "${v}"; use a number from 1 to ${TISSUE.max_root_factor.value}, or ${listWords(ROOT_FACTORS.ids)}`);
     }
+    // Stryker disable next-line StringLiteral: equivalent: has() was checked, so lookup never throws and its word for the message is never shown
     return ROOT_FACTORS.lookup(v, "root_factor");
   }
   return checkHinted(v, NFIX_BOUNDS.rootFactor, (x) =>
+    // Stryker disable next-line EqualityOperator: equivalent for x >= 1: a factor of 1 is accepted, so it never reaches the hint
     x > 1
       ? "root_factor is whole-plant N ÷ shoot N; from a below-ground share s % of plant N it is 100 ÷ (100 − s)"
       : "root_factor is whole-plant N ÷ shoot N, so at least 1 (1 = shoots only)",
@@ -149,6 +153,7 @@ export function nfixKgPerTonne(value: string | number | undefined): number {
     if (!PER_TONNE.has(v)) {
       throw new SoilError("UNKNOWN_NAME", `unknown kg_n_per_t "${v}"; use a number of kg N per t, or ${listWords(PER_TONNE.ids)}`);
     }
+    // Stryker disable next-line StringLiteral: equivalent: has() was checked, so lookup never throws and its word for the message is never shown
     return PER_TONNE.lookup(v, "kg_n_per_t");
   }
   return check(v, NFIX_BOUNDS.kgNPerT);
@@ -173,10 +178,12 @@ export function nfixFixedN(shootDm: number, shootNPct: number, ndfaPct: number, 
   shootDmOk(shootDm);
   nPctOk(shootNPct, "shoot_n_pct");
   checkHinted(ndfaPct, NFIX_BOUNDS.ndfaPct, (v) =>
+    // Stryker disable next-line EqualityOperator: equivalent for v <= 0 and v >= 100: 0 and 100 are accepted, so they never reach the hint (v >= 0 and v <= 100 are killed by the hint tests)
     v < 0 || v > 100 ? "a %Ndfa slightly outside 0–100 from measurement error must be set to 0 or 100 by you; it is not clamped" : undefined,
   );
   const factor = nfixRootFactor(rootFactor);
   const shootN = convertUnit(shootDm, "t/ha", "kg/ha") * (shootNPct / 100);
+  // Stryker disable next-line StringLiteral: equivalent: every input is bounded (60 t/ha × 16 % × 100 % × factor ≤ 10), so the product is always finite and this message never shows
   return finite(shootN * (ndfaPct / 100) * factor, "fixed N");
 }
 
@@ -197,6 +204,7 @@ export function nfixPerTonne(shootDm: number, kgNPerT: string | number | undefin
   shootDmOk(shootDm);
   const rule = nfixKgPerTonne(kgNPerT);
   const factor = nfixRootFactor(rootFactor === undefined || (typeof rootFactor === "string" && rootFactor.trim() === "") ? "shoot" : rootFactor);
+  // Stryker disable next-line StringLiteral: equivalent: every input is bounded (60 t/ha × 160 kg/t × factor ≤ 10), so the product is always finite and this message never shows
   return finite(shootDm * rule * factor, "fixed N");
 }
 
@@ -217,6 +225,7 @@ export function nfixNBalance(fixedN: number, grainYield: number, grainNPct: numb
   grainYieldOk(grainYield);
   nPctOk(grainNPct, "grain_n_pct");
   const removed = convertUnit(grainYield, "t/ha", "kg/ha") * (grainNPct / 100);
+  // Stryker disable next-line StringLiteral: equivalent: fixedN and removed are finite and ≥ 0, so their difference lies between −removed and fixedN and is always finite
   return finite(fixedN - removed, "N balance");
 }
 
@@ -233,6 +242,7 @@ export function nfixNBalance(fixedN: number, grainYield: number, grainNPct: numb
 export function nfixShootDm(grainYield: number, harvestIndex: number): number {
   grainYieldOk(grainYield);
   checkHinted(harvestIndex, NFIX_BOUNDS.harvestIndex, (v) =>
+    // Stryker disable next-line EqualityOperator: equivalent for v >= 1: a harvest index of 1 is accepted, so it never reaches the hint
     v > 1 ? "give harvest_index as a fraction from 0 to 1 (a percentage such as 35 is 0.35)" : undefined,
   );
   return finite(grainYield / harvestIndex, "shoot dry matter");

@@ -24,7 +24,9 @@ export const NODULATION_BOUNDS = {
 function count(value: number, bound: Bound): number {
   check(value, bound);
   if (!Number.isInteger(value)) {
-    const hint = value > 0 && value < 1 ? `; ${value} looks like a fraction: give the number counted, not a share` : "";
+    // Every count bound starts at 0 or 1, so a value here is not negative: a non-whole value under 1 is a share.
+    // Stryker disable next-line EqualityOperator: equivalent for value <= 1: 1 is a whole number, so it never reaches here
+    const hint = value < 1 ? `; ${value} looks like a fraction: give the number counted, not a share` : "";
     throw new SoilError("OUT_OF_RANGE", `${bound.name} must be a whole number of ${bound.unit} (got ${value})${hint}`);
   }
   return value;
@@ -71,6 +73,7 @@ function fewText(plantsDug: number): string {
  */
 export function nfixNodulatedPct(plantsDug: number, plantsAdequate: number): number {
   const adequate = adequateOf(plantsDug, plantsAdequate);
+  // Stryker disable next-line StringLiteral: equivalent: at most 1000 plants over at least 1 is always finite, so this message never shows
   return finite((100 * adequate) / plantsDug, "% of plants adequately nodulated");
 }
 
@@ -112,6 +115,7 @@ export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, 
     }
   }
   const scale = NODULATION_SCALE.levels; // highest first
+  // Stryker disable next-line ArithmeticOperator: equivalent: the lowest level starts at 0 %, so find always finds one and the fallback is never used
   const band = scale.find((l) => adequate * 100 >= l.min_pct * plantsDug) ?? scale[scale.length - 1]!;
   const unknownNone = adequate === 0 && nodules === undefined ? "; count nodules to tell Poor from None" : "";
   return `${band.label}: ${pctText(adequate, plantsDug)} of plants adequately nodulated (${band.range}${unknownNone})${fewText(plantsDug)} ${source}`;
@@ -120,6 +124,7 @@ export function nfixNodulationRating(plantsDug: number, plantsAdequate: number, 
 /** Rank of a rating for comparisons: None 0, Poor 1, Borderline 2, Adequate 3. */
 export function nodulationRank(rating: string): number {
   const label = rating.split(":")[0];
+  // Stryker disable next-line StringLiteral: equivalent: split always returns at least one part, so the default is never used
   return [NODULATION_SCALE.none.label, ...NODULATION_SCALE.levels.map((l) => l.label).reverse()].indexOf(label ?? "");
 }
 
@@ -141,6 +146,7 @@ export function nfixPinkNodulePct(nodules: number, nodulesPink: number): number 
   if (nodulesPink > nodules) {
     throw new SoilError("OUT_OF_RANGE", `nodules_pink (${nodulesPink}) is more than nodules (${nodules}): give the number of nodules pink inside, not a percentage`);
   }
+  // Stryker disable next-line StringLiteral: equivalent: at most 100000 pink over at least 1 nodule is always finite, so this message never shows
   return finite((100 * nodulesPink) / nodules, "% of nodules pink");
 }
 

@@ -237,3 +237,108 @@ describe("properties (readings invented)", () => {
     );
   });
 });
+
+describe("wording of each clause and of the screen (readings invented; probes of how the text is put together)", () => {
+  const MO_CLEAR_6 = "Mo: pH 6 (CaCl2) is above 5.5 [Molybdenum - NSW fact sheet, soilquality.org.au; the source does not state its pH test]";
+  const PEA_PH_6 = "pH 6 (CaCl2) is not below 5.5 [GRDC Paddock Practices 2022 (SARDI)]";
+  it("ph_method: a blank or unknown test is refused naming ph_method", () => {
+    expect(message(() => nfixPhTest(" "))).toBe('ph_method is required: "CaCl2" or "water" (different tests; never assumed)');
+    expect(message(() => nfixPhTest("KCl"))).toBe('unknown ph_method "KCl"; use CaCl2 or water');
+  });
+  it("every screen has the four checks in order, whether each is made or not", () => {
+    for (const args of [["lucerne", 6, "CaCl2"], ["lucerne", 6, "CaCl2", undefined, 0.2], ["soybean", 5, "water"], ["field pea", 6, "CaCl2", 40]] as const) {
+      expect(nfixSoilChecks(...(args as unknown as Parameters<typeof nfixSoilChecks>)).map((c) => c.check)).toEqual(["pH", "nitrate", "Mo", "B"]);
+    }
+  });
+  it("a legume with no pH level and no note: the bare reason, nothing added", () => {
+    expect(nfixSoilChecks("mungbean", 6, "CaCl2")[0]!.text).toBe("pH for the rhizobia: no published level for mungbean found");
+  });
+  it("no nitrate level: says so; not given: lists every level with its source, comma-separated", () => {
+    expect(nfixSoilChecks("soybean", 6, "CaCl2")[1]!.text).toBe("nitrate-N at sowing: no published suppression level for soybean found");
+    expect(nfixSoilChecks("field pea", 6, "CaCl2")[1]!.text).toBe(
+      "nitrate-N at sowing: not given (levels for field pea: 56 kg N/ha [Voisin et al. 2002, Plant Soil], 100 kg N/ha [Cox (DAF Qld), GRDC Communities], 380 kg N/ha [Voisin et al. 2002, Plant Soil])",
+    );
+  });
+  it("nitrate clear: different levels are each stated; the same level from two sources is cited together", () => {
+    expect(nfixSoilChecks("field pea", 6, "CaCl2", 40)[1]!.text).toBe(
+      "nitrate-N 40 kg N/ha at sowing is below 56 [Voisin et al. 2002, Plant Soil], and not above 100 [Cox (DAF Qld), GRDC Communities], and not above 380 [Voisin et al. 2002, Plant Soil]",
+    );
+    expect(nfixSoilChecks("chickpea", 6, "CaCl2", 60)[1]!.text).toBe(
+      "nitrate-N 60 kg N/ha at sowing is not above 100 [Cox (DAF Qld), GRDC Communities; GRDC Communities, chickpeas into high-N soils]",
+    );
+  });
+  it("nitrate flagged by several levels: each with its meaning and source, joined by ', and'", () => {
+    const t = nfixSoilChecks("field pea", 6, "CaCl2", 400)[1]!.text;
+    expect(t).toMatch(/^nitrate-N 400 kg N\/ha at sowing is at or above 56: fixation by pea does not start until soil nitrate falls below 56 kg N\/ha \[Voisin et al\. 2002, Plant Soil\], and above 100: /);
+    expect(t).toMatch(/they use the soil N instead \[Cox \(DAF Qld\), GRDC Communities\], and above 380: nitrate inhibition .* over 380 kg N\/ha \[Voisin et al\. 2002, Plant Soil\]$/);
+  });
+  it("a flagged nitrate for a legume without a nitrate note ends at the source; a clear one for faba bean gets no 'but'", () => {
+    expect(nfixSoilChecks("lentil", 6, "CaCl2", 150)[1]!.text).toMatch(/pulses are unlikely to fix much N: they use the soil N instead \[Cox \(DAF Qld\), GRDC Communities\]$/);
+    const faba = nfixSoilChecks("faba bean", 6, "CaCl2", 50)[1]!;
+    expect(faba.status).toBe("clear");
+    expect(faba.text).toBe("nitrate-N 50 kg N/ha at sowing is not above 100 [Cox (DAF Qld), GRDC Communities]");
+  });
+  it("Mo clear: the side and the source, nothing else", () => {
+    expect(nfixSoilChecks("field pea", 6, "CaCl2")[2]!.text).toBe(MO_CLEAR_6);
+  });
+  it("B flagged: method, reading, side, meaning and source; B clear: no meaning", () => {
+    expect(nfixSoilChecks("lucerne", 6, "CaCl2", undefined, 0.2)[3]!.text).toBe(
+      "hot water B 0.2 mg/kg is below 0.34: hot-water-soluble B below 0.34 mg/kg (air-dry soil) gave under 90 % of maximum lucerne yield, with B deficiency symptoms [Haddad & Kaldor 1982, Aust J Exp Agric Anim Husb 22:317]",
+    );
+    expect(nfixSoilChecks("lucerne", 6, "CaCl2", undefined, 0.5)[3]!.text).toBe("hot water B 0.5 mg/kg is not below 0.34 [Haddad & Kaldor 1982, Aust J Exp Agric Anim Husb 22:317]");
+  });
+  it("constraints are joined by '; ', and the clear checks follow as 'No constraint' only when some were clear", () => {
+    const two = nfixSoilText("field pea", 5.1, "CaCl2", 400);
+    expect(two).toContain("especially below pH 5.5 (CaCl2) [GRDC Paddock Practices 2022 (SARDI)]; nitrate-N 400 kg N/ha");
+    expect(two).not.toContain("No constraint");
+    const one = nfixSoilText("lentil", 6, "CaCl2", 150);
+    expect(one).toContain(`GRDC Communities]. No constraint: ${PEA_PH_6}; ${MO_CLEAR_6}. Not checked: B:`);
+  });
+  it("no constraint: the clear checks come after the head, with no 'No constraint' repeat", () => {
+    const t = nfixSoilText("field pea", 6, "CaCl2");
+    expect(t).toMatch(new RegExp(`^none found in the checks made: ${PEA_PH_6.replace(/[.()[\]]/g, "\\$&")}; Mo: `));
+    expect(t).not.toContain("No constraint");
+  });
+  it("possible flags are joined by '; '; without any, nothing is added between the head and 'Not checked'", () => {
+    expect(nfixSoilText("faba bean", 5, "CaCl2", 150)).toContain("[GRDC fact sheet 2013, N fixation of chickpeas and faba beans]; Mo: pH 5 (CaCl2) is at or below 5.5");
+    expect(nfixSoilText("field pea", 6, "CaCl2")).toContain(`${MO_CLEAR_6}. Not checked: nitrate-N`);
+  });
+  it("the checks not made are joined by '; '", () => {
+    expect(nfixSoilText("soybean", 6, "CaCl2")).toBe(
+      `none found in the checks made: ${MO_CLEAR_6}. Not checked: pH for the rhizobia: no published level for soybean found; nitrate-N at sowing: no published suppression level for soybean found; B: no published soil-test level for soybean found.`,
+    );
+  });
+});
+
+describe("levels the data file does not hold today (a changed copy of legume-checks.json, mocked)", () => {
+  // No pH row states "not stated" and no legume has all four levels; these probe the code's handling.
+  const DATA = "../../../src/data/nitrogen/legume-checks.json";
+  type FixSoil = typeof import("../../../src/core/nitrogen/fixation-soil");
+  const withChangedData = (): FixSoil => {
+    const copy = JSON.parse(JSON.stringify(table)) as typeof table;
+    copy.ph_levels.find((l) => l.id === "pulse-acid")!.test = "not stated";
+    copy.legumes.find((l) => l.id === "field pea")!.boron = "lucerne-hot-water" as unknown as null;
+    let mod: FixSoil | undefined;
+    jest.isolateModules(() => {
+      jest.doMock(DATA, () => copy);
+      mod = require("../../../src/core/nitrogen/fixation-soil") as FixSoil;
+    });
+    jest.dontMock(DATA);
+    return mod!;
+  };
+  it("a pH level whose test is not stated is compared with either test, and the citation says so", () => {
+    const m = withChangedData();
+    const water = m.nfixSoilChecks("field pea", 5, "water", 40, 0.5)[0]!;
+    expect(water.status).toBe("constraint");
+    expect(water.text).toMatch(/^pH 5 \(water\) is below 5\.5: the rhizobia .* \[GRDC Paddock Practices 2022 \(SARDI\); the source does not state its pH test\]$/);
+    expect(m.nfixSoilChecks("field pea", 6, "CaCl2", 40, 0.5)[0]!.text).toBe(
+      "pH 6 (CaCl2) is not below 5.5 [GRDC Paddock Practices 2022 (SARDI); the source does not state its pH test]",
+    );
+  });
+  it("with every check made, the screen ends after the clear checks: no 'Not checked'", () => {
+    const m = withChangedData();
+    const t = m.nfixSoilText("field pea", 6, "CaCl2", 40, 0.5);
+    expect(t).toMatch(/; hot water B 0\.5 mg\/kg is not below 0\.34 \[Haddad & Kaldor 1982, Aust J Exp Agric Anim Husb 22:317\]\.$/);
+    expect(t).not.toContain("Not checked");
+  });
+});

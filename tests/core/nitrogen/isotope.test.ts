@@ -108,3 +108,53 @@ describe("properties (inputs invented)", () => {
   });
 });
 
+
+describe("boundaries and refusal messages (probes of the code's own guards; values invented)", () => {
+  it("a result of exactly −20 % or 120 % is returned; just beyond is OUT_OF_RANGE", () => {
+    // spread 5 ‰: %Ndfa = 20 × (4 − legume)
+    expect(nfixNdfa(4, 5, -1)).toBe(-20);
+    expect(nfixNdfa(4, -2, -1)).toBe(120);
+    expect(code(() => nfixNdfa(4, 5.01, -1))).toBe("OUT_OF_RANGE");
+    expect(code(() => nfixNdfa(4, -2.01, -1))).toBe("OUT_OF_RANGE");
+  });
+  it("the far-below and far-above messages give the result and the δ15N values", () => {
+    expect(message(() => nfixNdfa(4, 8, -1))).toBe(
+      "%Ndfa is -80 %, far below 0: the legume (8 ‰) is much more 15N-enriched than the reference (4 ‰); check the reference plant and the samples",
+    );
+    expect(message(() => nfixNdfa(4, -3, -1))).toBe(
+      "%Ndfa is 140 %, far above 100: the legume (-3 ‰) is well below the B value (-1 ‰); the B value does not fit this legume or a sample is wrong",
+    );
+  });
+  it("the NOT_APPLICABLE messages give the values", () => {
+    expect(message(() => nfixNdfa(-1, -1, -1))).toBe(
+      "d15n_reference equals b_value (-1 ‰): the natural abundance method cannot tell soil N from fixed N here",
+    );
+    expect(message(() => nfixNdfa(-2, 1, -1))).toBe(
+      "d15n_reference (-2 ‰) is below b_value (-1 ‰): the reference must be more 15N-enriched than B; check the order (reference, legume, B)",
+    );
+    expect(message(() => nfixNdfa(0.5, 0, -1))).toBe(
+      "d15n_reference is only 1.5 ‰ above b_value (less than 2 ‰): too little natural 15N enrichment for a reliable %Ndfa",
+    );
+  });
+  it("a spread so small that the quotient overflows (min_gap 0) is refused as not computable", () => {
+    expect(code(() => nfixNdfa(5e-324, -1, 0, 0))).toBe("OUT_OF_RANGE");
+    expect(message(() => nfixNdfa(5e-324, -1, 0, 0))).toBe("%Ndfa cannot be computed for these inputs (result is not finite)");
+  });
+  it("N-difference refusals name the offending argument", () => {
+    expect(message(() => nfixNDifference(-1, 0))).toContain("legume_n must be");
+    expect(message(() => nfixNDifference(0, -1))).toContain("reference_n must be");
+    expect(message(() => nfixNDifference(10, 0, -5, 0))).toContain("legume_soil_n must be");
+    expect(message(() => nfixNDifference(10, 0, 0, -5))).toContain("reference_soil_n must be");
+  });
+  it("only one soil value, either one: MISSING_INPUT naming the missing one, whatever the given value", () => {
+    expect(message(() => nfixNDifference(250, 90, 40, undefined))).toBe(
+      "reference_soil_n is needed: the soil N term takes both legume_soil_n and reference_soil_n, or neither",
+    );
+    expect(code(() => nfixNDifference(250, 90, undefined, 40))).toBe("MISSING_INPUT");
+    expect(code(() => nfixNDifference(250, 90, undefined, -40))).toBe("MISSING_INPUT");
+    expect(code(() => nfixNDifference(250, 90, -40, undefined))).toBe("MISSING_INPUT");
+  });
+  it("N yields so large that the sum overflows are refused as not computable", () => {
+    expect(message(() => nfixNDifference(1.7e308, 0, 1.7e308, 0))).toBe("fixed N cannot be computed for these inputs (result is not finite)");
+  });
+});

@@ -250,3 +250,70 @@ describe("properties (inputs invented)", () => {
   });
 });
 
+
+describe("refusal messages and hints (boundary probes; values exercise the code only)", () => {
+  it("a refusal with no hint is the plain range message, nothing appended", () => {
+    // HI 0 gets no percentage hint, %Ndfa 0.5 no clamping hint, factor check with no SoilError hint text.
+    expect(message(() => nfixShootDm(2, 0))).toBe("harvest_index must be above 0 to 1 (got 0)");
+    expect(message(() => nfixShootDm(2, 0))).not.toMatch(/undefined|percentage/);
+    expect(message(() => nfixShootDm(2, -0.2))).not.toMatch(/fraction from 0 to 1/);
+  });
+  it("the kg/ha hint names the argument and is only given for a too-large value", () => {
+    expect(message(() => nfixFixedN(8000, 2.5, 80, "shoot"))).toContain("this looks like kg/ha: give shoot_dm in t/ha (kg/ha ÷ 1000)");
+    expect(message(() => nfixNBalance(100, 2500, 4))).toContain("give grain_yield in t/ha");
+    expect(message(() => nfixShootDm(2500, 0.4))).toContain("give grain_yield in t/ha");
+    expect(message(() => nfixFixedN(-1, 2.5, 80, "shoot"))).not.toMatch(/kg\/ha/);
+    expect(message(() => nfixNBalance(100, -2, 4))).not.toMatch(/kg\/ha/);
+  });
+  it("the crude-protein hint is only given above 16 %, not for a too-small N %", () => {
+    expect(message(() => nfixFixedN(8, 22, 80, "shoot"))).toContain("this looks like crude protein: N % = crude protein % ÷ 6.25");
+    expect(message(() => nfixFixedN(8, 0.1, 80, "shoot"))).not.toMatch(/crude protein/);
+    expect(message(() => nfixFixedN(8, -1, 80, "shoot"))).not.toMatch(/crude protein/);
+    expect(message(() => nfixNBalance(100, 2, 25))).toContain("grain_n_pct");
+    expect(message(() => nfixFixedN(8, 22, 80, "shoot"))).toContain("shoot_n_pct");
+  });
+  it("the not-clamped %Ndfa hint is given below 0 and above 100 only", () => {
+    const hint = "a %Ndfa slightly outside 0–100 from measurement error must be set to 0 or 100 by you; it is not clamped";
+    expect(message(() => nfixFixedN(8, 2.5, 104, "shoot"))).toContain(hint);
+    expect(message(() => nfixFixedN(8, 2.5, -3, "shoot"))).toContain(hint);
+    expect(message(() => nfixFixedN(8, 2.5, 100.5, "shoot"))).toContain(hint);
+    expect(message(() => nfixFixedN(8, 2.5, -0.5, "shoot"))).toContain(hint);
+    expect(message(() => nfixFixedN(8, 2.5, 0.5, "shoot"))).not.toContain("not clamped");
+    expect(message(() => nfixFixedN(8, 2.5, 1, "shoot"))).not.toContain("not clamped");
+    expect(nfixFixedN(8, 2.5, 100, "shoot")).toBeCloseTo(200, 12);
+  });
+  it("a factor below 1 gets the 'at least 1' hint, one above 10 the conversion hint", () => {
+    expect(message(() => nfixRootFactor(0.8))).toContain("root_factor is whole-plant N ÷ shoot N, so at least 1 (1 = shoots only)");
+    expect(message(() => nfixRootFactor(0.8))).not.toContain("100 ÷ (100 − s)");
+    expect(message(() => nfixRootFactor(40))).toContain("from a below-ground share s % of plant N it is 100 ÷ (100 − s)");
+    expect(nfixRootFactor(1)).toBe(1);
+    expect(nfixRootFactor(10)).toBe(10);
+  });
+  it("numeric text is read after trimming spaces", () => {
+    expect(nfixRootFactor(" 1.5 ")).toBe(1.5);
+    expect(nfixKgPerTonne(" 18 ")).toBe(18);
+  });
+  it("a decimal comma is NOT_A_NUMBER naming the argument and the fix", () => {
+    expect(message(() => nfixRootFactor("1,5"))).toBe('root_factor: "1,5" is not a number (use a full stop as the decimal separator)');
+    expect(code(() => nfixKgPerTonne("18,5"))).toBe("NOT_A_NUMBER");
+    expect(message(() => nfixKgPerTonne("18,5"))).toBe('kg_n_per_t: "18,5" is not a number (use a full stop as the decimal separator)');
+  });
+  it("unknown words: the message says what numbers are accepted and lists the words", () => {
+    expect(message(() => nfixRootFactor("lupin"))).toBe(
+      'unknown root_factor "lupin"; use a number from 1 to 10, or shoot, walley2007, faba bean, chickpea, mungbean or pigeonpea',
+    );
+    expect(message(() => nfixKgPerTonne("lupin"))).toBe('unknown kg_n_per_t "lupin"; use a number of kg N per t, or pasture or crop');
+  });
+  it("a blank kg_n_per_t is MISSING_INPUT, like an absent one", () => {
+    expect(code(() => nfixKgPerTonne(" "))).toBe("MISSING_INPUT");
+    expect(code(() => nfixKgPerTonne(""))).toBe("MISSING_INPUT");
+    expect(message(() => nfixKgPerTonne(" "))).toContain("kg_n_per_t is needed");
+  });
+  it("a blank root_factor for the per-tonne rule means shoots only", () => {
+    expect(nfixPerTonne(4, 18, " ")).toBeCloseTo(72, 12);
+  });
+  it("a harvest index so small that the shoot DM overflows is refused, not returned as Infinity", () => {
+    expect(code(() => nfixShootDm(2, 1e-320))).toBe("OUT_OF_RANGE");
+    expect(message(() => nfixShootDm(2, 1e-320))).toBe("shoot dry matter cannot be computed for these inputs (result is not finite)");
+  });
+});

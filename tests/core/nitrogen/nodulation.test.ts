@@ -190,3 +190,29 @@ describe("nfixNoduleCount: mean nodules per plant against a published count", ()
     for (const l of table.count_levels) expect(l.seen_at).toMatch(/^https:/);
   });
 });
+
+describe("refusal and note wording (probes of the code's own guards; counts invented)", () => {
+  it("the fraction hint is given for a count between 0 and 1 only, not for 1.5", () => {
+    expect(message(() => nfixNodulatedPct(30, 0.7))).toBe(
+      "plants_adequate must be a whole number of plants (got 0.7); 0.7 looks like a fraction: give the number counted, not a share",
+    );
+    expect(message(() => nfixNodulatedPct(30, 1.5))).toBe("plants_adequate must be a whole number of plants (got 1.5)");
+    expect(message(() => nfixPinkNodulePct(40, 0.25))).toContain("0.25 looks like a fraction");
+  });
+  it("a dig of one plant says 'plant', of two 'plants'", () => {
+    expect(nfixNodulationRating(1, 1)).toContain("; only 1 plant dug: the guide rates a dig of about 30 plants");
+    expect(nfixNodulationRating(2, 1)).toContain("; only 2 plants dug:");
+    expect(nfixNodulationRating(30, 21)).not.toContain("only");
+  });
+  it("too few nodules: 'nodule was' for one, 'nodules were' for more", () => {
+    expect(message(() => nfixNodulationRating(30, 2, 1))).toBe(
+      "plants_adequate is 2 but only 1 nodule was counted on the 30 plants dug: each adequately nodulated plant has nodules, so at least 2; check the two counts (nodules is the total on all plants dug)",
+    );
+    expect(message(() => nfixNodulationRating(30, 5, 3))).toContain("only 3 nodules were counted on the 30 plants dug");
+  });
+  it("with nodules counted, 0 adequate plants is Poor without the 'count nodules' note", () => {
+    const r = nfixNodulationRating(30, 0, 12);
+    expect(r).toMatch(/^Poor: 0 % of plants adequately nodulated/);
+    expect(r).not.toContain("count nodules");
+  });
+});
