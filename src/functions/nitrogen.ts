@@ -70,12 +70,12 @@ const NDFA = declare(
 /**
  * N2 fixed by the N-difference method, kg N/ha: legume N minus reference-crop N (plus the soil N difference).
  * @customfunction NDIFF
- * @param {any[][]} legume_n N in the legume crop, kg N/ha (at least 0).
- * @param {any[][]} reference_n N in the non-fixing reference crop, kg N/ha (at least 0).
+ * @param {any[][]} legume_n N in the legume crop, kg N/ha (0–9600).
+ * @param {any[][]} reference_n N in the non-fixing reference crop, kg N/ha (0–9600).
  * @param {any[][]} [legume_soil_n] Soil mineral N under the legume, kg N/ha; give with reference_soil_n or not at all.
  * @param {any[][]} [reference_soil_n] Soil mineral N under the reference crop, kg N/ha.
  * @returns {any[][]} kg N/ha fixed; negative means the reference took up more N (the method failed).
- * @throws #VALUE! when only one of the two soil N values is given, or for a negative N yield.
+ * @throws #VALUE! when only one of the two soil N values is given, or for an N value below 0 or above 9600 kg N/ha (60 t/ha of shoots at 16 % N: a larger figure is a unit error).
  * @example =SOIL.NDIFF(250, 90) //=> 160
  * Source: N-difference method, Peoples et al. (1989) ACIAR Monograph 11, as tabulated in Frontiers in Microbiology 2023 (formula seen); arithmetic derived.
  */
@@ -91,11 +91,11 @@ const NDIFF = declare(
 /**
  * Net N left by a legume crop, kg N/ha: fixed N minus N removed in grain; negative means soil N was mined.
  * @customfunction NBALANCE
- * @param {any[][]} fixed_n N2 fixed, kg N/ha (at least 0), e.g. from SOIL.NFIXED.
+ * @param {any[][]} fixed_n N2 fixed, kg N/ha (0–96,000), e.g. from SOIL.NFIXED.
  * @param {any[][]} grain_yield Grain yield, t/ha (0–30), same moisture basis as grain_n_pct.
  * @param {any[][]} grain_n_pct Grain N, % (0 for no grain, or 0.2–16; crude protein ÷ 6.25 gives N %; 0.04 is refused as a fraction).
  * @returns {any[][]} kg N/ha; negative when grain removed more N than was fixed.
- * @throws #VALUE! for a negative fixed_n, a grain yield outside 0 to 30 t/ha, or grain N above 16 %.
+ * @throws #VALUE! for a fixed_n below 0 or above 96,000 kg N/ha, a grain yield outside 0 to 30 t/ha, or grain N above 16 %.
  * @example =SOIL.NBALANCE(142.8, 2, 5) //=> 42.8
  * Source: partial N balance, fixed N minus grain N removed (Unkovich, Pate, Sanford & Armstrong 1994, abstract seen); fixed N from the SOIL.NFIXED example, grain yield and N % illustrative, not from a source.
  */

@@ -12,12 +12,20 @@ const DELTA = NDFA.delta_limit_permil.value;
 const delta = (name: string): Bound => ({ name, unit: "‰", min: -DELTA, max: DELTA });
 
 /** Bounds of the isotope and N-difference inputs. */
+/**
+ * The most N a crop (or a soil's mineral pool) can be said to hold, kg N/ha: the largest shoot dry
+ * matter accepted (t/ha) × 1000 kg/t × the largest tissue N % / 100. Derived from the two guards
+ * in checks.json, so a g/ha figure entered as kg/ha, or an overflowing cell, is refused instead of
+ * giving a fixed N in the millions.
+ */
+export const MAX_CROP_N_KG_HA = checks.tissue.max_shoot_dm_t_ha.value * 1000 * (checks.tissue.max_n_pct.value / 100);
+
 export const NDFA_BOUNDS = {
   reference: delta("d15n_reference"),
   legume: delta("d15n_legume"),
   b: delta("b_value"),
   minGap: { name: "min_gap", unit: "‰", min: 0, max: 20 },
-  nYield: (name: string): Bound => ({ name, unit: "kg N/ha", min: 0 }),
+  nYield: (name: string): Bound => ({ name, unit: "kg N/ha", min: 0, max: MAX_CROP_N_KG_HA }),
 } as const;
 
 const fmt = (v: number) => String(Number(v.toPrecision(6)));
@@ -84,12 +92,13 @@ export function nfixNdfa(reference: number, legume: number, b: number, minGap?: 
  * (Peoples et al. 1989, as tabulated in Front. Microbiol. 2023, Table 10; seen). A negative result
  * is returned as computed: it says the reference took up more N than the legume, so the method's
  * assumption (both crops take up the same soil N) failed.
- * @param legumeN N in the legume crop, kg N/ha, ≥ 0
- * @param referenceN N in the non-fixing reference crop, kg N/ha, ≥ 0
- * @param legumeSoilN soil mineral N under the legume, kg N/ha, ≥ 0 (optional, with referenceSoilN)
- * @param referenceSoilN soil mineral N under the reference, kg N/ha, ≥ 0 (optional, with legumeSoilN)
+ * @param legumeN N in the legume crop, kg N/ha, 0 to MAX_CROP_N_KG_HA (9600)
+ * @param referenceN N in the non-fixing reference crop, kg N/ha, 0 to 9600
+ * @param legumeSoilN soil mineral N under the legume, kg N/ha, 0 to 9600 (optional, with referenceSoilN)
+ * @param referenceSoilN soil mineral N under the reference, kg N/ha, 0 to 9600 (optional, with legumeSoilN)
  * @returns kg N/ha fixed
- * @throws MISSING_INPUT when only one of the two soil N values is given; OUT_OF_RANGE below 0
+ * @throws MISSING_INPUT when only one of the two soil N values is given; OUT_OF_RANGE below 0 or
+ *   above 9600
  * @example nfixNDifference(250, 90) //=> 160
  */
 export function nfixNDifference(legumeN: number, referenceN: number, legumeSoilN?: number, referenceSoilN?: number): number {
@@ -105,5 +114,6 @@ export function nfixNDifference(legumeN: number, referenceN: number, legumeSoilN
     const missing = legumeSoilN === undefined ? "legume_soil_n" : "reference_soil_n";
     throw new SoilError("MISSING_INPUT", `${missing} is needed: the soil N term takes both legume_soil_n and reference_soil_n, or neither`);
   }
+  // Stryker disable next-line StringLiteral: equivalent: every term is bounded to 0–9600, so the sum is always finite and the message never shows
   return finite(q, "fixed N");
 }

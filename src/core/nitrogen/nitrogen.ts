@@ -25,7 +25,8 @@ export const NFIX_BOUNDS = {
   rootFactor: { name: "root_factor", min: 1, max: TISSUE.max_root_factor.value },
   /** 1 t of tissue at the largest N % holds 10 × that many kg N: no rule can fix more per tonne. */
   kgNPerT: { name: "kg_n_per_t", unit: "kg N/t", min: 0, max: 10 * TISSUE.max_n_pct.value },
-  fixedN: { name: "fixed_n", unit: "kg N/ha", min: 0 },
+  /** The most a whole plant can hold: the largest shoot DM × the largest N % × the largest root factor (96,000 kg N/ha), so an overflowing or g/ha cell is refused. */
+  fixedN: { name: "fixed_n", unit: "kg N/ha", min: 0, max: TISSUE.max_shoot_dm_t_ha.value * 1000 * (TISSUE.max_n_pct.value / 100) * TISSUE.max_root_factor.value },
   harvestIndex: { name: "harvest_index", min: 0, minExclusive: true, max: 1 },
 } as const satisfies Record<string, Bound | ((n: string) => Bound)>;
 
@@ -212,7 +213,8 @@ export function nfixPerTonne(shootDm: number, kgNPerT: string | number | undefin
  * Net N left by a legume crop, kg N/ha: fixed N − N removed in grain (grain yield × 1000 kg/t ×
  * grain N %/100). Negative means the crop removed more N than it fixed, i.e. it mined soil N
  * (the partial N balance of e.g. Unkovich, Pate, Sanford & Armstrong 1994, Aust. J. Agric. Res.).
- * @param fixedN N2 fixed, kg N/ha, ≥ 0 (from nfixFixedN or a measurement)
+ * @param fixedN N2 fixed, kg N/ha, 0 to 96,000 (from nfixFixedN or a measurement; the bound is the
+ *   largest shoot DM × the largest N % × the largest root factor, a guard against unit errors)
  * @param grainYield grain yield, t/ha, 0–30, on the same moisture basis as grainNPct
  * @param grainNPct grain N, %: 0 (no grain), or 0.2–16 (a larger value is probably crude protein, a
  *   smaller one a fraction)

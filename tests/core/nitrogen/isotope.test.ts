@@ -3,7 +3,7 @@
  * property-test inputs are invented.
  */
 import fc from "fast-check";
-import { nfixNdfa, nfixNDifference } from "../../../src/core/nitrogen/isotope";
+import { MAX_CROP_N_KG_HA, nfixNdfa, nfixNDifference } from "../../../src/core/nitrogen/isotope";
 import { errorCode as code, errorMessage as message } from "../../helpers/errors";
 
 
@@ -154,7 +154,31 @@ describe("boundaries and refusal messages (probes of the code's own guards; valu
     expect(code(() => nfixNDifference(250, 90, undefined, -40))).toBe("MISSING_INPUT");
     expect(code(() => nfixNDifference(250, 90, -40, undefined))).toBe("MISSING_INPUT");
   });
-  it("N yields so large that the sum overflows are refused as not computable", () => {
-    expect(message(() => nfixNDifference(1.7e308, 0, 1.7e308, 0))).toBe("fixed N cannot be computed for these inputs (result is not finite)");
+  it("N yields so large that the sum would overflow are refused by their bound first", () => {
+    expect(message(() => nfixNDifference(1.7e308, 0, 1.7e308, 0))).toBe("legume_n must be from 0 to 9600 kg N/ha (got 1.7e+308 kg N/ha)");
+  });
+});
+
+describe("the N-difference bound: no crop holds more than the largest shoot DM at the largest tissue N %", () => {
+  // 60 t/ha × 1000 kg/t × 16 % = 9600 kg N/ha, derived from the two guards in checks.json (values invented here).
+  it("is derived from the shoot-DM and tissue-N guards", () => {
+    expect(MAX_CROP_N_KG_HA).toBe(9600);
+  });
+  it.each([
+    ["legume_n", [9600.001, 0]],
+    ["reference_n", [0, 9600.001]],
+    ["legume_soil_n", [100, 50, 9600.001, 0]],
+    ["reference_soil_n", [100, 50, 0, 9600.001]],
+  ] as const)("%s: 9600 is read, just above is refused naming the argument and the bound", (name, args) => {
+    const at = args.map((v) => (v > 9600 ? 9600 : v)) as [number, number, number?, number?];
+    expect(Number.isFinite(nfixNDifference(...at))).toBe(true);
+    expect(code(() => nfixNDifference(...(args as unknown as [number, number, number?, number?])))).toBe("OUT_OF_RANGE");
+    expect(message(() => nfixNDifference(...(args as unknown as [number, number, number?, number?])))).toBe(
+      `${name} must be from 0 to 9600 kg N/ha (got 9600.001 kg N/ha)`,
+    );
+  });
+  it("a g/ha figure or an overflowing cell is refused, never a fixed N in the millions", () => {
+    expect(code(() => nfixNDifference(250000, 90000))).toBe("OUT_OF_RANGE");
+    expect(code(() => nfixNDifference(1e308, 0))).toBe("OUT_OF_RANGE");
   });
 });

@@ -317,3 +317,12 @@ describe("refusal messages and hints (boundary probes; values exercise the code 
     expect(message(() => nfixShootDm(2, 1e-320))).toBe("shoot dry matter cannot be computed for these inputs (result is not finite)");
   });
 });
+
+describe("nfixNBalance: the fixed-N bound (largest shoot DM × largest N % × largest root factor)", () => {
+  // 60 t/ha × 1000 × 16 % × 10 = 96,000 kg N/ha, derived from checks.json's guards; inputs invented.
+  it("96,000 kg N/ha is read; just above, a g/ha figure or an overflowing cell is refused naming fixed_n", () => {
+    expect(nfixNBalance(96000, 0, 0)).toBe(96000);
+    expect(message(() => nfixNBalance(96000.5, 0, 0))).toBe("fixed_n must be from 0 to 96000 kg N/ha (got 96000.5 kg N/ha)");
+    expect(code(() => nfixNBalance(1e308, 2, 5))).toBe("OUT_OF_RANGE");
+  });
+});
