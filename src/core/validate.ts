@@ -201,3 +201,24 @@ export function finite(value: number, what: string): number {
   }
   return value;
 }
+
+/** A plain decimal number as text: optional sign, digits with an optional full stop, optional exponent. */
+const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * The number a cell's text states ("12.5", " -.5 ", "1e3"), or undefined for any other text
+ * (a unit, a comma, a censoring sign: no guessing). Spaces at either end are ignored. Text beyond
+ * the range of doubles ("1e999") reads as ±Infinity: every caller refuses it with its own message.
+ */
+export function numericText(text: string): number | undefined {
+  const t = text.trim();
+  return NUMERIC_TEXT.test(t) ? Number(t) : undefined;
+}
+
+/** Why a text a user typed as a number is not one, when the text says: a censored value or a decimal comma. */
+export function notANumberHint(text: string): string {
+  const t = text.trim();
+  if (/^[<>]/.test(t)) return " (a below- or above-detection value is your call: enter a number or leave the cell blank)";
+  if (/\d,\d/.test(t)) return " (use a full stop as the decimal separator)";
+  return "";
+}

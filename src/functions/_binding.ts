@@ -10,6 +10,7 @@
  *   engine's own error value headless), with the code mapped once by `errorKindOf`.
  */
 import { SoilError, errorKindOf, isSoilError, SpreadsheetErrorKind } from "../core/errors";
+import { notANumberHint, numericText } from "../core/validate";
 
 /** What a host puts in one cell of an argument. */
 export type Cell = number | string | boolean | null | undefined | object;
@@ -254,23 +255,18 @@ export function isBlank(c: unknown): boolean {
   return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
 }
 
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 /** A cell as a number; numeric text is accepted. Throws NOT_A_NUMBER otherwise. */
 export function numberOfCell(c: unknown, name: string): number {
   if (typeof c === "number") {
     if (!Number.isFinite(c)) throw new SoilError("NOT_A_NUMBER", `${name} is not a finite number`);
     return c;
   }
-  if (typeof c === "string" && NUMERIC_TEXT.test(c.trim())) return Number(c.trim());
-  const shown = typeof c === "string" ? `"${c}"` : String(c);
-  const hint =
-    typeof c === "string" && /^\s*[<>]/.test(c)
-      ? " (a below- or above-detection value is your call: enter a number or leave the cell blank)"
-      : typeof c === "string" && /\d,\d/.test(c)
-        ? " (use a full stop as the decimal separator)"
-        : "";
-  throw new SoilError("NOT_A_NUMBER", `${name}: ${shown} is not a number${hint}`);
+  if (typeof c === "string") {
+    const n = numericText(c);
+    if (n !== undefined) return n;
+    throw new SoilError("NOT_A_NUMBER", `${name}: "${c}" is not a number${notANumberHint(c)}`);
+  }
+  throw new SoilError("NOT_A_NUMBER", `${name}: ${String(c)} is not a number`);
 }
 
 function textOfCell(c: unknown, name: string): string {

@@ -4,7 +4,7 @@
  * outside, and a value that looks like a fraction (Excel keeps a cell shown as 95 % as 0.95) is
  * refused with a hint. The ranges' sources are named in validate.ts beside each range.
  */
-import { Bound, check, finite, PERCENT, percentListLooksFractional } from "../../src/core/validate";
+import { Bound, check, finite, notANumberHint, numericText, PERCENT, percentListLooksFractional } from "../../src/core/validate";
 import { limeProductRate } from "../../src/core/lime/product";
 import { limeBaseSat } from "../../src/core/lime/methods";
 import { errorCode, errorMessage } from "../helpers/errors";
@@ -164,5 +164,32 @@ describe("messages read whole, second round", () => {
   it("the CCE range names the sources of its bottom, the weakest liming materials", () => {
     expect(PERCENT.cce.basis).toContain("wood ash, 22-49 %: Commun. Soil Sci. Plant Anal. 2017");
     expect(PERCENT.cce.basis).toContain("Muse & Mitchell 1995");
+  });
+});
+
+describe("numericText and notANumberHint: the one reading of numbers typed as text (values invented)", () => {
+  it.each([
+    ["12.5", 12.5],
+    [" -.5 ", -0.5],
+    ["+3.", 3],
+    ["1e3", 1000],
+    ["2.5E-2", 0.025],
+  ])("%j reads as %p", (text, value) => {
+    expect(numericText(text)).toBe(value);
+  });
+  it.each(["", " ", "12,5", "1 250", "<0.05", "5 mg/kg", "e5", "1e", ".", "+", "0x10", "Infinity", "NaN", "1e5x"])("%j is not a number", (text) => {
+    expect(numericText(text)).toBeUndefined();
+  });
+  it("text beyond the doubles reads as Infinity, for the caller to refuse", () => {
+    expect(numericText("1e999")).toBe(Infinity);
+    expect(numericText("-1e999")).toBe(-Infinity);
+  });
+  it("the hint names a censored value or a decimal comma, and nothing else", () => {
+    expect(notANumberHint(" <0.05")).toBe(" (a below- or above-detection value is your call: enter a number or leave the cell blank)");
+    expect(notANumberHint(">300 ")).toBe(" (a below- or above-detection value is your call: enter a number or leave the cell blank)");
+    expect(notANumberHint("12,5")).toBe(" (use a full stop as the decimal separator)");
+    expect(notANumberHint("5<")).toBe("");
+    expect(notANumberHint("a,5")).toBe("");
+    expect(notANumberHint("abc")).toBe("");
   });
 });

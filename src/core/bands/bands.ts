@@ -18,7 +18,7 @@
  * bands and fertility"); the arithmetic is linear interpolation (derived).
  */
 import { SoilError } from "../errors";
-import { check, finite } from "../validate";
+import { check, finite, numericText } from "../validate";
 
 /** The labels of five bands (four limits) when none are given. */
 export const DEFAULT_BAND_LABELS: readonly string[] = ["Very low", "Low", "Optimum", "High", "Very high"];
@@ -28,8 +28,6 @@ export type CellGrid = readonly (readonly (number | string | boolean | null)[])[
 
 /** Limits or labels as a plain list, or as a one-row or one-column range. */
 export type ListInput<T> = readonly T[] | CellGrid;
-
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 /** A list of rows; an empty list counts as one too, and reads as no cells either way. */
 function isGrid(x: readonly unknown[]): x is CellGrid {
@@ -78,12 +76,10 @@ function bandLimits(input: ListInput<number | string | boolean | null>): readonl
       if (!Number.isFinite(c)) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} is not a finite number`);
       return c;
     }
-    if (typeof c === "string") {
-      const t = c.trim();
-      // Text such as "1e999" reads as Infinity: refused like an infinite number, never a limit.
-      if (NUMERIC_TEXT.test(t) && Number.isFinite(Number(t))) return Number(t);
-      if (NUMERIC_TEXT.test(t)) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} ("${c}") is not a finite number`);
-    }
+    const n = typeof c === "string" ? numericText(c) : undefined;
+    // Text such as "1e999" reads as Infinity: refused like an infinite number, never a limit.
+    if (n !== undefined && Number.isFinite(n)) return n;
+    if (n !== undefined) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} ("${c}") is not a finite number`);
     throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} (${typeof c === "string" ? `"${c}"` : String(c)}) is not a number`);
   });
   for (let i = 1; i < limits.length; i++) {

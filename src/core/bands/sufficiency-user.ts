@@ -12,6 +12,7 @@
  */
 import { SoilError } from "../errors";
 import { normaliseWord } from "../names";
+import { numericText } from "../validate";
 import { CellGrid } from "./bands";
 import { CROPS, METHODS, NUTRIENTS } from "./sufficiency-rows";
 
@@ -28,8 +29,6 @@ export interface UserRow {
   readonly limits: readonly number[];
   readonly labels: readonly string[];
 }
-
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 function isBlank(c: unknown): boolean {
   return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
@@ -101,10 +100,10 @@ export function userTable(range: CellGrid): readonly UserRow[] {
         }
         labels.push(c.trim());
       } else {
-        // Number.isFinite is true only for a finite number (it converts nothing); Number() ignores the spaces the test allows.
-        if (Number.isFinite(c)) limits.push(c as number);
-        // Text such as "1e999" reads as Infinity, which is no limit: refused below.
-        else if (typeof c === "string" && NUMERIC_TEXT.test(c.trim()) && Number.isFinite(Number(c))) limits.push(Number(c));
+        // Number.isFinite is true only for a finite number (it converts nothing). Text such as
+        // "1e999" reads as Infinity, which is no limit: refused below.
+        const limit = typeof c === "string" ? numericText(c) : c;
+        if (Number.isFinite(limit)) limits.push(limit as number);
         else throw new SoilError("NOT_A_NUMBER", `row ${n}, column ${col} of the table should be a limit (a number), got ${isBlank(c) ? "a blank" : `"${String(c)}"`}`);
         const k = limits.length - 1;
         if (k > 0 && !(limits[k]! > limits[k - 1]!)) {

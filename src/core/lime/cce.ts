@@ -16,7 +16,7 @@ import { molarMass } from "../chemistry";
 import { SoilError, listWords } from "../errors";
 import { nameTable } from "../names";
 import { LimeRange } from "./table";
-import { check, finite } from "../validate";
+import { check, finite, numericText } from "../validate";
 
 interface CceForm {
   readonly id: string;
@@ -102,8 +102,6 @@ function listOf(range: LimeRange, name: string): (number | string | null)[] {
   return range.flat().map((c) => (typeof c === "string" && c.trim() === "" ? null : typeof c === "boolean" ? String(c) : c));
 }
 
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 /**
  * limeCce for worksheet ranges: the analysis and the forms, each one row or column of the same
  * length. Pairs blank in both are ignored (a generous selection); a form with a blank percentage
@@ -131,9 +129,9 @@ export function limeCceOfRanges(analysisPct: LimeRange, formWords: LimeRange): n
     if (v === null) throw new SoilError("MISSING_INPUT", `analysis_pct for ${form.trim()} is blank; enter 0 if the product has none`);
     if (typeof v === "number") pcts.push(v);
     else {
-      const text = v.trim();
-      if (!NUMERIC_TEXT.test(text)) throw new SoilError("NOT_A_NUMBER", `analysis_pct for ${form.trim()}: "${v}" is not a number`);
-      pcts.push(Number(text));
+      const n = numericText(v);
+      if (n === undefined) throw new SoilError("NOT_A_NUMBER", `analysis_pct for ${form.trim()}: "${v}" is not a number`);
+      pcts.push(n);
     }
     names.push(form);
   });

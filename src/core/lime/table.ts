@@ -9,7 +9,7 @@
  * are read between their printed steps (common practice); no table values live in this file.
  */
 import { SoilError } from "../errors";
-import { check, finite } from "../validate";
+import { check, finite, numericText } from "../validate";
 
 /** A range as core receives it: rows of numbers, text, booleans or null (blank). */
 export type LimeRange = readonly (readonly (number | string | boolean | null)[])[];
@@ -29,8 +29,6 @@ export interface LimeTable {
 /** Floating-point slack at the table's edges (a computed 6.9000000001 is still 6.9). */
 const EDGE = 1e-9;
 
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 function isBlankCell(c: unknown): boolean {
   return c === null || c === undefined || (typeof c === "string" && c.trim() === "");
 }
@@ -38,10 +36,8 @@ function isBlankCell(c: unknown): boolean {
 function cellNumber(c: unknown, where: string): number {
   // Number.isFinite is false for anything but a finite number (it does not coerce text).
   if (Number.isFinite(c)) return c as number;
-  if (typeof c === "string") {
-    const text = c.trim();
-    if (NUMERIC_TEXT.test(text)) return Number(text);
-  }
+  const n = typeof c === "string" ? numericText(c) : undefined;
+  if (n !== undefined) return n;
   if (isBlankCell(c)) throw new SoilError("NOT_APPLICABLE", `the calibration range has a blank cell at ${where}; fill it or trim the range`);
   throw new SoilError("NOT_A_NUMBER", `the calibration range has "${String(c)}" at ${where}, which is not a number`);
 }

@@ -7,7 +7,7 @@
 import table from "../../data/nitrogen/legume-checks.json";
 import { SoilError } from "../errors";
 import { nameTable } from "../names";
-import { check, Bound } from "../validate";
+import { check, Bound, notANumberHint, numericText } from "../validate";
 
 /** How a reading is compared with a published level, as the source words it. */
 export type FlagWhen = "below" | "at_or_below" | "above" | "at_or_above";
@@ -54,23 +54,14 @@ export interface Legume {
   readonly note?: string;
 }
 
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 /** An optional measurement: blank or omitted is "not measured", a number or numeric text is read. */
 export function measured(value: string | number | undefined, bound: Bound): number | undefined {
   if (value === undefined) return undefined;
   if (typeof value === "number") return check(value, bound);
-  const t = value.trim();
-  if (t === "") return undefined;
-  if (!NUMERIC_TEXT.test(t)) {
-    const hint = /^[<>]/.test(t)
-      ? " (a below- or above-detection value is your call: enter a number or leave the cell blank)"
-      : /\d,\d/.test(t)
-        ? " (use a full stop as the decimal separator)"
-        : "";
-    throw new SoilError("NOT_A_NUMBER", `${bound.name}: "${value}" is not a number${hint}`);
-  }
-  return check(Number(t), bound);
+  if (value.trim() === "") return undefined;
+  const n = numericText(value);
+  if (n === undefined) throw new SoilError("NOT_A_NUMBER", `${bound.name}: "${value}" is not a number${notANumberHint(value)}`);
+  return check(n, bound);
 }
 
 /** True when `value` lies on the flagged side of the level. */

@@ -10,7 +10,7 @@ import perTonne from "../../data/nitrogen/per-tonne.json";
 import checks from "../../data/nitrogen/checks.json";
 import { SoilError, listWords } from "../errors";
 import { nameTable } from "../names";
-import { check, finite, Bound, PERCENT } from "../validate";
+import { check, finite, Bound, PERCENT, numericText } from "../validate";
 import { convertUnit } from "../units";
 
 const TISSUE = checks.tissue;
@@ -52,13 +52,12 @@ const shootDmOk = (v: number) => checkHinted(v, NFIX_BOUNDS.shootDm, unitHint("s
 const grainYieldOk = (v: number) => checkHinted(v, NFIX_BOUNDS.grainYield, unitHint("grain_yield"));
 const nPctOk = (v: number, name: string) => checkHinted(v, NFIX_BOUNDS.nPct(name), proteinHint);
 
-const NUMERIC_TEXT = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
-
 /** A word-or-number argument as a number: numbers pass, numeric text is read, other text is a word. */
 function numberOrWord(value: string | number, argName: string): number | string {
   if (typeof value === "number") return value;
+  const n = numericText(value);
+  if (n !== undefined) return n;
   const t = value.trim();
-  if (NUMERIC_TEXT.test(t)) return Number(t);
   if (/\d,\d/.test(t)) throw new SoilError("NOT_A_NUMBER", `${argName}: "${value}" is not a number (use a full stop as the decimal separator)`);
   return t;
 }
