@@ -13,13 +13,18 @@
  *                                            run again (on a quiet machine, with a longer
  *                                            MUTATE_TIMEOUT_MS: a loaded machine times out mutants
  *                                            that only ran slowly)
+ *   node scripts/mutation.js --retest-static functions
+ *                                            the same for static mutants (with MUTATE_STATIC=1): a
+ *                                            static mutant that a test also reaches ("hybrid") is
+ *                                            otherwise run against that test alone
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
  *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
  *                                            (Markdown, for the README)
  *
  * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
  * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
- * compile are left out (they can never reach a user), and mutants marked equivalent in the source
+ * compile or that throw while loading ("errors": runtime errors, as Stryker counts them) are left
+ * out (they can never reach a user), and mutants marked equivalent in the source
  * (`// Stryker disable next-line <mutator>: <reason>`) are listed with their reason, never hidden.
  * Static mutants (module-level code, which reruns the folder's every test per mutant) are skipped
  * unless MUTATE_STATIC=1, and counted in their own column, not in the score. Stryker counts a timeout
@@ -42,6 +47,7 @@ const reportOnly = own.includes("--report");
 const showSurvivors = own.includes("--survivors");
 const showEquivalents = own.includes("--equivalents");
 const retestTimeouts = own.includes("--retest-timeouts");
+const retestStatic = own.includes("--retest-static");
 const chosen = own.filter((a) => !a.startsWith("--"));
 for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
 const parts = Object.keys(PARTS).filter((p) => !chosen.length || chosen.includes(p) || chosen.includes(PARTS[p].folder));
@@ -69,19 +75,19 @@ if (showEquivalents) {
   process.exit(0);
 }
 
-/** Drops a part's timed-out mutants from its incremental file, so Stryker tests them again. */
-function forgetTimeouts(part) {
+/** Drops some of a part's mutants from its incremental file, so Stryker tests them again. */
+function forget(part, what, which) {
   const file = path.join(ROOT, "mutation", "incremental", `${part}.json`);
   if (!fs.existsSync(file)) return;
   const report = JSON.parse(fs.readFileSync(file, "utf8"));
   let n = 0;
   for (const f of Object.values(report.files)) {
     const before = f.mutants.length;
-    f.mutants = f.mutants.filter((m) => m.status !== "Timeout");
+    f.mutants = f.mutants.filter((m) => !which(m));
     n += before - f.mutants.length;
   }
   fs.writeFileSync(file, JSON.stringify(report));
-  console.log(`${part}: ${n} timed-out mutants forgotten, to be run again`);
+  console.log(`${part}: ${n} ${what} mutants forgotten, to be run again`);
 }
 
 let failed = false;
@@ -89,7 +95,8 @@ if (!reportOnly && !showSurvivors) {
   for (const part of parts) {
     const folder = PARTS[part].folder;
     console.log(`\n== mutation testing ${part}: ${PARTS[part].mutate.join(" ")} ==`);
-    if (retestTimeouts) forgetTimeouts(part);
+    if (retestTimeouts) forget(part, "timed-out", (m) => m.status === "Timeout");
+    if (retestStatic) forget(part, "static", (m) => m.static === true);
     const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
       cwd: ROOT,
       stdio: "inherit",
@@ -133,13 +140,13 @@ function tally(partNames) {
 }
 const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
 
-console.log("\n                  killed  survived  no-cov  timeout  compile-err  equivalent  static-not-run  score    floor    target");
+console.log("\n                  killed  survived  no-cov  timeout       errors  equivalent  static-not-run  score    floor    target");
 const row = (label, t, target) => {
   const c = t.counts;
   const goal = target ? `≥ ${target} % ${t.score >= target ? "met" : "NOT met"}` : "";
   console.log(
     `${label.padEnd(18)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
-      `${String(c.Timeout).padStart(9)}${String(c.CompileError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ${t.floor.toFixed(1).padStart(5)} %  ${goal}`,
+      `${String(c.Timeout).padStart(9)}${String(c.CompileError + c.RuntimeError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ${t.floor.toFixed(1).padStart(5)} %  ${goal}`,
   );
 };
 for (const folder of FOLDERS) {

@@ -60,6 +60,14 @@ describe("registry", () => {
   // Names JavaScript cannot carry: `yield` is reserved in strict mode, and the metadata generator
   // takes Excel's parameter names from the TypeScript signature.
   const RESERVED: Record<string, Record<string, string>> = { REMOVAL: { yield: "crop_yield" } };
+  it("every binding declares the metadata's argument names, in order, optional where Excel shows them optional", () => {
+    // The declared names are the ones refusal messages use ("ca must be ..."), so they must be the
+    // names Excel shows the user for the same arguments.
+    for (const f of REGISTRY) {
+      expect([f.id, f.spec.params.map((p) => p.name)]).toEqual([f.id, f.meta.parameters.map((p) => p.name)]);
+      expect([f.id, f.spec.params.map((p) => p.optional)]).toEqual([f.id, f.meta.parameters.map((p) => p.optional === true)]);
+    }
+  });
   (catalogue ? it : it.skip)("every built function keeps the catalogue's argument names and order", () => {
     for (const f of REGISTRY) {
       const expected = catalogue!.get(f.id)?.map((n) => RESERVED[f.id]?.[n] ?? n);
