@@ -44,5 +44,5 @@ export default {
   tempDirName: ".stryker-tmp",
   cleanTempDir: "always",
   thresholds: { high: folder === "core" ? 85 : 75, low: folder === "core" ? 85 : 75, break: null },
-  ignorePatterns: ["build", "dist", "demo-output", "help-preview", "mutation/reports", ".stryker-tmp", "*.log"],
+  ignorePatterns: ["build", "dist", "demo-output", "help-preview", "mutation/reports", ".stryker-tmp*", "*.log"],
 };
