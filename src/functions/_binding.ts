@@ -352,6 +352,7 @@ function run(spec: BindingSpec, args: unknown[]): Out {
   }
   const shape = broadcastShape(shapes);
   if ("error" in shape) return [[hostErrorFor(new SoilError("SHAPE_MISMATCH", shape.error))]];
+  // Stryker disable next-line EqualityOperator,ArithmeticOperator,BlockStatement: equivalent: only chooses the path; the column path gives each element what the element path gives (tests/functions/column-path.test.ts)
   if (spec.column && shape.rows * shape.cols >= 16) {
     const fast = runColumn(spec, spec.column, grids, wholes, shape);
     if (fast) return fast;
@@ -375,8 +376,10 @@ function run(spec: BindingSpec, args: unknown[]): Out {
  * element's result is what `element` gives it. Undefined when the arguments do not suit a kernel
  * (a text argument that varies by element, or one that is blank or an error).
  */
+// Stryker disable next-line BlockStatement: equivalent: an empty body returns undefined, which sends every element down the element path
 function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undefined)[], wholes: unknown[], shape: Shape): Out | undefined {
   const { params } = spec;
+  // Stryker disable next-line ArrayDeclaration: equivalent: every index is assigned below (a shared value, or a column in `values`), so the length given up front changes nothing
   const shared: unknown[] = new Array(params.length);
   const columns: (Grid | undefined)[] = new Array(params.length);
   for (let i = 0; i < params.length; i++) {
@@ -392,12 +395,14 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
       continue;
     }
     const single = g.length === 1 && (g[0] as Cell[]).length === 1;
+    // Stryker disable next-line StringLiteral,BooleanLiteral,BlockStatement: equivalent: each leaves every multi-cell argument to the `!single` exit below, and 16+ cells mean there is one, so the call falls back on the element path
     if (p.kind === "number" && !single) {
       columns[i] = g;
       continue;
     }
     const c = (g[0] as Cell[])[0];
     if (!single || errors().is(c)) return undefined;
+    // Stryker disable next-line BooleanLiteral,ConditionalExpression,LogicalOperator,EqualityOperator,StringLiteral: equivalent: a shortcut; elementValue below reads numeric text the same way and refuses (so falls back on) the rest, and a blank falls back as BLANK or reaches the kernel as omitted, as in the element path
     if (p.kind === "number" && !(typeof c === "number" && Number.isFinite(c))) return undefined;
     try {
       const v = elementValue(p, c, false);
@@ -432,6 +437,7 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
     }
     values[i] = a;
   }
+  // Stryker disable next-line ObjectLiteral: equivalent: with no eligible element the loop below never reads the results
   const results = eligible.length ? kernel(values, eligible.length) : { values: new Float64Array(0), errors: new Map<number, SoilError>() };
   const out: Out = [];
   for (let r = 0; r < shape.rows; r++) out.push(new Array(shape.cols));

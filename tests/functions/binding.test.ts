@@ -3,7 +3,8 @@
  * bindings. Inputs are invented; expected values follow from the catalogue's conventions.
  */
 import { convert, cmol } from "../../src/functions/units";
-import { PlainHostError, broadcastShape, specOf } from "../../src/functions/_binding";
+import { PlainHostError, broadcastShape, specOf, declare, hostErrorFor, numberOfCell, num, optText, text, range, cell } from "../../src/functions/_binding";
+import * as errorsModule from "../../src/core/errors";
 
 const err = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : undefined);
 
@@ -56,5 +57,103 @@ describe("binding layer", () => {
   });
   it("broadcastShape: 1×1 pairs with anything", () => {
     expect(broadcastShape([{ name: "a", shape: { rows: 1, cols: 1 } }, { name: "b", shape: { rows: 4, cols: 2 } }])).toEqual({ rows: 4, cols: 2 });
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// The layer itself, through small bindings declared here (values invented; no science involved).
+
+
+const show = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : v);
+const shown = (out: unknown[][]) => out.map((r) => r.map(show));
+
+/** Echoes what core would receive, so each shaping rule can be read off the result. */
+function echoBinding(): void {}
+const ECHO = declare(echoBinding, [range("table"), text("word"), optText("mode", "plain"), cell("reading")] as const, (table, word, mode, reading) =>
+  JSON.stringify([table, word, mode, reading]),
+);
+const echo = (...a: unknown[]) => shown(ECHO(a));
+
+describe("binding layer: cells, texts and whole ranges", () => {
+  it("a plain Error (not a SoilError) becomes #VALUE! 'internal error: …'", () => {
+    expect(show(hostErrorFor(new Error("boom")))).toBe("#VALUE! internal error: boom");
+    expect(show(hostErrorFor("odd"))).toBe("#VALUE! internal error: odd");
+  });
+  it("a non-finite number in a cell is NOT_A_NUMBER naming the argument", () => {
+    expect(() => numberOfCell(Infinity, "ca")).toThrow(expect.objectContaining({ code: "NOT_A_NUMBER", message: "ca is not a finite number" }));
+    expect(show(cmol([[NaN]], [["Ca"]])[0]![0])).toBe("#VALUE! mg_per_kg is not a finite number");
+  });
+  it("text that is no number at all has no hint appended", () => {
+    expect(show(cmol([["abc"]], [["Ca"]])[0]![0])).toBe('#VALUE! mg_per_kg: "abc" is not a number');
+  });
+  it("a text argument takes a number as its text but refuses a boolean", () => {
+    expect(show(cmol([[200]], [[true]])[0]![0])).toBe("#VALUE! ion must be text (got true)");
+    expect(echo([[1]], [[7]], [["m"]], [[2]])).toEqual([['[[[1]],"7","m",2]']]);
+  });
+  it("a blank optional text takes its default; a blank required text is named as required", () => {
+    expect(echo([[1]], [["w"]], [[""]], [[2]])).toEqual([['[[[1]],"w","plain",2]']]);
+    expect(echo([[1]], [["w"]], [["  "]], [[2]])).toEqual([['[[[1]],"w","plain",2]']]);
+    expect(echo([[1]], [[""]], [["m"]], [[2]])).toEqual([["#VALUE! word is required"]]);
+  });
+  it("a whole range passes numbers, texts, booleans and blanks (as null) to core", () => {
+    expect(echo([[1, "a"], [true, ""]], [["w"]], null, [[2]])).toEqual([['[[[1,"a"],[true,null]],"w","plain",2]']]);
+  });
+  it("a whole range holding an error value or another object is refused", () => {
+    expect(echo([[1, new PlainHostError("#N/A", "x")]], [["w"]], null, [[2]])).toEqual([["#VALUE! table holds an error value"]]);
+    expect(echo([[1, { a: 1 }]], [["w"]], null, [[2]])).toEqual([["#VALUE! table holds a value that is neither number nor text"]]);
+  });
+  it("a cell argument: blank in blank out, number or text as it stands, anything else refused", () => {
+    expect(echo([[1]], [["w"]], null, [[""], [null], [3], ["<0.5"], [false]])).toEqual([
+      [""],
+      [""],
+      ['[[[1]],"w","plain",3]'],
+      ['[[[1]],"w","plain","<0.5"]'],
+      ["#VALUE! reading must be a number or text (got false)"],
+    ]);
+  });
+  it("too many arguments, and an empty range, are refused with the reason", () => {
+    expect(shown((cmol as (...a: unknown[]) => unknown[][])([[1]], [["Ca"]], [[1]]))).toEqual([["#VALUE! too many arguments: at most 2"]]);
+    expect(shown(cmol([], [["Ca"]]))).toEqual([["#VALUE! mg_per_kg is an empty range"]]);
+    expect(shown(cmol([[]], [["Ca"]]))).toEqual([["#VALUE! mg_per_kg is an empty range"]]);
+  });
+  it("ranges with the same rows but different columns (or the reverse) do not pair", () => {
+    const two = (a: { rows: number; cols: number }, b: { rows: number; cols: number }) =>
+      broadcastShape([
+        { name: "a", shape: a },
+        { name: "b", shape: b },
+      ]);
+    expect(two({ rows: 2, cols: 3 }, { rows: 2, cols: 2 })).toEqual({ error: "a is 2×3 but b is 2×2; ranges must have the same shape, or be a single cell" });
+    expect(two({ rows: 3, cols: 2 }, { rows: 2, cols: 2 })).toEqual({ error: "a is 3×2 but b is 2×2; ranges must have the same shape, or be a single cell" });
+    expect(two({ rows: 2, cols: 2 }, { rows: 2, cols: 2 })).toEqual({ rows: 2, cols: 2 });
+    expect(shown(cmol([[1, 2, 3]], [["Ca", "Mg"]]))).toEqual([["#VALUE! mg_per_kg is 1×3 but ion is 1×2; ranges must have the same shape, or be a single cell"]]);
+  });
+  it("an element that computes a non-finite number is #VALUE!, not NaN in a cell", () => {
+    function nanBinding(): void {}
+    const NAN = declare(nanBinding, [num("x")] as const, (x) => x / 0 - x / 0);
+    expect(shown(NAN([[[1]]]))).toEqual([["#VALUE! internal error: a result was not a finite number"]]);
+  });
+});
+
+describe("binding layer: the code of each refusal made here", () => {
+  // Hosts receive a refusal's kind and message only, so the code is read where the layer maps it.
+  const codesOf = (f: () => unknown): string[] => {
+    const spy = jest.spyOn(errorsModule, "errorKindOf");
+    try {
+      f();
+      return spy.mock.calls.map((c) => c[0]);
+    } finally {
+      spy.mockRestore();
+    }
+  };
+  it("a value of the wrong type is NOT_A_NUMBER", () => {
+    expect(codesOf(() => cmol([[200]], [[true]]))).toEqual(["NOT_A_NUMBER"]);
+    expect(codesOf(() => echo([[new PlainHostError("#N/A", "x")]], [["w"]], null, [[2]]))).toEqual(["NOT_A_NUMBER"]);
+    expect(codesOf(() => echo([[{}]], [["w"]], null, [[2]]))).toEqual(["NOT_A_NUMBER"]);
+    expect(codesOf(() => echo([[1]], [["w"]], null, [[false]]))).toEqual(["NOT_A_NUMBER"]);
+  });
+  it("too many arguments, an empty range and ranges that do not pair are SHAPE_MISMATCH", () => {
+    expect(codesOf(() => (cmol as (...a: unknown[]) => unknown[][])([[1]], [["Ca"]], [[1]]))).toEqual(["SHAPE_MISMATCH"]);
+    expect(codesOf(() => cmol([[]], [["Ca"]]))).toEqual(["SHAPE_MISMATCH"]);
+    expect(codesOf(() => cmol([[1, 2, 3]], [["Ca", "Mg"]]))).toEqual(["SHAPE_MISMATCH"]);
   });
 });

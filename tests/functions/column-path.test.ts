@@ -6,6 +6,7 @@
 import fc from "fast-check";
 import * as bindings from "../../src/functions";
 import { PlainHostError } from "../../src/functions/_binding";
+import { cec } from "../../src/functions/cations";
 
 const cellArb = fc.oneof(
   { weight: 6, arbitrary: fc.double({ min: -5, max: 4000, noNaN: true }) },
@@ -48,5 +49,116 @@ describe("column kernels through the bindings", () => {
       ),
       { numRuns: 200 },
     );
+  });
+});
+
+/*
+ * The layer's column path through a small binding declared here (invented arithmetic, no science):
+ * x × y plus the number of cells in an optional whole range; x below 0 is refused, x = 13 makes a
+ * non-finite number. The kernel does the same over columns, so any difference is the layer's.
+ */
+import { declare, num, optNum, optRange, ColumnKernel } from "../../src/functions/_binding";
+import { SoilError } from "../../src/core/errors";
+
+function scaleBinding(): void {}
+const tableCells = (t: unknown) => (Array.isArray(t) ? (t as unknown[][]).flat().length : 0);
+const scaleKernel: ColumnKernel = (v, n) => {
+  const at = (a: unknown, i: number) => (a instanceof Float64Array ? (a[i] as number) : (a as number));
+  const values = new Float64Array(n);
+  const errors = new Map<number, SoilError>();
+  for (let i = 0; i < n; i++) {
+    const x = at(v[0], i);
+    if (x < 0) {
+      errors.set(i, new SoilError("OUT_OF_RANGE", "x must be at least 0"));
+      values[i] = NaN;
+    } else values[i] = x === 13 ? NaN : x * at(v[1], i) + tableCells(v[2]);
+  }
+  return { values, errors };
+};
+const SCALE = declare(
+  scaleBinding,
+  [num("x"), optNum("y", 2), optRange("table")] as const,
+  (x, y, table) => {
+    if (x < 0) throw new SoilError("OUT_OF_RANGE", "x must be at least 0");
+    return x === 13 ? NaN : x * (y as number) + tableCells(table);
+  },
+  scaleKernel,
+);
+const scale = (...a: unknown[]) => SCALE(a).map((r) => r.map(show));
+/** Each element on its own (1×1 arguments take the element path). */
+const oneByOne = (grids: (unknown[][] | null)[], table?: unknown) => {
+  const rows = grids.find((g) => g && g.length * (g[0] as unknown[]).length > 1)!;
+  return rows.map((row, r) =>
+    row.map((_, c) => show(SCALE([...grids.map((g) => (g === null ? null : g.length === 1 && g[0]!.length === 1 ? g : [[g[r]![c]]])), table])[0]![0])),
+  );
+};
+const numbers = (rows: number, cols: number, f: (r: number, c: number) => unknown) =>
+  Array.from({ length: rows }, (_, r) => Array.from({ length: cols }, (_, c) => f(r, c)));
+const mixed = (r: number, c: number) => [1.5, -1, 13, "", "4", null, new PlainHostError("#N/A", "an error in a cell"), 7][(r * 5 + c) % 8];
+
+describe("the column path gives what the element path gives (the layer, through a binding declared here)", () => {
+  it.each([
+    ["a 16×1 column", 16, 1],
+    ["a 1×16 row", 1, 16],
+    ["a 4×4 block", 4, 4],
+    ["a 3×7 block", 3, 7],
+  ])("%s of x against a single y, with and without a whole-range table", (_, rows, cols) => {
+    const x = numbers(rows, cols, mixed);
+    for (const y of [[[3]], [["3"]], null, [[""]], [[new PlainHostError("#N/A", "an error in a cell")]], [["n.d."]]]) {
+      for (const table of [undefined, [[1, 2], [3, null]]]) {
+        const whole = scale(x, y, table);
+        expect(whole).toEqual(oneByOne([x, y], table));
+      }
+    }
+    // A spot check of the expected numbers themselves: x 1.5 × y 3 + 4 table cells.
+    expect(scale(x, [[3]], [[1, 2], [3, null]])[0]![0]).toBe(8.5);
+    expect(scale(x, [[3]])[0]![0]).toBe(4.5);
+  });
+  it("both arguments ranges of the same shape pair element by element", () => {
+    const x = numbers(16, 1, (r) => r);
+    const y = numbers(16, 1, (r) => 100 + r);
+    expect(scale(x, y)).toEqual(numbers(16, 1, (r) => (r === 13 ? "#VALUE! internal error: a result was not a finite number" : r * (100 + r))));
+    expect(scale(x, y)).toEqual(oneByOne([x, y]));
+  });
+  it("a required argument left out is named in every element, also over a long range", () => {
+    const y = numbers(16, 1, (r) => r);
+    expect(scale(null, y)).toEqual(numbers(16, 1, () => "#VALUE! x is required"));
+  });
+  it("a range with no plain number in it gives each element's own blank or refusal", () => {
+    const x = numbers(16, 1, (r) => ["", null, "abc"][r % 3]);
+    expect(scale(x, [[3]])).toEqual(oneByOne([x, [[3]]]));
+    expect(scale(x, [[3]])[2]![0]).toBe('#VALUE! x: "abc" is not a number');
+  });
+});
+
+describe("SOIL.CEC over blocks, rows and columns = cell by cell (invented values)", () => {
+  const amounts = (rows: number, cols: number, base: number) => numbers(rows, cols, (r, c) => base + r * 3 + c);
+  const cellByCell = (args: (unknown[][] | null)[]) => {
+    const big = args.find((g) => g && g.length * (g[0] as unknown[]).length > 1)!;
+    return big.map((row, r) =>
+      row.map((_, c) => show((cec as (...a: unknown[]) => unknown[][])(...args.map((g) => (g === null ? null : g.length === 1 && g[0]!.length === 1 ? g : [[g[r]![c]]])))[0]![0])),
+    );
+  };
+  const run = (args: (unknown[][] | null)[]) => (cec as (...a: unknown[]) => unknown[][])(...args).map((r) => r.map(show));
+  it.each([
+    [4, 4],
+    [1, 16],
+    [16, 1],
+  ])("%i×%i ranges, a single mg, the unit as one cell or as a range of the same word", (rows, cols) => {
+    const ca = amounts(rows, cols, 200);
+    const k = amounts(rows, cols, 100);
+    const na = amounts(rows, cols, 5);
+    for (const unit of [[["mg/kg"]], numbers(rows, cols, () => "mg/kg")]) {
+      const args = [ca, [[14]], k, na, unit];
+      const whole = run(args);
+      expect(whole).toEqual(cellByCell(args));
+      expect(whole.flat().every((v) => typeof v === "number")).toBe(true);
+    }
+    const allRanges = [ca, amounts(rows, cols, 10), k, na, numbers(rows, cols, () => "mg/kg")];
+    expect(run(allRanges)).toEqual(cellByCell(allRanges));
+  });
+  it("na left out is named in every element of a 16-cell range", () => {
+    const ca = amounts(16, 1, 200);
+    expect(run([ca, ca, ca, null, [["mg/kg"]]])).toEqual(numbers(16, 1, () => "#VALUE! na is required"));
   });
 });

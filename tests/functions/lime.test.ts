@@ -102,6 +102,13 @@ describe("SOIL.LIMEBASESAT", () => {
     expect(err(one(limebasesat(g(8.9), g(0.5), g(0.7))))).toMatch(/^#VALUE! base_sat must be 0, or above 1 to 100 %.*0\.5 looks like a fraction; enter 50 for 50 %/);
     expect(err(one(limebasesat(g(8.9), g(50), g(0.7))))).toContain("0.7 looks like a fraction; enter 70 for 70 %");
   });
+  it("depth_cm, bulk_density and unit reach the method (arithmetic derived from the 1.00086 t per cmolc/dm3 above)", () => {
+    // T 10 cmol(+)/kg × 1.2 g/cm3 = 12 cmolc/dm3; V 50 → 70 % is 2.4 cmolc/dm3: 2.402064 t/ha for 0–20 cm.
+    expect(one(limebasesat(g(10), g(50), g(70), g(10)))).toBeCloseTo((2 * 1.00086) / 2, 9);
+    expect(one(limebasesat(g(10), g(50), g(70), null as never, g(1.2)))).toBeCloseTo(2.4 * 1.00086, 9);
+    expect(one(limebasesat(g(10), g(50), g(70), null as never, null as never, g("kg/ha")))).toBeCloseTo(2 * 1000.86, 6);
+    expect(one(limebasesat(g(10), g(50), g(70), g(10), g(1.2), g("kg/ha")))).toBeCloseTo(1200 * 1.00086, 6);
+  });
   it("a row of targets broadcasts; V2 ≤ V1 gives 0", () => {
     const out = limebasesat(g(10), g(50), [[40, 50, 70]]);
     expect(out[0]).toEqual([0, 0, expect.any(Number)]);
