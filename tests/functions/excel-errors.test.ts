@@ -1,7 +1,8 @@
 /**
  * In Excel's runtime (a global CustomFunctions), host errors are CustomFunctions.Error with the
  * matching code: #N/A for missing reference data, #VALUE! for every other refusal. The runtime is
- * stood in for by a small fake; the module is loaded fresh so it picks the factory up.
+ * stood in for by a small fake; the module is loaded fresh so it picks the factory up. Values are
+ * invented: they exercise the binding layer only, no published numbers.
  */
 class FakeExcelError {
   constructor(

@@ -1,6 +1,6 @@
 /**
  * The shared reading of legume-checks.json: optional measurements as typed, the legume word and the
- * load-time checks of the data file. Values here exercise the code only (no published numbers).
+ * load-time checks of the data file. Values here are invented: they exercise the code only (no published numbers).
  */
 import { measured, legumeOf } from "../../../src/core/nitrogen/legumes";
 import { errorCode as code, errorMessage as message } from "../../helpers/errors";
