@@ -12,6 +12,7 @@ import { SoilError, listWords } from "../errors";
 import { nameTable } from "../names";
 import { check, finite, Bound, PERCENT, numericText } from "../validate";
 import { convertUnit } from "../units";
+import { MAX_CROP_N_KG_HA } from "./isotope";
 
 const TISSUE = checks.tissue;
 
@@ -26,7 +27,7 @@ export const NFIX_BOUNDS = {
   /** 1 t of tissue at the largest N % holds 10 × that many kg N: no rule can fix more per tonne. */
   kgNPerT: { name: "kg_n_per_t", unit: "kg N/t", min: 0, max: 10 * TISSUE.max_n_pct.value },
   /** The most a whole plant can hold: the largest shoot DM × the largest N % × the largest root factor (96,000 kg N/ha), so an overflowing or g/ha cell is refused. */
-  fixedN: { name: "fixed_n", unit: "kg N/ha", min: 0, max: TISSUE.max_shoot_dm_t_ha.value * 1000 * (TISSUE.max_n_pct.value / 100) * TISSUE.max_root_factor.value },
+  fixedN: { name: "fixed_n", unit: "kg N/ha", min: 0, max: MAX_CROP_N_KG_HA * TISSUE.max_root_factor.value },
   harvestIndex: { name: "harvest_index", min: 0, minExclusive: true, max: 1 },
 } as const satisfies Record<string, Bound | ((n: string) => Bound)>;
 
