@@ -20,7 +20,8 @@ module.exports = {
   roots: ["<rootDir>/tests", "<rootDir>/src"],
   transform: { "^.+\\.ts$": ["ts-jest", { tsconfig: path.join(__dirname, "tsconfig.json") }] },
   testMatch: TESTS.map((t) => (t.endsWith(".ts") ? `<rootDir>/${t}` : `<rootDir>/${t}/**/*.test.ts`)),
-  // The oracle test recalculates through build/ (the compiled CLI), which a mutant never reaches.
+  // The oracle test recalculates through build/ (the compiled CLI), which a mutant never reaches;
+  // oracle-in-process.test.ts runs the same comparison on src.
   testPathIgnorePatterns: ["/node_modules/", "tests/engine/oracle.test.ts"],
   testTimeout: 60000,
 };

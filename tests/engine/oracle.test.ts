@@ -16,31 +16,15 @@
 import { spawnSync } from "child_process";
 import fs from "fs";
 import path from "path";
-import { readWorkbookCells, stripCachedValues, CachedValue } from "../../scripts/oracle/xlsx-cells";
-import { computeExpected, differences, Expected } from "../../scripts/oracle/libreoffice-values";
+import { stripCachedValues } from "../../scripts/oracle/xlsx-cells";
+import { computeExpected, differences } from "../../scripts/oracle/libreoffice-values";
 import { findLibreOffice } from "../../scripts/oracle/lo";
-import { sameValue, show } from "../helpers/cached-values";
+import { CORPUS, corpusNames, expectedOf, oracleDifferences, OracleSummary } from "../helpers/oracle";
 import { tempDir } from "../helpers/workbook";
 
 const ROOT = path.join(__dirname, "../..");
 const CLI = path.join(ROOT, "build/src/cli/main.js");
-const CORPUS = path.join(ROOT, "tests/fixtures/corpus");
-const EXPECTED = path.join(CORPUS, "expected");
-
-const names = fs
-  .readdirSync(EXPECTED)
-  .filter((f) => f.endsWith(".json"))
-  .map((f) => f.replace(/\.json$/, ""))
-  .sort();
-
-const expectedOf = (name: string): Expected => JSON.parse(fs.readFileSync(path.join(EXPECTED, `${name}.json`), "utf8"));
-
-/** Cells soilcell refuses on purpose (a locale-dependent reading), each with its reason. */
-const REFUSALS = JSON.parse(fs.readFileSync(path.join(CORPUS, "soilcell-refusals.json"), "utf8")) as Record<string, Record<string, Record<string, string>> | string>;
-const refusalOf = (name: string, sheet: string, addr: string): string | undefined => {
-  const book = REFUSALS[name];
-  return typeof book === "object" ? book[sheet]?.[addr] : undefined;
-};
+const names = corpusNames();
 
 interface EngineRun {
   status: number | null;
@@ -75,36 +59,11 @@ describe("the engine computes every native cell of the corpus as the outside ora
     const input = path.join(dir, `${name}.stripped.xlsx`);
     fs.writeFileSync(input, await stripCachedValues(fs.readFileSync(path.join(CORPUS, want.file))));
     const run = recalc(input, path.join(dir, `${name}.out.xlsx`));
-    const summary = JSON.parse(run.stdout || "{}") as { errors?: { sheet: string; cell: string; message: string }[]; kept?: { sheet: string; cell: string; message: string }[] };
+    const summary = JSON.parse(run.stdout || "{}") as OracleSummary;
     if (!fs.existsSync(run.output)) {
       throw new Error(`no output (exit ${run.status}): ${run.stderr.trim().split("\n").slice(-3).join(" | ")}`);
     }
-    const got = await readWorkbookCells(fs.readFileSync(run.output));
-    const wrong: string[] = [];
-    let compared = 0;
-    for (const [sheet, cells] of Object.entries(want.cells)) {
-      const out = got.sheets.find((s) => s.name === sheet);
-      for (const [addr, value] of Object.entries(cells)) {
-        compared += 1;
-        const v: CachedValue = out ? (out.cells.get(addr)?.value ?? null) : null;
-        const refused = refusalOf(name, sheet, addr);
-        if (refused) {
-          // Refused: an error with its message, or (a formula the file held without a value, which
-          // nothing recomputed feeds) left without a value and listed with the reason.
-          const listed = summary.errors?.find((e) => e.sheet === sheet && e.cell === addr);
-          const keptBlank = summary.kept?.find((e) => e.sheet === sheet && e.cell === addr);
-          const isError = typeof v === "object" && v !== null && "error" in v;
-          if (!((isError && listed?.message) || (v === null && keptBlank?.message))) wrong.push(`${sheet}!${addr}: a refusal with a message was expected (${refused}), got ${show(v)}`);
-          continue;
-        }
-        if (!sameValue(value, v)) {
-          const soil = want.fromSoilcell?.[sheet]?.[addr];
-          const excel = want.excelOverrides?.[sheet]?.[addr];
-          const why = soil ? ` (SOIL element, as ${soil})` : excel ? " (Excel's value; LibreOffice differs by design)" : "";
-          wrong.push(`${sheet}!${addr}: expected ${show(value)}${why}, got ${show(v)}`);
-        }
-      }
-    }
+    const { compared, wrong } = await oracleDifferences(name, fs.readFileSync(run.output), summary);
     expect(compared).toBeGreaterThan(0);
     expect({ name, exit: run.status, wrong }).toEqual({ name, exit: run.status, wrong: [] });
   });
