@@ -47,3 +47,27 @@ export function soilcell(args: string[], heapMB?: number, timeoutMs = 120000, ex
 
 /** The stderr lines that are not progress lines. */
 export const messages = (stderr: string): string[] => stderr.split("\n").filter((l) => l.trim() && !PROGRESS.test(l));
+
+/**
+ * Runs the command's `main` from src in this process (stdout and stderr collected as lines), for
+ * tests that mutation testing must see: it changes src, never the build the command runs. Time is
+ * measured; peak memory is not the command's own here (NaN).
+ */
+export async function soilcellInProcess(args: string[]): Promise<Run> {
+  // Loaded here, not at the top: the tests that spawn the command must not need src compiled.
+  const { main } = await import("../../src/cli/main");
+  const out: string[] = [];
+  const err: string[] = [];
+  const started = process.hrtime.bigint();
+  let status: number;
+  try {
+    status = await main(args, { out: (l) => void out.push(l), err: (l) => void err.push(l) });
+  } catch (e) {
+    // as runAsProcess reports it
+    err.push(`soilcell: unexpected failure: ${e instanceof Error ? e.message : String(e)}`);
+    status = 3;
+  }
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  const lines = (a: string[]) => (a.length ? `${a.join("\n")}\n` : "");
+  return { status, signal: null, stdout: lines(out), stderr: lines(err), seconds, rssMB: NaN, timedOut: false };
+}
