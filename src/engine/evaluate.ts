@@ -6,11 +6,11 @@
  */
 import { Book } from "./book";
 import { a1 } from "./cellref";
-import { Ctx, Host, NotComputed, Uncomputable, ev, toArray } from "./formula/evaluate";
+import { Ctx, Host, NotComputed, ResourceLimit, ev, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { FormulaSyntaxError } from "./formula/lexer";
 import { Node, parseFormula } from "./formula/parser";
-import { Scalar, XlArray, XlError, XlRef, err, isError } from "./formula/values";
+import { Scalar, err, isError } from "./formula/values";
 import { SOIL_NAMES, soilCall } from "./soil";
 
 export type EvalValue = number | string | boolean | null;
@@ -32,17 +32,33 @@ const EMPTY_BOOK: Book = {
   definedName: () => undefined,
 };
 
-const HOST: Host = {
-  book: EMPTY_BOOK,
-  date1904: false,
-  maxCells: 4_000_000,
-  value: () => null,
-  bounds: () => ({ rows: -1, cols: -1 }),
-  forEach: () => undefined,
-  spill: () => err("#REF!", "eval has no workbook"),
-  soil: (name) => soilCall(name),
-  now: () => (Date.now() - new Date().getTimezoneOffset() * 60000 - Date.UTC(1899, 11, 30)) / 86400000,
+/** The time `ms` (milliseconds since 1970 UTC) as a 1900-system serial in local time, `offsetMinutes` west of UTC (as getTimezoneOffset gives it). */
+export function localSerial(ms: number, offsetMinutes: number): number {
+  return (ms - offsetMinutes * 60000 - Date.UTC(1899, 11, 30)) / 86400000;
+}
+
+/** Thrown where a formula builds a reference while computing (INDIRECT) and then reads it. */
+class NoWorkbook extends NotComputed {}
+
+const noWorkbook = (): never => {
+  throw new NoWorkbook("eval has no workbook, so a reference the formula builds while computing (as INDIRECT does) has nothing to read");
 };
+
+function host(blankReferences: boolean): Host {
+  return {
+    book: EMPTY_BOOK,
+    date1904: false,
+    maxCells: 4_000_000,
+    // Read as blank only when asked: otherwise INDIRECT("A1") would read 0 from a cell that is not there.
+    value: blankReferences ? () => null : noWorkbook,
+    // Stryker disable next-line ObjectLiteral,UnaryOperator: equivalent: every blank cell reads null, so the bounds only spare reads
+    bounds: blankReferences ? () => ({ rows: -1, cols: -1 }) : noWorkbook,
+    forEach: blankReferences ? () => undefined : noWorkbook,
+    spill: () => err("#REF!", "eval has no workbook"),
+    soil: (name) => soilCall(name),
+    now: () => localSerial(Date.now(), new Date().getTimezoneOffset()),
+  };
+}
 
 function plain(v: Scalar): EvalValue {
   if (isError(v)) return `${v.code}${v.message ? ` ${v.message}` : ""}`;
@@ -62,10 +78,11 @@ function firstReference(n: Node): string | undefined {
       const text = x.r2 === x.r1 && x.c2 === x.c1 ? top : `${top}:${a1({ row: x.r2, col: x.c2 })}`;
       return `the reference ${x.sheet === undefined ? "" : `${x.sheet}!`}${text}`;
     }
-    if (x.k === "fn") stack.push(...x.args);
-    else if (x.k === "bin" || x.k === "range" || x.k === "isect") stack.push(x.a, x.b);
+    // Children pushed last-first, so the one typed first is met first.
+    if (x.k === "fn") stack.push(...[...x.args].reverse());
+    else if (x.k === "bin" || x.k === "range" || x.k === "isect") stack.push(x.b, x.a);
     else if (x.k === "neg" || x.k === "plus" || x.k === "at" || x.k === "pct") stack.push(x.x);
-    else if (x.k === "union") stack.push(...x.items);
+    else if (x.k === "union") stack.push(...[...x.items].reverse());
   }
   return undefined;
 }
@@ -79,8 +96,8 @@ function firstReference(n: Node): string | undefined {
 function semicolonHint(text: string): string | undefined {
   let quote: string | undefined;
   let braces = 0;
-  let semis = 0;
-  let commas = 0;
+  let semis = false;
+  let commas = false;
   let out = "";
   for (const ch of text) {
     if (quote) {
@@ -92,17 +109,17 @@ function semicolonHint(text: string): string | undefined {
     else if (ch === "{") braces += 1;
     else if (ch === "}") braces -= 1;
     else if (braces === 0 && ch === ";") {
-      semis += 1;
+      semis = true;
       out += ",";
       continue;
     } else if (braces === 0 && ch === ",") {
-      commas += 1;
+      commas = true;
       out += ".";
       continue;
     }
     out += ch;
   }
-  if (semis === 0) return undefined;
+  if (!semis) return undefined;
   const said = 'the formula separates its arguments with ";", as Excel shows formulas under some regional settings; soilcell reads formulas as Excel stores them, with ","';
   const decimals = commas ? ' and "." for decimals' : "";
   if (braces !== 0 || text.includes("{")) return `${said}${decimals}: write it with "," between arguments${decimals}`;
@@ -126,29 +143,28 @@ export function evaluateFormula(formula: string, options: { blankReferences?: bo
   }
   const ref = options.blankReferences ? undefined : firstReference(node);
   if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; give the values themselves (e.g. {1;2;3} for a column), or put the formula in a workbook and use soilcell recalc` };
-  const ctx: Ctx = { host: HOST, sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
-  let v: ReturnType<typeof ev>;
+  const ctx: Ctx = { host: host(options.blankReferences === true), sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
+  let a: ReturnType<typeof toArray>;
   try {
-    v = ev(node, ctx, true);
+    // A returned reference is read whole; a union of ranges is refused (a cell cannot show one).
+    // Stryker disable next-line BooleanLiteral: equivalent: a reference returned as a value is read as toArray reads it
+    a = toArray(ev(node, ctx, true), ctx);
   } catch (e) {
-    if (e instanceof NotComputed) return { error: "#VALUE!", message: e.message };
+    if (e instanceof NoWorkbook) return { error: "#REF!", message: `${e.message}; give the values themselves, or put the formula in a workbook and use soilcell recalc` };
+    if (e instanceof NotComputed || e instanceof ResourceLimit) return { error: "#VALUE!", message: e.message };
     throw e;
   }
-  if (v instanceof XlRef) v = toArray(v, ctx);
-  if (v instanceof XlArray) {
-    if (v.rows === 1 && v.cols === 1) v = v.at(0, 0);
-    else {
-      const rows: EvalValue[][] = [];
-      for (let r = 0; r < v.rows; r++) {
-        const row: EvalValue[] = [];
-        for (let c = 0; c < v.cols; c++) row.push(plain(v.at(r, c) ?? 0));
-        rows.push(row);
-      }
-      const top = v.at(0, 0);
-      return isError(top) ? { value: rows, error: top.code, message: top.message } : { value: rows };
-    }
+  if (isError(a)) return { error: a.code, message: a.message };
+  if (a.rows === 1 && a.cols === 1) {
+    const s = a.at(0, 0) ?? 0;
+    return isError(s) ? { error: s.code, message: s.message } : { value: s };
   }
-  const s = (v ?? 0) as Scalar;
-  if (s instanceof XlError) return { error: s.code, message: s.message || (s instanceof Uncomputable ? "" : "") };
-  return { value: s };
+  const rows: EvalValue[][] = [];
+  for (let r = 0; r < a.rows; r++) {
+    const row: EvalValue[] = [];
+    for (let c = 0; c < a.cols; c++) row.push(plain(a.at(r, c) ?? 0));
+    rows.push(row);
+  }
+  const top = a.at(0, 0);
+  return isError(top) ? { value: rows, error: top.code, message: top.message } : { value: rows };
 }

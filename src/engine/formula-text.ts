@@ -18,10 +18,8 @@ function storedName(id: string): string {
   return `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}`;
 }
 
-/** Replaces token spans in `text` (tokens from `tokenize(text)`). */
+/** Replaces token spans in `text` (tokens from `tokenize(text)`); the edits come in token order and do not overlap. */
 function splice(text: string, edits: { start: number; end: number; with: string }[]): string {
-  if (!edits.length) return text;
-  edits.sort((a, b) => a.start - b.start);
   let out = "";
   let at = 0;
   for (const e of edits) {
@@ -34,16 +32,18 @@ function splice(text: string, edits: { start: number; end: number; with: string 
 function tokensOf(body: string): Token[] | undefined {
   try {
     return tokenize(body);
+    // Stryker disable next-line BlockStatement: equivalent: an empty catch returns undefined too
   } catch {
     return undefined;
   }
 }
 
-/** Excel's stored form → the form a user types (our names, no _xlfn. prefixes). Keeps a leading "=". */
+/**
+ * Excel's stored form → the form a user types (our names, no _xlfn. prefixes). Keeps a leading "="
+ * (to the lexer it is an operator token, which no edit touches).
+ */
 export function toTypedFormula(formula: string): string {
-  const eq = formula.startsWith("=") ? "=" : "";
-  const body = formula.slice(eq.length);
-  const tokens = tokensOf(body);
+  const tokens = tokensOf(formula);
   if (!tokens) return formula;
   const edits: { start: number; end: number; with: string }[] = [];
   for (let i = 0; i < tokens.length; i++) {
@@ -53,18 +53,19 @@ export function toTypedFormula(formula: string): string {
     if (!/^_xl/i.test(written)) continue;
     const name = canonicalFunctionName(written, SOIL_NAMES);
     if (name === "ANCHORARRAY") {
-      // _xlfn.ANCHORARRAY(B1) → B1#
-      const a = tokens[i + 2];
-      const close = tokens[i + 3];
-      if (tokens[i + 1]?.t === T.LParen && a && (a.t === T.Ref || a.t === T.Name) && close?.t === T.RParen) {
-        edits.push({ start: t.start, end: close.end, with: `${body.slice(a.start, a.end)}#` });
+      // _xlfn.ANCHORARRAY(B1) → B1#. The lexer makes a Func only before "(" and ends every list
+      // with End, so the token after "(" exists, and so does the one after a reference.
+      const a = tokens[i + 2] as Token;
+      const close = tokens[i + 3] as Token;
+      if ((a.t === T.Ref || a.t === T.Name) && close.t === T.RParen) {
+        edits.push({ start: t.start, end: close.end, with: `${formula.slice(a.start, a.end)}#` });
         i += 3;
         continue;
       }
     }
     edits.push({ start: t.start, end: t.end, with: name });
   }
-  return eq + splice(body, edits);
+  return splice(formula, edits);
 }
 
 /**
