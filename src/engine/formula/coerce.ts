@@ -53,22 +53,27 @@ export function toNumber(v: Scalar): number | XlError {
   return v;
 }
 
-/** A number as Excel's General format writes it in text (15 significant digits). */
+/**
+ * A number as Excel writes it in text (15 significant digits): plain up to 20 characters
+ * (1E+19 is "10000000000000000000"), E notation with a two-digit exponent from 1E+20 up and
+ * below 1 where "0.", the leading zeros and the digits would be more than 20 characters.
+ */
 export function numberToText(n: number): string {
   if (n === 0) return "0";
   if (!Number.isFinite(n)) return "#NUM!";
-  const x = Number(n.toPrecision(15));
-  // The decimal exponent as the digits give it (Math.log10 rounds 99999999999999.9 up to 14).
-  const e = Number(x.toExponential().split("e")[1]);
-  if (e >= 15 || e < -9) {
-    const [mant, exp] = x.toExponential(14).split("e") as [string, string];
-    const m = mant.replace(/\.?0+$/, "");
-    const ex = Number(exp);
-    return `${m}E${ex < 0 ? "-" : "+"}${String(Math.abs(ex)).padStart(2, "0")}`;
+  const [mant, exp] = Math.abs(n).toExponential(14).split("e") as [string, string];
+  // The significant digits, without the point and trailing zeros; rounding to 15 digits can
+  // carry into the exponent (9.999999999999999 is 10), which toExponential already did.
+  const digits = mant.replace(".", "").replace(/0+$/, "");
+  const e = Number(exp);
+  const sign = n < 0 ? "-" : "";
+  if (e > 19 || (e < 0 && 2 + (-e - 1) + digits.length > 20)) {
+    const m = digits.length > 1 ? `${digits[0]}.${digits.slice(1)}` : digits;
+    return `${sign}${m}E${e < 0 ? "-" : "+"}${String(Math.abs(e)).padStart(2, "0")}`;
   }
-  if (Number.isInteger(x)) return String(x);
-  const fixed = x.toFixed(Math.max(0, 14 - e));
-  return fixed.includes(".") ? fixed.replace(/\.?0+$/, "") : fixed;
+  if (e < 0) return `${sign}0.${"0".repeat(-e - 1)}${digits}`;
+  if (digits.length > e + 1) return `${sign}${digits.slice(0, e + 1)}.${digits.slice(e + 1)}`;
+  return `${sign}${digits}${"0".repeat(e + 1 - digits.length)}`;
 }
 
 /** A scalar as text: numbers in General format, TRUE/FALSE, blank as "". */
