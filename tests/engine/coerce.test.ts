@@ -218,7 +218,8 @@ describe("values", () => {
       [1, 2],
       [3, 4],
     ]);
-    expect(a.data).toEqual([1, 2, 3, 4]);
+    expect(a.data).toStrictEqual([1, 2, 3, 4]);
+    expect(a.data).toHaveLength(4);
     expect(a.at(1, 0)).toBe(3);
     const f = XlArray.fill(2, 3, "x");
     expect([f.rows, f.cols, f.data]).toEqual([2, 3, ["x", "x", "x", "x", "x", "x"]]);
