@@ -43,6 +43,7 @@ function textNotNumber(s: string): XlError {
 
 /** A scalar as a number: blank is 0, TRUE 1, numeric text its number; other text #VALUE!. */
 export function toNumber(v: Scalar): number | XlError {
+  // Stryker disable next-line ConditionalExpression,StringLiteral: equivalent: a number skipped here reaches the final return v
   if (typeof v === "number") return v;
   if (v === null) return 0;
   if (typeof v === "boolean") return v ? 1 : 0;
@@ -53,26 +54,33 @@ export function toNumber(v: Scalar): number | XlError {
   return v;
 }
 
-/** A number as Excel's General format writes it in text (15 significant digits). */
+/**
+ * A number as Excel writes it in text (15 significant digits): plain up to 20 characters
+ * (1E+19 is "10000000000000000000"), E notation with a two-digit exponent from 1E+20 up and
+ * below 1 where "0.", the leading zeros and the digits would be more than 20 characters.
+ */
 export function numberToText(n: number): string {
+  // Stryker disable next-line ConditionalExpression: equivalent: the digits path writes 0 and -0 as "0" too
   if (n === 0) return "0";
   if (!Number.isFinite(n)) return "#NUM!";
-  const x = Number(n.toPrecision(15));
-  // The decimal exponent as the digits give it (Math.log10 rounds 99999999999999.9 up to 14).
-  const e = Number(x.toExponential().split("e")[1]);
-  if (e >= 15 || e < -9) {
-    const [mant, exp] = x.toExponential(14).split("e") as [string, string];
-    const m = mant.replace(/\.?0+$/, "");
-    const ex = Number(exp);
-    return `${m}E${ex < 0 ? "-" : "+"}${String(Math.abs(ex)).padStart(2, "0")}`;
+  const [mant, exp] = Math.abs(n).toExponential(14).split("e") as [string, string];
+  // The significant digits, without the point and trailing zeros; rounding to 15 digits can
+  // carry into the exponent (9.999999999999999 is 10), which toExponential already did.
+  const digits = mant.replace(".", "").replace(/0+$/, "");
+  const e = Number(exp);
+  const sign = n < 0 ? "-" : "";
+  if (e > 19 || (e < 0 && 2 + (-e - 1) + digits.length > 20)) {
+    const m = digits.length > 1 ? `${digits[0]}.${digits.slice(1)}` : digits;
+    return `${sign}${m}E${e < 0 ? "-" : "+"}${String(Math.abs(e)).padStart(2, "0")}`;
   }
-  if (Number.isInteger(x)) return String(x);
-  const fixed = x.toFixed(Math.max(0, 14 - e));
-  return fixed.includes(".") ? fixed.replace(/\.?0+$/, "") : fixed;
+  if (e < 0) return `${sign}0.${"0".repeat(-e - 1)}${digits}`;
+  if (digits.length > e + 1) return `${sign}${digits.slice(0, e + 1)}.${digits.slice(e + 1)}`;
+  return `${sign}${digits}${"0".repeat(e + 1 - digits.length)}`;
 }
 
 /** A scalar as text: numbers in General format, TRUE/FALSE, blank as "". */
 export function toText(v: Scalar): string | XlError {
+  // Stryker disable next-line ConditionalExpression: equivalent: text skipped here reaches the final return v
   if (typeof v === "string") return v;
   if (v === null) return "";
   if (typeof v === "number") return numberToText(v);
@@ -82,6 +90,7 @@ export function toText(v: Scalar): string | XlError {
 
 /** A scalar as a boolean: numbers are TRUE unless 0; text "TRUE"/"FALSE"; blank FALSE. */
 export function toBool(v: Scalar): boolean | XlError {
+  // Stryker disable next-line ConditionalExpression,StringLiteral: equivalent: a boolean skipped here reaches the final return v
   if (typeof v === "boolean") return v;
   if (v === null) return false;
   if (typeof v === "number") return v !== 0;
@@ -99,18 +108,19 @@ const E48 = 2 ** -48;
 /** Two numbers equal to within the last few bits, as spreadsheets compare them. */
 export function approxEqual(a: number, b: number): boolean {
   if (a === b) return true;
-  if (a === 0 || b === 0) return false;
+  // A zero side gives a zero tolerance: only an exact 0 equals 0.
   return Math.abs(a - b) < Math.min(Math.abs(a), Math.abs(b)) * E48;
 }
 
 /** a + b, with a result that only reflects rounding noise of nearly cancelling operands set to 0. */
 export function approxAdd(a: number, b: number): number {
-  if (((a < 0 && b > 0) || (a > 0 && b < 0)) && approxEqual(a, -b)) return 0;
+  // approxEqual(a, -b) already implies opposite signs (or both 0), so no sign test is needed.
+  if (approxEqual(a, -b)) return 0;
   return a + b;
 }
 
 export function approxSub(a: number, b: number): number {
-  if (((a < 0 && b < 0) || (a > 0 && b > 0)) && approxEqual(a, b)) return 0;
+  if (approxEqual(a, b)) return 0;
   return a - b;
 }
 
@@ -127,15 +137,18 @@ function typeRank(v: Scalar): number {
 export function compare(a: Scalar, b: Scalar): number | XlError {
   if (isError(a)) return a;
   if (isError(b)) return b;
+  // Stryker disable next-line ConditionalExpression: equivalent: two blanks skipped here both become FALSE, which compare equal
   if (a === null && b === null) return 0;
   if (a === null) a = typeof b === "number" ? 0 : typeof b === "string" ? "" : false;
   if (b === null) b = typeof a === "number" ? 0 : typeof a === "string" ? "" : false;
   const ra = typeRank(a);
   const rb = typeRank(b);
+  // Stryker disable next-line EqualityOperator: equivalent: ra !== rb here, so ra <= rb is ra < rb
   if (ra !== rb) return ra < rb ? -1 : 1;
   if (typeof a === "number") {
     const nb = b as number;
     if (approxEqual(a, nb)) return 0;
+    // Stryker disable next-line EqualityOperator: equivalent: a !== nb here, so a <= nb is a < nb
     return a < nb ? -1 : 1;
   }
   if (typeof a === "string") return compareText(a, b as string);
@@ -152,6 +165,7 @@ function compareText(a: string, b: string): number {
   const y = b.toLowerCase();
   if (x === y) return 0;
   const c = COLLATOR.compare(x, y);
+  // Stryker disable next-line EqualityOperator: equivalent: c !== 0 here, so c <= 0 is c < 0
   if (c !== 0) return c < 0 ? -1 : 1;
   return x < y ? -1 : 1;
 }

@@ -60,6 +60,7 @@ export class XlArray {
   static of(rows: Scalar[][]): XlArray {
     const r = rows.length;
     const c = r ? (rows[0] as Scalar[]).length : 0;
+    // Stryker disable next-line ArrayDeclaration: equivalent: the loop fills every index, so a preallocated length changes nothing
     const data: Scalar[] = new Array(r * c);
     for (let i = 0; i < r; i++) for (let j = 0; j < c; j++) data[i * c + j] = (rows[i] as Scalar[])[j] as Scalar;
     return new XlArray(r, c, data);
