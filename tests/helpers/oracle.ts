@@ -1,5 +1,5 @@
 /**
- * (A helper: it holds no reference values of its own. The expected values are LibreOffice's, from
+ * (A helper: it holds no reference values of its own, and no invented ones. The expected values are LibreOffice's, from
  * tests/fixtures/corpus/expected, or Excel's published ones from excel-overrides.json.)
  * The corpus oracle's comparison, shared by the test that runs the built CLI on each workbook and
  * the one that runs the engine in process (which mutation testing can see).
