@@ -179,13 +179,25 @@ function readSharedStrings(xml: string | undefined): string[] {
   return out;
 }
 
+/** Day 0 of the workbook's date system, in milliseconds since 1970 UTC. */
+function epochMs(date1904: boolean): number {
+  return date1904 ? Date.UTC(1904, 0, 1) : Date.UTC(1899, 11, 30);
+}
+
+/**
+ * The time `ms` (milliseconds since 1970 UTC) as a serial in local time, `offsetMinutes` west of
+ * UTC (as getTimezoneOffset gives it), in the 1900 or 1904 date system: what NOW() reads.
+ */
+export function localSerial(ms: number, offsetMinutes: number, date1904 = false): number {
+  return (ms - offsetMinutes * 60000 - epochMs(date1904)) / 86400000;
+}
+
 /** An ISO 8601 date-time (t="d" cells) as a serial number in the workbook's date system. */
 export function isoToSerial(iso: string, date1904: boolean): number | undefined {
   const m = /^(\d{4})-(\d{2})-(\d{2})(?:T(\d{2}):(\d{2})(?::(\d{2}(?:\.\d+)?))?)?Z?$/.exec(iso.trim());
   if (!m) return undefined;
   const ms = Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4] ?? 0), Number(m[5] ?? 0)) + Number(m[6] ?? 0) * 1000;
-  const epoch = date1904 ? Date.UTC(1904, 0, 1) : Date.UTC(1899, 11, 30);
-  let serial = (ms - epoch) / 86400000;
+  let serial = (ms - epochMs(date1904)) / 86400000;
   // Excel's 1900 system counts a 29 February 1900 that did not exist.
   if (!date1904 && serial < 61) serial -= 1;
   return serial;

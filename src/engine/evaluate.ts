@@ -4,7 +4,7 @@
  * an empty workbook, so a reference to a cell has nothing to read: it is refused with a message
  * (tests may ask for references to read as blank cells instead).
  */
-import { Book } from "./book";
+import { Book, localSerial } from "./book";
 import { a1 } from "./cellref";
 import { Ctx, Host, NotComputed, ResourceLimit, ev, toArray } from "./formula/evaluate";
 import "./formula/functions";
@@ -31,11 +31,6 @@ const EMPTY_BOOK: Book = {
   sheetIndex: () => undefined,
   definedName: () => undefined,
 };
-
-/** The time `ms` (milliseconds since 1970 UTC) as a 1900-system serial in local time, `offsetMinutes` west of UTC (as getTimezoneOffset gives it). */
-export function localSerial(ms: number, offsetMinutes: number): number {
-  return (ms - offsetMinutes * 60000 - Date.UTC(1899, 11, 30)) / 86400000;
-}
 
 /** Thrown where a formula builds a reference while computing (INDIRECT) and then reads it. */
 class NoWorkbook extends NotComputed {}

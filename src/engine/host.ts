@@ -8,7 +8,7 @@
  * Results of single cells are kept in column arrays (a number costs 8 bytes, not an object);
  * only spills and fixed ranges have a result object.
  */
-import { Book, Form } from "./book";
+import { Book, Form, localSerial } from "./book";
 import { a1, rangeA1 } from "./cellref";
 import { Ctx, Host, NotComputed, Uncomputable, ev, firstScalar, intersect, notComputed, toArray } from "./formula/evaluate";
 import type { Node } from "./formula/parser";
@@ -312,9 +312,7 @@ export class RecalcHost implements Host {
   }
 
   now(): number {
-    const ms = this.clock - new Date(this.clock).getTimezoneOffset() * 60000;
-    const epoch = this.date1904 ? Date.UTC(1904, 0, 1) : Date.UTC(1899, 11, 30);
-    return (ms - epoch) / 86400000;
+    return localSerial(this.clock, new Date(this.clock).getTimezoneOffset(), this.date1904);
   }
 
   // -------------------------------------------------------------------------------------------

@@ -5,7 +5,8 @@
  * logic; no published number. (45352 as the serial of 1 March 2024 in the 1900 date system is the
  * one tests/engine/dates.test.ts takes from LibreOffice.)
  */
-import { evaluateFormula, localSerial } from "../../src/engine/evaluate";
+import { localSerial } from "../../src/engine/book";
+import { evaluateFormula } from "../../src/engine/evaluate";
 import * as engine from "../../src/engine/formula/evaluate";
 import * as parser from "../../src/engine/formula/parser";
 
