@@ -12,10 +12,12 @@ const PARTS = {
   "core-nitrogen": { folder: "core", mutate: ["src/core/nitrogen/**/*.ts"] },
   functions: { folder: "functions", mutate: ["src/functions/**/*.ts"] },
   "engine-io": { folder: "engine", mutate: ["src/engine/{xml,zip,xlsx-package,sheet-patch,store}.ts"] },
-  // The formula engine in three parts: a part's results are kept only when it finishes.
+  // The formula engine in parts of under ~700 mutants (under about 90 minutes on 2 shared cores):
+  // a part's results are kept only when it finishes.
   "engine-evaluate": { folder: "engine", mutate: ["src/engine/formula/evaluate.ts"] },
   "engine-values": { folder: "engine", mutate: ["src/engine/formula/{coerce,values,not-computed}.ts"] },
-  "engine-parse": { folder: "engine", mutate: ["src/engine/formula/{lexer,parser}.ts"] },
+  "engine-lexer": { folder: "engine", mutate: ["src/engine/formula/lexer.ts"] },
+  "engine-parser": { folder: "engine", mutate: ["src/engine/formula/parser.ts"] },
   "engine-functions": { folder: "engine", mutate: ["src/engine/formula/functions/**/*.ts"] },
   "engine-book": { folder: "engine", mutate: ["src/engine/{book,plan,recalc,host}.ts"] },
   "engine-small": { folder: "engine", mutate: ["src/engine/{cellref,registry,soil,formula-text,evaluate}.ts"] },
