@@ -9,14 +9,10 @@
  */
 import { T, Token, tokenize } from "./formula/lexer";
 import { canonicalFunctionName } from "./formula/parser";
-import { NAMESPACE, REGISTRY } from "./registry";
+import { REGISTRY, storedName } from "./registry";
 import { SOIL_NAMES } from "./soil";
 
 const BY_ID = new Map(REGISTRY.map((f) => [f.formulaName.toUpperCase(), f.id]));
-
-function storedName(id: string): string {
-  return `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}`;
-}
 
 /** Replaces token spans in `text` (tokens from `tokenize(text)`); the edits come in token order and do not overlap. */
 function splice(text: string, edits: { start: number; end: number; with: string }[]): string {

@@ -34,11 +34,18 @@ export interface RegisteredFunction {
 
 export const NAMESPACE = "SOIL";
 
-function build(): RegisteredFunction[] {
-  const table = bindings as unknown as Record<string, (...args: unknown[]) => unknown[][]>;
-  const metaById = new Map((metadata.functions as MetaFunction[]).map((f) => [f.id, f]));
-  return (associations as { id: string; functionName: string }[]).map((a) => {
-    const binding = table[a.functionName];
+/**
+ * The table from the metadata's functions, the id → exported-name associations and the binding
+ * modules' exports; throws where they disagree (a build that would run the wrong binding).
+ */
+export function buildRegistry(
+  functions: readonly MetaFunction[],
+  links: readonly { id: string; functionName: string }[],
+  exported: Readonly<Record<string, unknown>>,
+): RegisteredFunction[] {
+  const metaById = new Map(functions.map((f) => [f.id, f]));
+  return links.map((a) => {
+    const binding = exported[a.functionName] as ((...args: unknown[]) => unknown[][]) | undefined;
     const meta = metaById.get(a.id);
     if (!binding || !meta) throw new Error(`metadata and bindings disagree about ${a.id}`);
     const spec = specOf(binding);
@@ -50,7 +57,12 @@ function build(): RegisteredFunction[] {
   });
 }
 
-export const REGISTRY: readonly RegisteredFunction[] = build();
+export const REGISTRY: readonly RegisteredFunction[] = buildRegistry(metadata.functions as MetaFunction[], associations, bindings);
+
+/** Excel's stored name of an add-in function: `_xldudf_SOIL_CEC` for SOIL.CEC (a dot in an id becomes "_" too). */
+export function storedName(id: string): string {
+  return `_xldudf_${NAMESPACE}_${id.replace(/\./g, "_")}`;
+}
 
 /** Looks up a function by id ("CEC") or formula name ("SOIL.CEC"), any case. */
 export function registered(name: string): RegisteredFunction | undefined {

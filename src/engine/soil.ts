@@ -3,12 +3,12 @@
  * arguments as Excel passes them (rows of cells) and their results turned into engine values. A
  * binding's error for one element stays in that element.
  */
-import { setHostErrors } from "../functions/_binding";
+import { HostErrors, setHostErrors } from "../functions/_binding";
 import { SpreadsheetErrorKind } from "../core/errors";
 import { SoilCall } from "./formula/evaluate";
 import { NameMap } from "./formula/parser";
 import { Scalar, XlArray, XlError, err } from "./formula/values";
-import { NAMESPACE, REGISTRY, RegisteredFunction } from "./registry";
+import { REGISTRY, RegisteredFunction, storedName } from "./registry";
 import { SoilSignatures } from "./plan";
 
 /** The engine's host error is its own error value, with the binding's message. */
@@ -16,15 +16,10 @@ function hostError(kind: SpreadsheetErrorKind, message: string): XlError {
   return new XlError(kind === "#N/A" ? "#N/A" : "#VALUE!", message);
 }
 
-let installed = false;
-function install(): void {
-  if (installed) return;
-  setHostErrors({ make: hostError, is: (v) => v instanceof XlError });
-  installed = true;
-}
+const ENGINE_ERRORS: HostErrors = { make: hostError, is: (v) => v instanceof XlError };
 
 const BY_NAME = new Map<string, RegisteredFunction>(REGISTRY.map((f) => [f.formulaName.toUpperCase(), f]));
-const STORED = new Map<string, string>(REGISTRY.map((f) => [`_XLDUDF_${NAMESPACE}_${f.id.replace(/\./g, "_")}`, f.formulaName.toUpperCase()]));
+const STORED = new Map<string, string>(REGISTRY.map((f) => [storedName(f.id).toUpperCase(), f.formulaName.toUpperCase()]));
 
 /** Maps Excel's stored names of our functions (any case) back to their formula names. */
 export const SOIL_NAMES: NameMap = {
@@ -42,16 +37,17 @@ function toScalar(v: unknown): Scalar {
 export function soilCall(name: string): SoilCall | undefined {
   const fn = BY_NAME.get(name);
   if (!fn) return undefined;
-  install();
   return (args) => {
+    // Set at each call, not once: another host (a test of the bindings) may have set its own since.
+    setHostErrors(ENGINE_ERRORS);
     const rows = fn.binding(...args);
     if (rows.length === 1 && (rows[0] as unknown[]).length === 1) return toScalar((rows[0] as unknown[])[0]);
     const r = rows.length;
     const c = r ? (rows[0] as unknown[]).length : 0;
-    const data: Scalar[] = new Array(r * c);
+    const data: Scalar[] = [];
     for (let i = 0; i < r; i++) {
       const row = rows[i] as unknown[];
-      for (let j = 0; j < c; j++) data[i * c + j] = toScalar(row[j]);
+      for (let j = 0; j < c; j++) data.push(toScalar(row[j]));
     }
     return new XlArray(r, c, data);
   };

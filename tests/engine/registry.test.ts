@@ -1,6 +1,7 @@
 /**
  * One declaration feeds Excel and the engine: the generated metadata, the bindings, the engine
  * registry and the catalogue agree. Source of the expected names: ../shared/design/functions.md.
+ * The disagreement probes at the end use invented ids and tables to exercise the checks; no published name.
  */
 import fs from "fs";
 import path from "path";
@@ -8,7 +9,7 @@ import metadata from "../../generated/functions.json";
 import associations from "../../generated/associations.json";
 import * as bindings from "../../src/functions";
 import { specOf } from "../../src/functions/_binding";
-import { REGISTRY } from "../../src/engine/registry";
+import { MetaFunction, REGISTRY, buildRegistry, registered, storedName } from "../../src/engine/registry";
 import { aboutFunction } from "../../src/core/about";
 
 const catalogue = (() => {
@@ -74,5 +75,39 @@ describe("registry", () => {
       if (!expected) continue; // functions added beyond the catalogue
       expect(f.meta.parameters.map((p) => p.name).slice(0, expected.length)).toEqual(expected);
     }
+  });
+});
+
+describe("registry lookups and consistency checks", () => {
+  const cmolMeta = (metadata.functions as MetaFunction[]).find((f) => f.id === "CMOL")!;
+  const link = { id: "CMOL", functionName: "cmol" };
+  it("a consistent table builds, with the namespace in the formula name", () => {
+    const [f] = buildRegistry([cmolMeta], [link], bindings);
+    expect([f!.id, f!.formulaName, f!.meta]).toEqual(["CMOL", "SOIL.CMOL", cmolMeta]);
+    expect(f!.binding).toBe(bindings.cmol);
+  });
+  it("an association without a binding or without metadata is refused, naming the id", () => {
+    expect(() => buildRegistry([cmolMeta], [{ id: "CMOL", functionName: "nosuchbinding" }], bindings)).toThrow("metadata and bindings disagree about CMOL");
+    expect(() => buildRegistry([cmolMeta], [{ id: "ZZTOP", functionName: "cmol" }], bindings)).toThrow("metadata and bindings disagree about ZZTOP");
+  });
+  it("an export that is no declared binding is refused, naming it", () => {
+    expect(() => buildRegistry([cmolMeta], [link], { cmol: () => [[1]] })).toThrow("binding cmol has no declaration");
+  });
+  it("a parameter count that differs is refused, giving both counts", () => {
+    const short = { ...cmolMeta, parameters: cmolMeta.parameters.slice(1) };
+    expect(() => buildRegistry([short], [link], bindings)).toThrow(
+      `CMOL: metadata has ${cmolMeta.parameters.length - 1} parameters, the binding declares ${cmolMeta.parameters.length}`,
+    );
+  });
+  it("registered finds an id or formula name in any case, dropping only a leading SOIL.", () => {
+    expect(registered("CMOL")?.id).toBe("CMOL");
+    expect(registered("soil.cmol")?.id).toBe("CMOL");
+    expect(registered("Soil.Cmol")?.formulaName).toBe("SOIL.CMOL");
+    expect(registered("CMSOIL.OL")).toBeUndefined(); // "SOIL." inside the name is not the namespace
+    expect(registered("SOIL.NOPE")).toBeUndefined();
+  });
+  it("storedName writes the namespace and every dot of the id as _", () => {
+    expect(storedName("CMOL")).toBe("_xldudf_SOIL_CMOL");
+    expect(storedName("LIME.BUFFER.X")).toBe("_xldudf_SOIL_LIME_BUFFER_X"); // invented dotted id
   });
 });
