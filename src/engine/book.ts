@@ -223,14 +223,23 @@ interface RawCell {
 
 const isRefChar = (c: number) =>
   (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || c > 127;
-const CELL_WORD = /^(\$?)([A-Za-z]{1,3})(\$?)([0-9]{1,7})$/;
+const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
+const isDigit = (c: number) => c >= 48 && c <= 57;
+
+/** Where a run of up to `max` characters passing `test` ends, from `i` (no further than `end`). */
+function runEnd(text: string, i: number, end: number, max: number, test: (c: number) => boolean): number {
+  let j = i;
+  while (j < end && j - i < max && test(text.charCodeAt(j))) j++;
+  return j;
+}
 
 /**
  * A formula's text with its relative cell references written as offsets from (row, col), so a
  * formula filled down a column has one key (and one tree). It recognises a reference exactly
  * where the lexer does (a whole word in cell form, not followed by "(", "!" or "["; text in
  * quotes left alone); anything else stays literal, so two formulas share a key only when one is
- * the other shifted.
+ * the other shifted. A character scanner, not regular expressions: it runs once per formula cell
+ * read (1.2 million in a 100,000-sample season).
  */
 export function relativeKey(text: string, row: number, col: number): string {
   let out = "";
@@ -262,19 +271,27 @@ export function relativeKey(text: string, row: number, col: number): string {
     let j = i;
     while (j < n && isRefChar(text.charCodeAt(j))) j++;
     const next = text.charCodeAt(j);
-    const word = text.slice(i, j);
+    // The word [i, j) in cell form: $? letters{1,3} $? digits{1,7}, nothing else.
+    const colAbs = c === 36;
+    const lettersAt = colAbs ? i + 1 : i;
+    const lettersEnd = runEnd(text, lettersAt, j, 3, isLetter);
+    const digitsEnd = runEnd(text, lettersAt, j, 7, isDigit);
     // Whole columns (A:B) and rows (1:3) are relative too, but not in cell form: no sharing.
-    if ((next === 58 || text.charCodeAt(i - 1) === 58) && /^\$?([A-Za-z]{1,3}|[0-9]{1,7})$/.test(word)) positional = true;
-    if (next !== 40 && next !== 33 && next !== 91) {
-      const m = CELL_WORD.exec(word);
-      if (m) {
+    if ((next === 58 || text.charCodeAt(i - 1) === 58) && ((lettersEnd > lettersAt && lettersEnd === j) || (digitsEnd > lettersAt && digitsEnd === j))) positional = true;
+    if (next !== 40 && next !== 33 && next !== 91 && lettersEnd > lettersAt && !isLetter(text.charCodeAt(lettersEnd))) {
+      const rowAbs = text.charCodeAt(lettersEnd) === 36;
+      const rowDigitsAt = rowAbs ? lettersEnd + 1 : lettersEnd;
+      const rowDigitsEnd = runEnd(text, rowDigitsAt, j, 7, isDigit);
+      if (rowDigitsEnd > rowDigitsAt && rowDigitsEnd === j) {
         let k = 0;
-        for (const ch of m[2] as string) k = k * 26 + ((ch.charCodeAt(0) | 32) - 96);
+        for (let p = lettersAt; p < lettersEnd; p++) k = k * 26 + ((text.charCodeAt(p) | 32) - 96);
         const colAt = k - 1;
-        const rowAt = Number(m[4]) - 1;
+        let rowNumber = 0;
+        for (let p = rowDigitsAt; p < rowDigitsEnd; p++) rowNumber = rowNumber * 10 + (text.charCodeAt(p) - 48);
+        const rowAt = rowNumber - 1;
         if (colAt < 16384 && rowAt >= 0 && rowAt < 1048576) {
           out += text.slice(last, i);
-          out += `\u0001${m[1] ? `$${colAt}` : colAt - col},${m[3] ? `$${rowAt}` : rowAt - row}\u0001`;
+          out += `\u0001${colAbs ? `$${colAt}` : colAt - col},${rowAbs ? `$${rowAt}` : rowAt - row}\u0001`;
           last = j;
         }
       }

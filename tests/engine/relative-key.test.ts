@@ -24,6 +24,39 @@ describe("relative keys of formulas", () => {
   ])("%s", (_what, a, ra, ca, b, rb, cb) => {
     expect(relativeKey(a as string, ra as number, ca as number)).not.toBe(relativeKey(b as string, rb as number, cb as number));
   });
+  // Excel's grid: columns A to XFD (16,384), rows 1 to 1,048,576 (Microsoft, "Excel specifications
+  // and limits"). A word just outside it is a name, left literal; the last cell still shifts.
+  it.each([
+    ["XFE1", 0, 0],
+    ["A1048577", 0, 0],
+    ["A0", 0, 0],
+    ["ABCD1", 0, 0],
+    ["A12345678", 0, 0],
+    ["$$A1", 0, 0],
+    ["A$$1", 0, 0],
+    ["A1B", 0, 0],
+    ["A1(2)", 0, 0],
+    ["A1!B", 0, 0],
+    ["A1[x]", 0, 0],
+  ])("%s is no cell reference: the key is the text itself", (text, row, col) => {
+    expect(relativeKey(text, row, col)).toBe(text);
+  });
+  it.each([
+    ["XFD1048576", 1048575, 16383, "\u00010,0\u0001"],
+    ["A1", 0, 0, "\u00010,0\u0001"],
+    ["$B$3", 0, 0, "\u0001$1,$2\u0001"],
+    ["b3", 1, 0, "\u00011,1\u0001"],
+    ["A0000002", 0, 0, "\u00010,1\u0001"],
+    ["-C$2+'Q 1'!A1", 5, 1, "-\u00011,$1\u0001+'Q 1'!\u0001-1,-5\u0001"], // another sheet's relative cell shifts too
+  ])("%s at (%i, %i) keys as offsets", (text, row, col, key) => {
+    expect(relativeKey(text, row, col)).toBe(key);
+  });
+  it("a whole column or row in any form marks the key with its cell", () => {
+    expect(relativeKey("SUM($A:B)", 3, 4)).toBe("SUM($A:B)\u00023,4");
+    expect(relativeKey("SUM(1:$3)", 3, 4)).toBe("SUM(1:$3)\u00023,4");
+    expect(relativeKey("SUM(A1:B2)", 0, 0)).toBe("SUM(\u00010,0\u0001:\u00011,1\u0001)");
+    expect(relativeKey('"unclosed', 0, 0)).toBe('"unclosed');
+  });
   it("equal keys mean equal trees (property over shifted references)", () => {
     const ref = fc.record({ col: fc.integer({ min: 0, max: 30 }), row: fc.integer({ min: 0, max: 30 }), absC: fc.boolean(), absR: fc.boolean() });
     fc.assert(
