@@ -334,16 +334,27 @@ function applyEdits(xml: string, edits: readonly Edit[]): Buffer {
   return out.toBuffer();
 }
 
-/** Collects text as UTF-8 bytes in one growing buffer (no joined string: a part may be larger than a JavaScript string can hold). */
+/**
+ * Collects text as UTF-8 bytes in one growing buffer (no joined string: a part may be larger than a
+ * JavaScript string can hold). Small pieces are joined into a string of up to 64 K characters
+ * before each encode: one encode per piece (two per cell of a large sheet) cost more than the join.
+ */
 export class Utf8Writer {
   private buf: Buffer;
   private at = 0;
+  private pending = "";
   /** `expected`: the bytes the output will likely need (a rewritten sheet is about its own size). */
   constructor(expected = 1 << 20) {
     this.buf = Buffer.allocUnsafe(Math.max(1 << 16, Math.ceil(expected)));
   }
   add(s: string): void {
+    this.pending += s;
+    if (this.pending.length >= 1 << 16) this.flush();
+  }
+  private flush(): void {
+    const s = this.pending;
     if (!s) return;
+    this.pending = "";
     const need = this.at + s.length * 3;
     if (need > this.buf.length) {
       let size = this.buf.length * 2;
@@ -355,6 +366,7 @@ export class Utf8Writer {
     this.at += this.buf.write(s, this.at, "utf8");
   }
   toBuffer(): Buffer {
+    this.flush();
     return this.buf.subarray(0, this.at);
   }
 }
