@@ -19,7 +19,7 @@ const PARTS = {
   "engine-lexer": { folder: "engine", mutate: ["src/engine/formula/lexer.ts"] },
   "engine-parser": { folder: "engine", mutate: ["src/engine/formula/parser.ts"] },
   "engine-functions": { folder: "engine", mutate: ["src/engine/formula/functions/**/*.ts"] },
-  "engine-book": { folder: "engine", mutate: ["src/engine/{book,plan,recalc,host}.ts"] },
+  "engine-book": { folder: "engine", mutate: ["src/engine/{book,shared-trees,plan,recalc,host}.ts"] },
   "engine-small": { folder: "engine", mutate: ["src/engine/{cellref,registry,soil,formula-text,evaluate}.ts"] },
   "engine-reports": { folder: "engine", mutate: ["src/engine/{report-template,report-batch,report-package,table-xlsx}.ts", "src/engine/season/{inputs,summary,one}.ts"] },
 };

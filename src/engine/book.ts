@@ -8,7 +8,8 @@
 import { a1, parseA1 } from "./cellref";
 import { CellStore, Form, FormulaStore, RowStore } from "./store";
 import { FormulaSyntaxError, T, Token, tokenize } from "./formula/lexer";
-import { NameMap, Node, parseFormula, parseTokens } from "./formula/parser";
+import { NameMap, Node, parseFormula } from "./formula/parser";
+import { SharedTrees } from "./shared-trees";
 import { ErrorCode, Rect, Scalar, XlError, isErrorCode, MAX_COLS, MAX_ROWS } from "./formula/values";
 import { MAIN_NS, Tok, XmlError, XmlScanner, decodeXmlText, prefixFor } from "./xml";
 import { WorkbookFileError, XlsxPackage, asFileError, dynamicArrayCms, readRelationships, relsPathOf, resolveTarget } from "./xlsx-package";
@@ -71,7 +72,7 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
   const strings = sstRel ? asFileError("the shared strings cannot be read", () => readSharedStrings(pkg.text(resolveTarget(pkg.workbookPath, sstRel.target)))) : [];
   const metaRel = rels.find((r) => r.type.endsWith("/sheetMetadata"));
   const dynamicCms = metaRel ? asFileError("the cell metadata cannot be read", () => dynamicArrayCms(pkg.text(resolveTarget(pkg.workbookPath, metaRel.target)))) : new Set<number>();
-  const cache = new Map<string, Node>();
+  const trees = new SharedTrees(names);
   const sheets: Sheet[] = pkg.sheets.map((part) => {
     if (part.kind !== "worksheet") {
       const cells = new CellStore();
@@ -79,7 +80,7 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
       return { name: part.name, index: part.index, path: part.path, isWorksheet: false, xml: "", cells, formulas: new FormulaStore(), rowSpans: new RowStore(), merges: [] };
     }
     const xml = pkg.text(part.path) as string;
-    return asFileError(`sheet "${part.name}" cannot be read`, () => readSheet(part.name, part.index, part.path, xml, strings, dynamicCms, pkg.date1904, names, cache));
+    return asFileError(`sheet "${part.name}" cannot be read`, () => readSheet(part.name, part.index, part.path, xml, strings, dynamicCms, pkg.date1904, trees));
   });
   const byName = new Map(sheets.map((s) => [s.name.toUpperCase(), s.index]));
   const definedNames: DefinedName[] = [];
@@ -221,97 +222,6 @@ interface RawCell {
   inline?: string;
 }
 
-const isRefChar = (c: number) =>
-  (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || c > 127;
-const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
-const isDigit = (c: number) => c >= 48 && c <= 57;
-
-/** Where a run of up to `max` characters passing `test` ends, from `i` (no further than `end`). */
-function runEnd(text: string, i: number, end: number, max: number, test: (c: number) => boolean): number {
-  let j = i;
-  while (j < end && j - i < max && test(text.charCodeAt(j))) j++;
-  return j;
-}
-
-/**
- * A formula's text with its relative cell references written as offsets from (row, col), so a
- * formula filled down a column has one key (and one tree). It recognises a reference exactly
- * where the lexer does (a whole word in cell form, not followed by "(", "!" or "["; text in
- * quotes left alone); anything else stays literal, so two formulas share a key only when one is
- * the other shifted. A character scanner, not regular expressions: it runs once per formula cell
- * read (1.2 million in a 100,000-sample season).
- */
-export function relativeKey(text: string, row: number, col: number): string {
-  let out = "";
-  let i = 0;
-  const n = text.length;
-  let last = 0;
-  let positional = false;
-  while (i < n) {
-    const c = text.charCodeAt(i);
-    if (c === 34 || c === 39) {
-      // a string or a quoted sheet name: skip to its closing quote ("" and '' escape)
-      let j = i + 1;
-      for (;;) {
-        const q = text.indexOf(c === 34 ? '"' : "'", j);
-        if (q < 0) return text; // malformed: no sharing
-        if (text.charCodeAt(q + 1) === c) {
-          j = q + 2;
-          continue;
-        }
-        i = q + 1;
-        break;
-      }
-      continue;
-    }
-    if (!isRefChar(c)) {
-      i++;
-      continue;
-    }
-    let j = i;
-    while (j < n && isRefChar(text.charCodeAt(j))) j++;
-    const next = text.charCodeAt(j);
-    // The word [i, j) in cell form: $? letters{1,3} $? digits{1,7}, nothing else.
-    const colAbs = c === 36;
-    const lettersAt = colAbs ? i + 1 : i;
-    const lettersEnd = runEnd(text, lettersAt, j, 3, isLetter);
-    const digitsEnd = runEnd(text, lettersAt, j, 7, isDigit);
-    // Whole columns (A:B) and rows (1:3) are relative too, but not in cell form: no sharing.
-    if ((next === 58 || text.charCodeAt(i - 1) === 58) && ((lettersEnd > lettersAt && lettersEnd === j) || (digitsEnd > lettersAt && digitsEnd === j))) positional = true;
-    if (next !== 40 && next !== 33 && next !== 91 && lettersEnd > lettersAt && !isLetter(text.charCodeAt(lettersEnd))) {
-      const rowAbs = text.charCodeAt(lettersEnd) === 36;
-      const rowDigitsAt = rowAbs ? lettersEnd + 1 : lettersEnd;
-      const rowDigitsEnd = runEnd(text, rowDigitsAt, j, 7, isDigit);
-      if (rowDigitsEnd > rowDigitsAt && rowDigitsEnd === j) {
-        let k = 0;
-        for (let p = lettersAt; p < lettersEnd; p++) k = k * 26 + ((text.charCodeAt(p) | 32) - 96);
-        const colAt = k - 1;
-        let rowNumber = 0;
-        for (let p = rowDigitsAt; p < rowDigitsEnd; p++) rowNumber = rowNumber * 10 + (text.charCodeAt(p) - 48);
-        const rowAt = rowNumber - 1;
-        if (colAt < 16384 && rowAt >= 0 && rowAt < 1048576) {
-          out += text.slice(last, i);
-          out += `\u0001${colAbs ? `$${colAt}` : colAt - col},${rowAbs ? `$${rowAt}` : rowAt - row}\u0001`;
-          last = j;
-        }
-      }
-    }
-    i = j;
-  }
-  return out + text.slice(last) + (positional ? `\u0002${row},${col}` : "");
-}
-
-/** Parses a formula written at (row, col), sharing trees between formulas of the same relative shape. */
-export function parseShared(text: string, row: number, col: number, names: NameMap, cache: Map<string, Node>): Node {
-  const body = text.startsWith("=") ? text.slice(1) : text;
-  const key = relativeKey(body, row, col);
-  const hit = cache.get(key);
-  if (hit) return hit;
-  const node = parseTokens(tokenize(body), row, col, names);
-  if (cache.size < 200000) cache.set(key, node);
-  return node;
-}
-
 function parseRef(ref: string | undefined): Rect | undefined {
   if (!ref) return undefined;
   const [a, b] = ref.split(":");
@@ -333,8 +243,7 @@ function readSheet(
   strings: readonly string[],
   dynamicCms: Set<number>,
   date1904: boolean,
-  names: NameMap,
-  cache: Map<string, Node>,
+  trees: SharedTrees,
 ): Sheet {
   const s = new XmlScanner(xml);
   // A cell's markup is rarely under 40 characters: the arrays start at a size they seldom outgrow.
@@ -438,7 +347,7 @@ function readSheet(
         raw.fText = raw.fType = raw.fRef = raw.fSi = raw.v = raw.inline = undefined;
         if (!s.selfClosing) readCellBody(s, raw, isMain, row, col);
         const k = cells.add(row, col, cellStart, s.end);
-        storeCell(cells, formulas, k, raw, row, col, strings, dynamicCms, date1904, names, cache, masters, pendingShared);
+        storeCell(cells, formulas, k, raw, row, col, strings, dynamicCms, date1904, trees, masters, pendingShared);
       }
       rowSpans.add(row, rowStart, openEnd, s.start, s.end, false);
     }
@@ -564,8 +473,7 @@ function storeCell(
   strings: readonly string[],
   dynamicCms: Set<number>,
   date1904: boolean,
-  names: NameMap,
-  cache: Map<string, Node>,
+  trees: SharedTrees,
   masters: Map<string, number>,
   pendingShared: { formula: number; si: string }[],
 ): void {
@@ -644,7 +552,7 @@ function storeCell(
   }
   if (form !== Form.Table) {
     try {
-      formulas.node[i] = parseShared(raw.fText, row, col, names, cache);
+      formulas.node[i] = trees.tree(raw.fText, row, col);
     } catch (e) {
       if (!(e instanceof FormulaSyntaxError)) throw e;
       formulas.syntaxError.set(i, e.message);

@@ -4,7 +4,7 @@
  * give wrong numbers if the key were looser than the lexer. Formulas invented.
  */
 import fc from "fast-check";
-import { relativeKey } from "../../src/engine/book";
+import { SharedTrees, relativeKey } from "../../src/engine/shared-trees";
 import { columnLetters } from "../../src/engine/cellref";
 import { parseFormula } from "../../src/engine/formula/parser";
 import { SOIL_NAMES } from "../../src/engine/soil";
@@ -72,5 +72,19 @@ describe("relative keys of formulas", () => {
         expect(relativeKey(a, 10, 10)).toBe(relativeKey(b, 10 + dr, 10 + dc));
       }),
     );
+  });
+});
+
+describe("SharedTrees", () => {
+  it("formulas of one shape get one tree, equal to parsing each; other shapes in the column get theirs", () => {
+    const trees = new SharedTrees(SOIL_NAMES);
+    const a = trees.tree("=A1+1", 0, 1);
+    expect(trees.tree("A2+1", 1, 1)).toBe(a); // filled down
+    const b = trees.tree("A3*2", 2, 1);
+    expect(b).not.toBe(a);
+    expect(trees.tree("A4+1", 3, 1)).toBe(a); // after another shape
+    expect(trees.tree("B9+1", 8, 2)).toBe(a); // another column, same shape
+    for (const [t, r, c] of [["A2+1", 1, 1], ["A3*2", 2, 1], ["A4+1", 3, 1]] as const) expect(trees.tree(t, r, c)).toEqual(parseFormula(t, r, c, SOIL_NAMES));
+    expect(() => trees.tree("A1+", 0, 1)).toThrow();
   });
 });
