@@ -101,8 +101,8 @@ describe("parser: operators", () => {
     for (const f of ["OFFSET", "INDIRECT", "CHOOSE", "IF", "_xlfn.INDEX"]) expect(at(`C5 ${f}(D6)`)).toMatchObject({ k: "isect" });
     refused("C5 SUM(D6)", /unexpected text at 4/); // SUM gives no reference: a space before it is no operator
     refused("C5 1", /unexpected text at 4/);
-    refused("C5(D6)", /unexpected text at 3/); // no space: no intersection
-    refused("(C5)limits", /unexpected text at 5/);
+    expect(at("C5(D6)")).toEqual({ k: "fn", name: "C5", args: [d6] }); // a cell-like word before ( is a function name
+    refused("(C5)limits", /unexpected text at 5/); // no space: no intersection
     expect(at("C5 +1")).toEqual(bin("+", c5, num(1)));
     expect(at("C5 + 1")).toEqual(bin("+", c5, num(1))); // spaces around an operator are only spaces
     expect(at("(C5,D6)")).toEqual({ k: "union", items: [c5, d6] });
