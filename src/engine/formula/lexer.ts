@@ -70,12 +70,14 @@ export class FormulaSyntaxError extends Error {
 const isDigit = (c: number) => c >= 48 && c <= 57;
 const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
 const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9 || c === 0xa0;
+/** Letters of other scripts; the non-breaking space is whitespace, never part of a name. */
+const isOtherLetter = (c: number) => c > 127 && c !== 0xa0;
 /** Characters of a name or unquoted sheet name: letters (any script), digits, _ . \ ? */
 function isNameChar(c: number): boolean {
-  return isLetter(c) || isDigit(c) || c === 95 || c === 46 || c === 92 || c === 63 || c > 127;
+  return isLetter(c) || isDigit(c) || c === 95 || c === 46 || c === 92 || c === 63 || isOtherLetter(c);
 }
 function isNameStart(c: number): boolean {
-  return isLetter(c) || c === 95 || c === 92 || c > 127;
+  return isLetter(c) || c === 95 || c === 92 || isOtherLetter(c);
 }
 
 function columnNumber(letters: string): number {
@@ -249,7 +251,8 @@ export function tokenize(text: string): Token[] {
         i = j + 5;
         continue;
       }
-      const ref = refAt(body);
+      // Sheet1!1:3 is a whole-row range like 1:3 (ECMA-376 Part 1, §18.17.2.3 cell references).
+      const ref = refAt(body) ?? rowRangeAt(body);
       if (ref) {
         push({ t: T.Ref, start, end: j + ref.length, space, ref: { ...ref.parts, sheet } });
         i = j + ref.length;
@@ -274,7 +277,10 @@ export function tokenize(text: string): Token[] {
         continue;
       }
       const m = /^(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?/.exec(rest()) as RegExpExecArray;
-      push({ t: T.Num, start, end: i + m[0].length, space, value: Number(m[0]) });
+      const value = Number(m[0]);
+      // 1E400 is beyond a double (Excel's numbers are IEC 60559 doubles): refuse, never Infinity.
+      if (!Number.isFinite(value)) throw new FormulaSyntaxError(`the number ${m[0]} is too large, at ${i + 1}`);
+      push({ t: T.Num, start, end: i + m[0].length, space, value });
       i += m[0].length;
       continue;
     }
