@@ -113,6 +113,7 @@ function columnAt(s: string): Corner | undefined {
   if (!m) return undefined;
   const col = columnNumber(m[2] as string);
   if (col >= MAX_COLS) return undefined;
+  // Stryker disable next-line BooleanLiteral: equivalent: a column corner's rowAbs is never read (refAt writes ra1/ra2 itself)
   return { col, colAbs: m[1] === "$", rowAbs: true, length: m[0].length };
 }
 
@@ -121,11 +122,13 @@ function rowAt(s: string): Corner | undefined {
   if (!m) return undefined;
   const row = Number(m[2]) - 1;
   if (row < 0 || row >= MAX_ROWS) return undefined;
+  // Stryker disable next-line BooleanLiteral: equivalent: a row corner's colAbs is never read (rowRangeAt writes ca1/ca2 itself)
   return { row, rowAbs: m[1] === "$", colAbs: true, length: m[0].length };
 }
 
 /** What may follow a reference without making it part of a longer name. */
 function endsWord(s: string, i: number): boolean {
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts (so the next line also says true)
   if (i >= s.length) return true;
   const c = s.charCodeAt(i);
   return !(isNameChar(c) || c === 40 /* ( */ || c === 33 /* ! */ || c === 91 /* [ */);
@@ -141,8 +144,10 @@ export function tokenize(text: string): Token[] {
   let i = 0;
   let braces = 0;
   const push = (tok: Token) => out.push(tok);
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: at i >= n the loop body breaks before reading
   while (i < n) {
     let space = false;
+    // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
     while (i < n && isSpace(text.charCodeAt(i))) {
       i++;
       space = true;
@@ -182,6 +187,7 @@ export function tokenize(text: string): Token[] {
         continue;
       }
       const m = /^#(NULL!|DIV\/0!|VALUE!|REF!|NAME\?|NUM!|N\/A|GETTING_DATA|SPILL!|CALC!|FIELD!|BLOCKED!|CONNECT!|BUSY!|UNKNOWN!|PYTHON!)/i.exec(rest());
+      // Stryker disable next-line ConditionalExpression: equivalent: the regex lists exactly the error codes, so isErrorCode holds whenever it matches
       if (!m || !isErrorCode(m[0])) throw new FormulaSyntaxError(`unexpected "#" at ${i + 1}`);
       push({ t: T.Err, start, end: i + m[0].length, space, value: m[0].toUpperCase() });
       i += m[0].length;
@@ -225,15 +231,20 @@ export function tokenize(text: string): Token[] {
       push({ t: T.Unsupported, start, end: e, space, value: external ? "a reference to another workbook" : "a structured (table) reference" });
       i = e;
       continue;
+    // Stryker disable next-line ConditionalExpression: equivalent: for "$" or any other character the word below is empty, so nothing is taken
     } else if (isNameStart(c) || isDigit(c) || c === 36 /* $ */) {
       // An unquoted prefix: a word followed by "!" (or word:word! for 3-D).
       let k = i;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k < n && isNameChar(text.charCodeAt(k))) k++;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k === i only at "$", which is neither "!" nor ":"
       if (k > i && text.charCodeAt(k) === 33) {
         sheet = text.slice(i, k);
         j = k + 1;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k === i only at "$", which is neither "!" nor ":"
       } else if (k > i && text.charCodeAt(k) === 58 /* : */) {
         let k2 = k + 1;
+        // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k2 < n && isNameChar(text.charCodeAt(k2))) k2++;
         if (k2 > k + 1 && text.charCodeAt(k2) === 33) {
           const e = skipReferenceBody(text, k2 + 1);
@@ -259,7 +270,9 @@ export function tokenize(text: string): Token[] {
         continue;
       }
       let k = j;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       if (k < n && isNameStart(text.charCodeAt(k))) {
+        // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k < n && isNameChar(text.charCodeAt(k))) k++;
         push({ t: T.Name, start, end: k, space, value: text.slice(j, k), sheet });
         i = k;
@@ -286,6 +299,7 @@ export function tokenize(text: string): Token[] {
     }
 
     // References without a sheet
+    // Stryker disable next-line ConditionalExpression: equivalent: refAt finds nothing in text that starts with neither "$" nor a letter
     if (c === 36 || isLetter(c)) {
       const ref = refAt(rest());
       if (ref) {
@@ -307,9 +321,11 @@ export function tokenize(text: string): Token[] {
     // Names, functions, TRUE/FALSE, structured references (Table1[Col])
     if (isNameStart(c)) {
       let k = i;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k < n && isNameChar(text.charCodeAt(k))) k++;
       const word = text.slice(i, k);
       let k2 = k;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k2 < n && isSpace(text.charCodeAt(k2))) k2++;
       if (text.charCodeAt(k2) === 40 /* ( */ && !(braces > 0)) {
         push({ t: T.Func, start, end: k, space, value: word });
@@ -386,6 +402,7 @@ export function tokenize(text: string): Token[] {
 
 function matchingBracket(text: string, open: number): number {
   let depth = 0;
+  // Stryker disable next-line EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
   for (let k = open; k < text.length; k++) {
     const ch = text.charCodeAt(k);
     if (ch === 39 /* ' escapes the next character inside structured references */) {
@@ -401,6 +418,7 @@ function matchingBracket(text: string, open: number): number {
 /** The end of what follows a sheet prefix: a reference, a name or #REF!. */
 function skipReferenceBody(text: string, from: number): number {
   let k = from;
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
   while (k < text.length && (isNameChar(text.charCodeAt(k)) || text.charCodeAt(k) === 36 || text.charCodeAt(k) === 58 || text.charCodeAt(k) === 33 || text.charCodeAt(k) === 35)) k++;
   return k;
 }

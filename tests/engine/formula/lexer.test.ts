@@ -491,6 +491,25 @@ describe("lexer: cell references", () => {
     expect(tokenize(text)).toStrictEqual([tk(T.Name, 0, text.length, { value: text }), end(text.length)]);
   });
 
+  it("at most seven row digits, even with leading zeros (A00000001 is a name)", () => {
+    expect(tokenize("A0000001")).toStrictEqual([tk(T.Ref, 0, 8, { ref: cell(0, 0) }), end(8)]);
+    expect(tokenize("A00000001")).toStrictEqual([tk(T.Name, 0, 9, { value: "A00000001" }), end(9)]);
+  });
+
+  it("a cell inside a longer word is not found there", () => {
+    expect(tokenize("A.A$1:$2")).toStrictEqual([tk(T.Name, 0, 3, { value: "A.A" }), tk(T.Ref, 3, 8, { ref: rows(0, 1, true, true) }), end(8)]);
+  });
+
+  it("single letters between operators are names, not columns", () => {
+    expect(kinds("A+B")).toStrictEqual([
+      [T.Name, "A"],
+      [T.Op, "+"],
+      [T.Name, "B"],
+      [T.End, ""],
+    ]);
+    expect(tokenize("a b")).toStrictEqual([tk(T.Name, 0, 1, { value: "a" }), tk(T.Name, 2, 3, { space: true, value: "b" }), end(3)]);
+  });
+
   it("a cell followed by ( is a function name", () => {
     expect(kinds("LOG10(2)")).toStrictEqual([
       [T.Func, "LOG10"],
@@ -620,6 +639,11 @@ describe("lexer: ranges", () => {
     ]);
   });
 
+  it("at most seven digits in a whole-row corner", () => {
+    expect(tokenize("0000001:2")).toStrictEqual([tk(T.Ref, 0, 9, { ref: rows(0, 1) }), end(9)]);
+    expect(tokenize("00000001:2")).toStrictEqual([tk(T.Num, 0, 8, { value: 1 }), tk(T.Op, 8, 9, { value: ":" }), tk(T.Num, 9, 10, { value: 2 }), end(10)]);
+  });
+
   it("a whole-row range followed by more of a word is not one", () => {
     expect(kinds("1:3A")).toStrictEqual([
       [T.Num, "1"],
@@ -668,6 +692,12 @@ describe("lexer: sheet-qualified references and names", () => {
       tk(T.Op, 9, 10, { value: "+" }),
       tk(T.Ref, 10, 18, { ref: sheetRef(cell(1, 1), "S 2") }),
       end(18),
+    ]);
+    expect(tokenize("A1+Sheet1!B2")).toStrictEqual([
+      tk(T.Ref, 0, 2, { ref: cell(0, 0) }),
+      tk(T.Op, 2, 3, { value: "+" }),
+      tk(T.Ref, 3, 12, { ref: sheetRef(cell(1, 1), "Sheet1") }),
+      end(12),
     ]);
     expect(tokenize(" Sheet1!A1")[0]).toStrictEqual(tk(T.Ref, 1, 10, { space: true, ref: sheetRef(cell(0, 0), "Sheet1") }));
   });
