@@ -8,8 +8,9 @@
 import { tokenize } from "./formula/lexer";
 import { NameMap, Node, parseTokens } from "./formula/parser";
 
+/** The lexer's name characters and $; the non-breaking space is whitespace there, so it ends a word here. */
 const isRefChar = (c: number) =>
-  (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || c > 127;
+  (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || (c > 127 && c !== 0xa0);
 const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
 const isDigit = (c: number) => c >= 48 && c <= 57;
 

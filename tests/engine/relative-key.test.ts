@@ -51,6 +51,10 @@ describe("relative keys of formulas", () => {
   ])("%s at (%i, %i) keys as offsets", (text, row, col, key) => {
     expect(relativeKey(text, row, col)).toBe(key);
   });
+  it("a non-breaking space ends a word, as in the lexer (A1\u00a0B1 is two cells)", () => {
+    expect(relativeKey("A1\u00a0B1", 0, 0)).toBe("\u00010,0\u0001\u00a0\u00011,0\u0001");
+    expect(relativeKey("A1\u00a0B1", 0, 0)).not.toBe(relativeKey("A1\u00a0B1", 1, 0));
+  });
   it("a whole column or row in any form marks the key with its cell", () => {
     expect(relativeKey("SUM($A:B)", 3, 4)).toBe("SUM($A:B)\u00023,4");
     expect(relativeKey("SUM(1:$3)", 3, 4)).toBe("SUM(1:$3)\u00023,4");

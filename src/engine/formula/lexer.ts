@@ -70,12 +70,14 @@ export class FormulaSyntaxError extends Error {
 const isDigit = (c: number) => c >= 48 && c <= 57;
 const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
 const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9 || c === 0xa0;
+/** Letters of other scripts; the non-breaking space is whitespace, never part of a name. */
+const isOtherLetter = (c: number) => c > 127 && c !== 0xa0;
 /** Characters of a name or unquoted sheet name: letters (any script), digits, _ . \ ? */
 function isNameChar(c: number): boolean {
-  return isLetter(c) || isDigit(c) || c === 95 || c === 46 || c === 92 || c === 63 || c > 127;
+  return isLetter(c) || isDigit(c) || c === 95 || c === 46 || c === 92 || c === 63 || isOtherLetter(c);
 }
 function isNameStart(c: number): boolean {
-  return isLetter(c) || c === 95 || c === 92 || c > 127;
+  return isLetter(c) || c === 95 || c === 92 || isOtherLetter(c);
 }
 
 function columnNumber(letters: string): number {
@@ -111,6 +113,7 @@ function columnAt(s: string): Corner | undefined {
   if (!m) return undefined;
   const col = columnNumber(m[2] as string);
   if (col >= MAX_COLS) return undefined;
+  // Stryker disable next-line BooleanLiteral: equivalent: a column corner's rowAbs is never read (refAt writes ra1/ra2 itself)
   return { col, colAbs: m[1] === "$", rowAbs: true, length: m[0].length };
 }
 
@@ -119,11 +122,13 @@ function rowAt(s: string): Corner | undefined {
   if (!m) return undefined;
   const row = Number(m[2]) - 1;
   if (row < 0 || row >= MAX_ROWS) return undefined;
+  // Stryker disable next-line BooleanLiteral: equivalent: a row corner's colAbs is never read (rowRangeAt writes ca1/ca2 itself)
   return { row, rowAbs: m[1] === "$", colAbs: true, length: m[0].length };
 }
 
 /** What may follow a reference without making it part of a longer name. */
 function endsWord(s: string, i: number): boolean {
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts (so the next line also says true)
   if (i >= s.length) return true;
   const c = s.charCodeAt(i);
   return !(isNameChar(c) || c === 40 /* ( */ || c === 33 /* ! */ || c === 91 /* [ */);
@@ -139,8 +144,10 @@ export function tokenize(text: string): Token[] {
   let i = 0;
   let braces = 0;
   const push = (tok: Token) => out.push(tok);
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: at i >= n the loop body breaks before reading
   while (i < n) {
     let space = false;
+    // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
     while (i < n && isSpace(text.charCodeAt(i))) {
       i++;
       space = true;
@@ -180,6 +187,7 @@ export function tokenize(text: string): Token[] {
         continue;
       }
       const m = /^#(NULL!|DIV\/0!|VALUE!|REF!|NAME\?|NUM!|N\/A|GETTING_DATA|SPILL!|CALC!|FIELD!|BLOCKED!|CONNECT!|BUSY!|UNKNOWN!|PYTHON!)/i.exec(rest());
+      // Stryker disable next-line ConditionalExpression: equivalent: the regex lists exactly the error codes, so isErrorCode holds whenever it matches
       if (!m || !isErrorCode(m[0])) throw new FormulaSyntaxError(`unexpected "#" at ${i + 1}`);
       push({ t: T.Err, start, end: i + m[0].length, space, value: m[0].toUpperCase() });
       i += m[0].length;
@@ -226,12 +234,16 @@ export function tokenize(text: string): Token[] {
     } else if (isNameStart(c) || isDigit(c)) {
       // An unquoted prefix: a word followed by "!" (or word:word! for 3-D). "$" starts none: it is no name character.
       let k = i;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k < n && isNameChar(text.charCodeAt(k))) k++;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k > i always holds here (the branch starts at a name character)
       if (k > i && text.charCodeAt(k) === 33) {
         sheet = text.slice(i, k);
         j = k + 1;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k > i always holds here (the branch starts at a name character)
       } else if (k > i && text.charCodeAt(k) === 58 /* : */) {
         let k2 = k + 1;
+        // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k2 < n && isNameChar(text.charCodeAt(k2))) k2++;
         if (k2 > k + 1 && text.charCodeAt(k2) === 33) {
           // Stryker disable next-line ArithmeticOperator: equivalent: k2 - 1 is a name character and k2 is "!", both of which the body skip passes
@@ -250,14 +262,17 @@ export function tokenize(text: string): Token[] {
         i = j + 5;
         continue;
       }
-      const ref = refAt(body);
+      // Sheet1!1:3 is a whole-row range like 1:3 (ECMA-376 Part 1, §18.17.2.3 cell references).
+      const ref = refAt(body) ?? rowRangeAt(body);
       if (ref) {
         push({ t: T.Ref, start, end: j + ref.length, space, ref: { ...ref.parts, sheet } });
         i = j + ref.length;
         continue;
       }
       let k = j;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       if (k < n && isNameStart(text.charCodeAt(k))) {
+        // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k < n && isNameChar(text.charCodeAt(k))) k++;
         push({ t: T.Name, start, end: k, space, value: text.slice(j, k), sheet });
         i = k;
@@ -275,12 +290,16 @@ export function tokenize(text: string): Token[] {
         continue;
       }
       const m = /^(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?/.exec(rest()) as RegExpExecArray;
-      push({ t: T.Num, start, end: i + m[0].length, space, value: Number(m[0]) });
+      const value = Number(m[0]);
+      // 1E400 is beyond a double (Excel's numbers are IEC 60559 doubles): refuse, never Infinity.
+      if (!Number.isFinite(value)) throw new FormulaSyntaxError(`the number ${m[0]} is too large, at ${i + 1}`);
+      push({ t: T.Num, start, end: i + m[0].length, space, value });
       i += m[0].length;
       continue;
     }
 
     // References without a sheet
+    // Stryker disable next-line ConditionalExpression: equivalent: refAt finds nothing in text that starts with neither "$" nor a letter
     if (c === 36 || isLetter(c)) {
       const ref = refAt(rest());
       if (ref) {
@@ -302,9 +321,11 @@ export function tokenize(text: string): Token[] {
     // Names, functions, TRUE/FALSE, structured references (Table1[Col])
     if (isNameStart(c)) {
       let k = i;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k < n && isNameChar(text.charCodeAt(k))) k++;
       const word = text.slice(i, k);
       let k2 = k;
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k2 < n && isSpace(text.charCodeAt(k2))) k2++;
       if (text.charCodeAt(k2) === 40 /* ( */ && !(braces > 0)) {
         push({ t: T.Func, start, end: k, space, value: word });
@@ -381,6 +402,7 @@ export function tokenize(text: string): Token[] {
 
 function matchingBracket(text: string, open: number): number {
   let depth = 0;
+  // Stryker disable next-line EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
   for (let k = open; k < text.length; k++) {
     const ch = text.charCodeAt(k);
     if (ch === 39 /* ' escapes the next character inside structured references */) {
@@ -396,7 +418,7 @@ function matchingBracket(text: string, open: number): number {
 /** The end of what follows a sheet prefix: a reference, a name or #REF!. */
 function skipReferenceBody(text: string, from: number): number {
   let k = from;
-  // Stryker disable next-line ConditionalExpression: equivalent: past the end charCodeAt is NaN, which no test below accepts; the bound says so plainly
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
   while (k < text.length && (isNameChar(text.charCodeAt(k)) || text.charCodeAt(k) === 36 || text.charCodeAt(k) === 58 || text.charCodeAt(k) === 33 || text.charCodeAt(k) === 35)) k++;
   return k;
 }
