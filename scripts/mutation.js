@@ -143,7 +143,8 @@ const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
 console.log("\n                  killed  survived  no-cov  timeout       errors  equivalent  static-not-run  score    floor    target");
 const row = (label, t, target) => {
   const c = t.counts;
-  const goal = target ? `≥ ${target} % ${t.score >= target ? "met" : "NOT met"}` : "";
+  // A folder with parts not run is not judged: its score is over the parts that were.
+  const goal = target ? `≥ ${target} % ${t.missing ? `not judged, ${t.missing} parts not run` : t.score >= target ? "met" : "NOT met"}` : "";
   console.log(
     `${label.padEnd(18)}${String(c.Killed).padStart(6)}${String(c.Survived).padStart(10)}${String(c.NoCoverage).padStart(8)}` +
       `${String(c.Timeout).padStart(9)}${String(c.CompileError + c.RuntimeError).padStart(13)}${String(c.Ignored).padStart(12)}${String(c.Static).padStart(16)}  ${t.score.toFixed(1).padStart(5)} %  ${t.floor.toFixed(1).padStart(5)} %  ${goal}`,
