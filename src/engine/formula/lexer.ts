@@ -163,6 +163,7 @@ export function tokenize(text: string): Token[] {
       let s = "";
       for (;;) {
         const q = text.indexOf('"', j);
+        // Stryker disable next-line EqualityOperator: equivalent: the search starts after the opening quote, so q is never 0
         if (q < 0) throw new FormulaSyntaxError("a string is not closed");
         s += text.slice(j, q);
         if (text.charCodeAt(q + 1) === 34) {
@@ -202,6 +203,7 @@ export function tokenize(text: string): Token[] {
       let s = "";
       for (;;) {
         const q = text.indexOf("'", k);
+        // Stryker disable next-line EqualityOperator: equivalent: the search starts after the opening apostrophe, so q is never 0
         if (q < 0) throw new FormulaSyntaxError("a quoted sheet name is not closed");
         s += text.slice(k, q);
         if (text.charCodeAt(q + 1) === 39) {
@@ -246,7 +248,7 @@ export function tokenize(text: string): Token[] {
         // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k2 < n && isNameChar(text.charCodeAt(k2))) k2++;
         if (k2 > k + 1 && text.charCodeAt(k2) === 33) {
-          // Stryker disable next-line ArithmeticOperator: equivalent: k2 - 1 is a name character and k2 is "!", both of which the body skip passes
+          // Stryker disable next-line ArithmeticOperator: equivalent: text[k2 - 1] is a name character and text[k2] is "!", both skipped alike
           const e = skipReferenceBody(text, k2 + 1);
           push({ t: T.Unsupported, start, end: e, space, value: "a 3-D reference across sheets" });
           i = e;

@@ -3,12 +3,13 @@
  * every refusal with its message. Formulas are invented; they exercise Excel's grammar, not any
  * workbook.
  *
- * Excel syntax asserted here comes from ECMA-376 Part 1, §18.17 "Formulas" (§18.17.2 syntax:
- * constants §18.17.2.2, cell references §18.17.2.3, names §18.17.2.5), read with Microsoft's notes
- * on how Office implements it (MS-OI29500, §2.1.860 and §2.1.863 for §18.17.2 and §18.17.2.3), and
- * the grid size from Microsoft Support, "Excel specifications and limits" (16,384 columns to XFD,
- * 1,048,576 rows). Cases without such a note pin the lexer's own contract (lexer.ts comments):
- * whitespace kinds, unsupported forms, refusal messages and their 1-based positions.
+ * Excel syntax asserted here comes from ECMA-376 Part 1, §18.17 "Formulas" (§18.17.2 syntax, its
+ * constants and §18.17.2.3 cell references; the constants grammar read in the 1st edition's
+ * Part 4 §3.17.2 text), with Microsoft's notes on how Office implements it (MS-OI29500 §2.1.860 for
+ * §18.17.2 and §2.1.863 for §18.17.2.3), and the grid size from Microsoft Support, "Excel
+ * specifications and limits" (16,384 columns to XFD, 1,048,576 rows). Cases without such a note pin
+ * the lexer's own contract (lexer.ts comments): whitespace kinds, unsupported forms, refusal
+ * messages and their 1-based positions; they are not published values.
  */
 import { FormulaSyntaxError, RefParts, T, Token, tokenize } from "../../../src/engine/formula/lexer";
 
@@ -93,8 +94,8 @@ describe("lexer: the token stream", () => {
 });
 
 describe("lexer: whitespace", () => {
-  // ECMA-376 Part 1 §18.17.2: spaces may separate tokens and are kept apart from the space
-  // (intersection) operator; the lexer flags each token that follows whitespace.
+  // ECMA-376 Part 1 §18.17.2: spaces (U+0020) may separate tokens and are kept apart from the space
+  // (intersection) operator. Tab, CR, LF and the non-breaking space are the lexer's own wider set.
   it.each([
     ["space", " "],
     ["tab", "\t"],
@@ -142,7 +143,7 @@ describe("lexer: whitespace", () => {
 });
 
 describe("lexer: numbers", () => {
-  // ECMA-376 Part 1 §18.17.2.2 numerical-constant: whole-number-part [.] [exponent-part] |
+  // ECMA-376 §18.17.2 constants, numerical-constant: whole-number-part [.] [exponent-part] |
   // . fractional-part [exponent-part] | whole . fractional [exponent-part]; exponent e|E [sign] digits.
   it.each([
     ["0", 0],
@@ -208,7 +209,7 @@ describe("lexer: numbers", () => {
 });
 
 describe("lexer: strings", () => {
-  // ECMA-376 Part 1 §18.17.2.2 string-constant: a double quote inside is written twice.
+  // ECMA-376 §18.17.2 constants, string-constant: a double quote inside is written twice.
   it.each([
     ['""', ""],
     ['"ab"', "ab"],
@@ -229,7 +230,7 @@ describe("lexer: strings", () => {
 });
 
 describe("lexer: booleans and names", () => {
-  // ECMA-376 Part 1 §18.17.2.2 logical-constant: TRUE | FALSE (Excel reads them in any case).
+  // ECMA-376 §18.17.2 constants, logical-constant: TRUE | FALSE (Excel reads them in any case: from memory).
   it.each([
     ["TRUE", true],
     ["true", true],
@@ -291,7 +292,7 @@ describe("lexer: booleans and names", () => {
 });
 
 describe("lexer: error literals", () => {
-  // ECMA-376 Part 1 §18.17.2.2 error-constant lists the first seven; #GETTING_DATA, #SPILL!, #CALC!
+  // ECMA-376 §18.17.2 constants: error-constant lists the first seven; #GETTING_DATA, #SPILL!, #CALC!
   // and the rest are the newer error values of Excel (Microsoft Support error pages, from memory).
   it.each([
     "#NULL!",
@@ -317,7 +318,7 @@ describe("lexer: error literals", () => {
       tk(T.Num, code.length + 1, code.length + 2, { value: 1 }),
       end(code.length + 2),
     ]);
-    // Excel reads error literals in any case and shows them in capitals.
+    // Excel reads error literals in any case and shows them in capitals (from memory).
     expect(tokenize(code.toLowerCase())[0]).toStrictEqual(tk(T.Err, 0, code.length, { value: code }));
   });
 
@@ -403,7 +404,7 @@ describe("lexer: operators and punctuation", () => {
 });
 
 describe("lexer: array constants", () => {
-  // ECMA-376 Part 1 §18.17.2.2 array-constant: { row ; row }, a row being constants separated by ",".
+  // ECMA-376 §18.17.2 constants, array-constant: { row ; row }, a row being constants separated by ",".
   it("{1,2;3,4} with every offset", () => {
     expect(tokenize("{1,2;3,4}")).toStrictEqual([
       tk(T.LBrace, 0, 1),
@@ -465,14 +466,14 @@ describe("lexer: cell references", () => {
     ["ZZ1", cell(0, 701)],
     ["AAA1", cell(0, 702)],
     ["XFC1", cell(0, 16382)],
-    // "LOG10 is always a cell reference, LOG10(…) is always a formula" (ECMA-376 §18.17.2.3 limits).
+    // "LOG10 is always a cell reference, LOG10(…) is always a formula" (ECMA-376, cell references: limits).
     ["LOG10", cell(9, 8508)],
   ])("%s", (text, ref) => {
     expect(tokenize(text)).toStrictEqual([tk(T.Ref, 0, text.length, { ref }), end(text.length)]);
   });
 
   // The grid: columns A..XFD (16,384), rows 1..1,048,576 (Microsoft Support, "Excel specifications
-  // and limits"; ECMA-376 §18.17.2.3: references range from A1 to XFD1048576).
+  // and limits"; ECMA-376, cell references: limits, A1 to XFD1048576).
   it.each([
     ["XFD1", cell(0, 16383)],
     ["xfd1", cell(0, 16383)],
@@ -571,7 +572,7 @@ describe("lexer: ranges", () => {
     ]);
   });
 
-  // Whole columns and rows (ECMA-376 §18.17.2.3; A:A is column A, as in §18.17.2.3's limits).
+  // Whole columns and rows (ECMA-376, cell references: limits write column A as A:A).
   it.each([
     ["A:C", cols(0, 2)],
     ["$A:$C", cols(0, 2, true, true)],
@@ -771,6 +772,16 @@ describe("lexer: references the engine does not evaluate", () => {
       tk(T.RParen, 28, 29),
       end(29),
     ]);
+  });
+
+  it("a range between structured references is three tokens (the colon is not part of either)", () => {
+    expect(tokenize("[@Ca]:[@Mg]")).toStrictEqual([
+      tk(T.Unsupported, 0, 5, { value: STRUCTURED }),
+      tk(T.Op, 5, 6, { value: ":" }),
+      tk(T.Unsupported, 6, 11, { value: STRUCTURED }),
+      end(11),
+    ]);
+    expect(kinds("Table1[Ca]:Table1[Mg]").map((k) => k[0])).toStrictEqual([T.Unsupported, T.Op, T.Unsupported, T.End]);
   });
 
   it("' escapes the next character inside brackets", () => {
