@@ -5,14 +5,12 @@
  * the lexer reads references. (A fill-down check that compares a formula with the one above it,
  * character by character without building a key, was tried: no faster at 100,000 samples.)
  */
-import { tokenize } from "./formula/lexer";
+import { isDigit, isLetter, isNameChar, tokenize } from "./formula/lexer";
 import { NameMap, Node, parseTokens } from "./formula/parser";
+import { MAX_COLS, MAX_ROWS } from "./formula/values";
 
-/** The lexer's name characters and $; the non-breaking space is whitespace there, so it ends a word here. */
-const isRefChar = (c: number) =>
-  (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 92 || c === 63 || c === 36 || (c > 127 && c !== 0xa0);
-const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
-const isDigit = (c: number) => c >= 48 && c <= 57;
+/** A word of a reference: the lexer's name characters and "$" (the lexer's own predicates, so a key never reads a word the lexer reads otherwise). */
+const isRefChar = (c: number) => isNameChar(c) || c === 36;
 
 /**
  * A formula's text with its relative cell references written as offsets from (row, col), so a
@@ -73,9 +71,8 @@ interface CellWord {
   rowAbs: boolean;
   positional: boolean;
 }
-const newWord = (): CellWord => ({ col: -1, row: -1, colAbs: false, rowAbs: false, positional: false });
 // A scratch word, filled in place: this runs per word of every formula cell, so nothing is allocated.
-const WORD = newWord();
+const WORD: CellWord = { col: -1, row: -1, colAbs: false, rowAbs: false, positional: false };
 
 /** Reads the word [i, end) of `text` into `w` and returns it. */
 function cellWord(text: string, i: number, end: number, w: CellWord): CellWord {
@@ -111,7 +108,7 @@ function cellWord(text: string, i: number, end: number, w: CellWord): CellWord {
   if (p === digitsAt || p !== end) return w;
   const col = k - 1;
   const row = rowNumber - 1;
-  if (col >= 16384 || row < 0 || row >= 1048576) return w;
+  if (col >= MAX_COLS || row < 0 || row >= MAX_ROWS) return w;
   w.col = col;
   w.row = row;
   w.rowAbs = rowAbs;

@@ -67,13 +67,13 @@ export class FormulaSyntaxError extends Error {
   }
 }
 
-const isDigit = (c: number) => c >= 48 && c <= 57;
-const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
+export const isDigit = (c: number) => c >= 48 && c <= 57;
+export const isLetter = (c: number) => (c >= 65 && c <= 90) || (c >= 97 && c <= 122);
 const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9 || c === 0xa0;
 /** Letters of other scripts; the non-breaking space is whitespace, never part of a name. */
 const isOtherLetter = (c: number) => c > 127 && c !== 0xa0;
 /** Characters of a name or unquoted sheet name: letters (any script), digits, _ . \ ? */
-function isNameChar(c: number): boolean {
+export function isNameChar(c: number): boolean {
   return isLetter(c) || isDigit(c) || c === 95 || c === 46 || c === 92 || c === 63 || isOtherLetter(c);
 }
 function isNameStart(c: number): boolean {
