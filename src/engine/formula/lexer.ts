@@ -238,12 +238,11 @@ export function tokenize(text: string): Token[] {
       let k = i;
       // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
       while (k < n && isNameChar(text.charCodeAt(k))) k++;
-      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k > i always holds here (the branch starts at a name character)
-      if (k > i && text.charCodeAt(k) === 33) {
+      // k > i here: the branch starts at a name character (isNameStart and digits are name characters).
+      if (text.charCodeAt(k) === 33) {
         sheet = text.slice(i, k);
         j = k + 1;
-      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: k > i always holds here (the branch starts at a name character)
-      } else if (k > i && text.charCodeAt(k) === 58 /* : */) {
+      } else if (text.charCodeAt(k) === 58 /* : */) {
         let k2 = k + 1;
         // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: charCodeAt past the end is NaN, which no character test accepts
         while (k2 < n && isNameChar(text.charCodeAt(k2))) k2++;
