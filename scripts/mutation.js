@@ -20,6 +20,7 @@
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
  *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
  *                                            (Markdown, for the README)
+ *   node scripts/mutation.js --markdown      the score table as Markdown (for the README)
  *
  * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
  * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
@@ -46,6 +47,7 @@ const passOn = dash < 0 ? [] : argv.slice(dash + 1);
 const reportOnly = own.includes("--report");
 const showSurvivors = own.includes("--survivors");
 const showEquivalents = own.includes("--equivalents");
+const markdown = own.includes("--markdown");
 const retestTimeouts = own.includes("--retest-timeouts");
 const retestStatic = own.includes("--retest-static");
 const chosen = own.filter((a) => !a.startsWith("--"));
@@ -91,7 +93,7 @@ function forget(part, what, which) {
 }
 
 let failed = false;
-if (!reportOnly && !showSurvivors) {
+if (!reportOnly && !showSurvivors && !markdown) {
   for (const part of parts) {
     const folder = PARTS[part].folder;
     console.log(`\n== mutation testing ${part}: ${PARTS[part].mutate.join(" ")} ==`);
@@ -139,6 +141,33 @@ function tally(partNames) {
   };
 }
 const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
+
+if (markdown) {
+  const pct = (x) => `${x.toFixed(1)} %`;
+  const cells = (t) => {
+    const c = t.counts;
+    return [c.Killed, c.Survived, c.NoCoverage, c.Timeout, c.CompileError + c.RuntimeError, c.Ignored, c.Static];
+  };
+  console.log("| part | killed | survived | no coverage | timed out | errors | equivalent | static, not run | score | floor |");
+  console.log("|---|---|---|---|---|---|---|---|---|---|");
+  for (const folder of FOLDERS) {
+    const names = Object.keys(PARTS).filter((p) => PARTS[p].folder === folder);
+    const t = tally(names);
+    if (!t) {
+      console.log(`| \`src/${folder}\` | not run | | | | | | | | |`);
+      continue;
+    }
+    const target = TARGET[folder];
+    const verdict = t.missing ? `not judged, ${t.missing} of ${names.length} parts not run` : t.score >= target ? "met" : "NOT met";
+    console.log(`| \`src/${folder}\` | ${cells(t).join(" | ")} | **${pct(t.score)}** (target ≥ ${target} % ${verdict}) | ${pct(t.floor)} |`);
+    for (const p of names) {
+      const tp = tally([p]);
+      if (tp) console.log(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
+      else console.log(`| \`${p}\` | not run yet | | | | | | | | |`);
+    }
+  }
+  process.exit(0);
+}
 
 console.log("\n                  killed  survived  no-cov  timeout       errors  equivalent  static-not-run  score    floor    target");
 const row = (label, t, target) => {
