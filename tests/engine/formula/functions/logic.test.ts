@@ -295,3 +295,11 @@ describe("logical functions over arrays (dynamic-array formulas)", () => {
     expect(v("H2")).toBe(true);
   });
 });
+
+describe("ERROR.TYPE of Excel 365's newer errors", () => {
+  it("#GETTING_DATA is 8, #SPILL! 9, #CALC! 14 (from memory of Microsoft's ERROR.TYPE table; LibreOffice 7.4 has no such errors)", () => {
+    expect(evaluateFormula("=ERROR.TYPE(#GETTING_DATA)")).toEqual({ value: 8 });
+    expect(evaluateFormula("=ERROR.TYPE(#SPILL!)")).toEqual({ value: 9 });
+    expect(evaluateFormula("=ERROR.TYPE(#CALC!)")).toEqual({ value: 14 });
+  });
+});

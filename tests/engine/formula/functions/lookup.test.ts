@@ -350,3 +350,10 @@ describe("lookup functions: spills, refusals and limits", () => {
     expect(evaluateFormula('=COUNTIF(A:C,"")', { blankReferences: true })).toEqual({ value: 3145728 });
   });
 });
+
+describe("INDEX at the edges of its range", () => {
+  it("the last row and the last column are inside (LO the same; MS INDEX: row_num and column_num must point to a cell within array)", async () => {
+    const v = await compute({ A1: 1, A6: 11, D1: 60, D6: 10 }, { H1: "INDEX(A1:D6,6,1)", H2: "INDEX(A1:D6,6,4)", H3: "INDEX(A1:D6,1,4)", H4: "VLOOKUP(11,A1:D6,4,FALSE)" });
+    expect([v("H1"), v("H2"), v("H3"), v("H4")]).toEqual([11, 10, 60, 10]);
+  });
+});
