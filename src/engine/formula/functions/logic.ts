@@ -69,9 +69,10 @@ function logicalFold(name: string, start: boolean, step: (acc: boolean, v: boole
       let seen = false;
       const e = eachValue(args, ctx, (v, fromRange) => {
         if (isError(v)) return v;
-        if (v === null) return;
-        if (typeof v === "boolean") {
-          acc = step(acc, v);
+        // A blank cell is skipped; an argument left empty (AND(TRUE,)) is the FALSE it stands for.
+        if (v === null && fromRange) return;
+        if (v === null || typeof v === "boolean") {
+          acc = step(acc, v === true);
           seen = true;
         } else if (typeof v === "number") {
           acc = step(acc, v !== 0);

@@ -303,3 +303,12 @@ describe("ERROR.TYPE of Excel 365's newer errors", () => {
     expect(evaluateFormula("=ERROR.TYPE(#CALC!)")).toEqual({ value: 14 });
   });
 });
+
+describe("AND, OR and XOR with an argument left empty", () => {
+  it("the empty argument is FALSE (LO 7.4: AND(TRUE,) FALSE, OR(FALSE,) FALSE, XOR(TRUE,) TRUE; it was skipped before)", () => {
+    expect(evaluateFormula("=AND(TRUE,)")).toEqual({ value: false });
+    expect(evaluateFormula("=OR(FALSE,)")).toEqual({ value: false });
+    expect(evaluateFormula("=XOR(TRUE,)")).toEqual({ value: true });
+    expect(evaluateFormula("=OR(,TRUE)")).toEqual({ value: true });
+  });
+});

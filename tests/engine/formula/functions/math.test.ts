@@ -305,3 +305,17 @@ describe("math functions over arrays and at their limits", () => {
     expect([v("H1"), v("H2"), v("H3"), v("H4")]).toEqual([13, 3, 4, 10]);
   });
 });
+
+describe("math functions: errors passed through, and no negative zero", () => {
+  it("an error argument is the result (LibreOffice 7.4 computes the same)", () => {
+    expect(evaluateFormula("=SUMSQ(NA())").error).toBe("#N/A");
+    expect(evaluateFormula("=PRODUCT(NA())").error).toBe("#N/A");
+    expect(evaluateFormula("=MEDIAN(NA())").error).toBe("#N/A");
+    expect(evaluateFormula("=LARGE(NA(),1)").error).toBe("#N/A");
+    expect(evaluateFormula('=SUMSQ(1,"x")')).toEqual({ error: "#VALUE!", message: 'text "x" is not a number' });
+  });
+  it("INT(-0) is 0, not -0 (LO: 0; a cell cannot hold a negative zero)", () => {
+    expect(evaluateFormula("=INT(-0)")).toEqual({ value: 0 });
+    expect(evaluateFormula("=SIGN(-0)")).toEqual({ value: 0 });
+  });
+});
