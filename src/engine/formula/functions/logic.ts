@@ -51,14 +51,10 @@ function onError(test: (e: XlError) => boolean) {
       if (isError(value) && test(value)) return evalLazy(args[1], ctx, true) ?? 0;
       return v instanceof XlRef ? v : value;
     }
-    let fallback: Scalar | XlArray | undefined;
-    return lift([value], ([x]) => {
-      if (isError(x) && test(x)) {
-        fallback ??= toValue(evalLazy(args[1], ctx, false), ctx);
-        return fallback instanceof XlArray ? fallback.at(0, 0) : fallback;
-      }
-      return x as Scalar;
-    }, ctx);
+    // The fallback is computed only when an element needs it, and taken element by element.
+    if (!value.data.some((x) => isError(x) && test(x))) return value;
+    const fallback = toValue(evalLazy(args[1], ctx, false) ?? 0, ctx);
+    return lift([value, fallback], ([x, f]) => (isError(x) && test(x) ? f : x) as Scalar, ctx);
   };
 }
 
@@ -73,9 +69,10 @@ function logicalFold(name: string, start: boolean, step: (acc: boolean, v: boole
       let seen = false;
       const e = eachValue(args, ctx, (v, fromRange) => {
         if (isError(v)) return v;
-        if (v === null) return;
-        if (typeof v === "boolean") {
-          acc = step(acc, v);
+        // A blank cell is skipped; an argument left empty (AND(TRUE,)) is the FALSE it stands for.
+        if (v === null && fromRange) return;
+        if (v === null || typeof v === "boolean") {
+          acc = step(acc, v === true);
           seen = true;
         } else if (typeof v === "number") {
           acc = step(acc, v !== 0);

@@ -6,7 +6,7 @@
 import { tokenize, T } from "../lexer";
 import { Ctx, ResourceLimit, notComputed, eachCell, resolveRef, toArray } from "../evaluate";
 import { compare, numberFromText, toBool, toNumber, toText } from "../coerce";
-import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "../values";
+import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, err, isError, isErrorCode } from "../values";
 import { Table, arrayArg, classes, int, num } from "./kit";
 
 // ---------------------------------------------------------------------------------------------
@@ -88,6 +88,11 @@ export function criterion(c: Scalar): (v: Scalar) => boolean {
     if (op === "=") return (v) => v === null || (m[1] === undefined && v === "");
     if (op === "<>") return (v) => v !== null;
     return () => false;
+  }
+  // "#N/A", "<>#DIV/0!": error text is matched against error cells, as Excel's criteria do.
+  if ((op === "=" || op === "<>") && isErrorCode(operand)) {
+    const code = operand.toUpperCase();
+    return op === "=" ? (v) => isError(v) && v.code === code : (v) => !(isError(v) && v.code === code);
   }
   const n = numberFromText(operand);
   const b = operand.toUpperCase() === "TRUE" ? true : operand.toUpperCase() === "FALSE" ? false : undefined;

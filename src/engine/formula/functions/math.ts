@@ -317,7 +317,8 @@ export function addMath(t: Table): void {
       let n = 0;
       eachValue(a, ctx, (v, fromRange) => {
         if (typeof v === "number") n++;
-        else if (!fromRange && v !== null && !isError(v) && (typeof v === "boolean" || !isError(toNumber(v)))) n++;
+        // An argument left empty (COUNT(1,,2)) is counted as the 0 it stands for; blank cells are not.
+        else if (!fromRange && (v === null || (!isError(v) && (typeof v === "boolean" || !isError(toNumber(v)))))) n++;
       });
       return n;
     },

@@ -3,10 +3,10 @@
  * format codes, VALUE of "1,234" or "01/02/2025", DATEVALUE of anything but an ISO date) are
  * refused with a message rather than guessed.
  */
-import { Ctx, notComputed } from "../evaluate";
+import { Ctx, notComputed, toArray } from "../evaluate";
 import { numberFromText, toText } from "../coerce";
-import { Scalar, Value, XlArray, XlError, err, isError } from "../values";
-import { Table, classes, eachValue, int, num, scalarFn, text } from "./kit";
+import { Scalar, Value, XlArray, XlError, XlRef, err, isError } from "../values";
+import { Table, bool, classes, eachValue, int, num, scalarFn, text } from "./kit";
 
 function textFn(min: number, max: number, f: (s: string, a: (Scalar | undefined)[]) => Scalar) {
   return scalarFn(min, max, (a) => {
@@ -146,9 +146,10 @@ export function addText(t: Table): void {
     const k = int(d);
     if (isError(k)) return k;
     if (k < 1) return err("#VALUE!", "SUBSTITUTE's instance must be at least 1");
-    let at = -1;
+    // Instances do not overlap (SUBSTITUTE("aaa","aa","b",2) has no second one), as without instance_num.
+    let at = -from.length;
     for (let i = 0; i < k; i++) {
-      at = s.indexOf(from, at + 1);
+      at = s.indexOf(from, at + from.length);
       if (at < 0) return s;
     }
     return s.slice(0, at) + to + s.slice(at + from.length);
@@ -205,8 +206,13 @@ export function addText(t: Table): void {
       if (sep instanceof XlArray) return notComputed("TEXTJOIN with an array of delimiters is not computed headless");
       const d = text(sep as Scalar | undefined);
       if (isError(d)) return d;
-      const ignore = skip === undefined ? true : Boolean(skip);
-      return concatAll(rest, ctx, d, ignore);
+      if (skip instanceof XlArray) return notComputed("TEXTJOIN with an array for ignore_empty is not computed headless");
+      // ignore_empty left empty is FALSE, and "TRUE"/"FALSE" read as logical values (as LibreOffice computes).
+      const ignore = bool(skip as Scalar | undefined);
+      if (isError(ignore)) return ignore;
+      // Keeping empty values keeps blank cells of ranges too: a range is read whole, not cell by cell.
+      const parts = ignore ? rest : rest.map((r) => (r instanceof XlRef ? toArray(r, ctx) : r));
+      return concatAll(parts, ctx, d, ignore);
     },
   });
   t.set("VALUE", textFn(1, 1, (s) => {
