@@ -88,6 +88,8 @@ export interface NativeFunction {
   readonly noLift?: boolean;
   /** The result depends on more than its arguments' cells (OFFSET, INDIRECT, NOW). */
   readonly dynamic?: boolean;
+  /** An argument written but left empty (F(1,)) takes the parameter's default, as if not written (see callFunction). */
+  readonly emptyAsOmitted?: boolean;
 }
 
 let FUNCTIONS: ReadonlyMap<string, NativeFunction> = new Map();
@@ -459,7 +461,10 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
     return err("#VALUE!", `${name} takes ${range} arguments, not ${argNodes.length}`);
   }
   if (fn.lazy) return fn.lazy(argNodes, ctx);
-  const args = argNodes.map((a, i) => evalArg(a, paramClass(fn, i), ctx));
+  // An argument written but left empty (VLOOKUP(x,t,2,), LEFT(s,)) reaches a value parameter as
+  // a blank, read as 0, FALSE or "" as Excel reads it: an exact match, no characters. Only an
+  // argument not written at all takes the function's default (undefined here).
+  const args = argNodes.map((a, i) => (a.k === "miss" && !fn.emptyAsOmitted && paramClass(fn, i) === "V" ? null : evalArg(a, paramClass(fn, i), ctx)));
   const call = fn.call as NonNullable<NativeFunction["call"]>;
   if (fn.noLift) return call(args, ctx);
   // Lift over arrays given to value parameters.

@@ -310,6 +310,14 @@ function parseReferenceText(s: string, ctx: Ctx): Value {
   return err("#REF!", `"${s}" is not a reference INDIRECT can read headless`);
 }
 
+/**
+ * SUMIF(r,c,) with its third argument written but empty: whether Excel sums r (as when it is left
+ * out) or refuses is not established here (LibreOffice gives #VALUE!), so it is not computed.
+ */
+function emptyRangeRefused(name: string, f: (args: readonly (Value | undefined)[], ctx: Ctx) => Scalar) {
+  return (args: readonly (Value | undefined)[], ctx: Ctx): Scalar => (args.length === 3 && args[2] === undefined ? notComputed(`${name} with its third argument left empty is not computed headless (give the range, or leave the argument out)`) : f(args, ctx));
+}
+
 export function addLookup(t: Table): void {
   t.set("INDEX", {
     min: 2,
@@ -388,6 +396,9 @@ export function addLookup(t: Table): void {
     },
   });
   t.set("OFFSET", {
+    // An empty height or width (OFFSET(r,0,0,,)) keeps the reference's, as LibreOffice computes;
+    // rows and columns default to 0 either way.
+    emptyAsOmitted: true,
     min: 3,
     max: 5,
     param: classes("R", "V"),
@@ -439,8 +450,8 @@ export function addLookup(t: Table): void {
   const pairsFrom = (first: number) => (i: number) => (i < first ? "R" : (i - first) % 2 === 0 ? "R" : "V") as "R" | "V";
   t.set("COUNTIF", { min: 2, max: 2, param: pairsFrom(0), noLift: true, call: ifsAggregate("count", false, false) });
   t.set("COUNTIFS", { min: 2, max: 254, param: pairsFrom(0), noLift: true, call: ifsAggregate("count", false, false) });
-  t.set("SUMIF", { min: 2, max: 3, param: classes("R", "V", "R"), noLift: true, call: ifsAggregate("sum", true, false) });
-  t.set("AVERAGEIF", { min: 2, max: 3, param: classes("R", "V", "R"), noLift: true, call: ifsAggregate("average", true, false) });
+  t.set("SUMIF", { min: 2, max: 3, param: classes("R", "V", "R"), noLift: true, call: emptyRangeRefused("SUMIF", ifsAggregate("sum", true, false)) });
+  t.set("AVERAGEIF", { min: 2, max: 3, param: classes("R", "V", "R"), noLift: true, call: emptyRangeRefused("AVERAGEIF", ifsAggregate("average", true, false)) });
   t.set("SUMIFS", { min: 3, max: 255, param: pairsFrom(1), noLift: true, call: ifsAggregate("sum", true, true) });
   t.set("AVERAGEIFS", { min: 3, max: 255, param: pairsFrom(1), noLift: true, call: ifsAggregate("average", true, true) });
   t.set("MINIFS", { min: 3, max: 255, param: pairsFrom(1), noLift: true, call: ifsAggregate("min", true, true) });
