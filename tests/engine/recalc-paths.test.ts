@@ -248,6 +248,8 @@ describe("Excel's stored form of our names (ECMA-376 §18.17.2.3 user-defined fu
     ['SOIL.CMOL(A1,"Ca")', "typed"],
     ['_xldudf_soil_cmol(A1,"Ca")', "stored prefix, our name in lower case"],
     ['_xldudf_SOIL_Cmol(A1,"Ca")', "stored, mixed case after SOIL_"],
+    ['_xldudf_SOIL_CMOl(A1,"Ca")', "stored, one lower-case letter after several capitals"],
+    ['_xldudf_Soil_CMOL(A1,"Ca")', "stored prefix, SOIL in mixed case"],
     ['_xldudf_SOIL_CMOL(A1,"Ca")', "already stored"],
   ])("%s (%s) → _xldudf_SOIL_CMOL", async (text) => {
     expect(await stored(text)).toBe("_xldudf_SOIL_CMOL(A1,&quot;Ca&quot;)");
