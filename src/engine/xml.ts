@@ -267,15 +267,15 @@ export function decodeXmlText(s: string): string {
     }
     return out + s.slice(last);
   }
-  return normaliseNewlines(
-    s.replace(/&([^;]{0,12});/g, (m, body: string) => {
-      if (body.startsWith("#x") || body.startsWith("#X")) return codePoint(parseInt(body.slice(2), 16), m);
-      if (body.startsWith("#")) return codePoint(parseInt(body.slice(1), 10), m);
-      const v = NAMED[body];
-      if (v === undefined) throw new XmlError(`unknown entity ${m}`);
-      return v;
-    }),
-  );
+  // Line ends are normalised in the text as written, before references are replaced: a CR written
+  // as &#13; is a CR in the value (XML 1.0 §2.11 applies to literal line ends only).
+  return normaliseNewlines(s).replace(/&([^;]{0,12});/g, (m, body: string) => {
+    if (body.startsWith("#x") || body.startsWith("#X")) return codePoint(parseInt(body.slice(2), 16), m);
+    if (body.startsWith("#")) return codePoint(parseInt(body.slice(1), 10), m);
+    const v = NAMED[body];
+    if (v === undefined) throw new XmlError(`unknown entity ${m}`);
+    return v;
+  });
 }
 
 function codePoint(n: number, raw: string): string {
