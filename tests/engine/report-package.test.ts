@@ -223,6 +223,20 @@ describe("a report workbook of one report", () => {
     expect(p.dropped).toEqual([`${REL}/pivotTable`, `${REL}/queryTable`]); // each type once
   });
 
+  it("the types left out are known before any copy is made, through the parts the sheet points at; an external one is not a part", async () => {
+    const t = await template({
+      sheet: xml,
+      sheetRels: rels(rel("rId1", `${REL}/drawing`, "../drawings/drawing1.xml"), rel("rId2", `${REL}/table`, "https://example.invalid/t", true), rel("rId3", `${REL}/table`, "../tables/table1.xml")),
+      extra: { "xl/drawings/drawing1.xml": "<d/>", "xl/drawings/_rels/drawing1.xml.rels": rels(rel("rId1", `${REL}/drawing`, "drawing1.xml"), rel("rId2", `${REL}/pivotTable`, "../pivotTables/p1.xml")) },
+    });
+    const p = new ReportPackager(t.pkg, t.sheet);
+    expect(p.dropped).toEqual([`${REL}/pivotTable`, `${REL}/table`]);
+    const parts = await partsOf(p.single(xml, "x", "n"));
+    expect(parts.get("xl/worksheets/_rels/sheet1.xml.rels")).toBe(rels(rel("rId1", `${REL}/drawing`, "../drawings/drawing1.xml"), rel("rId2", `${REL}/table`, "https://example.invalid/t", true)));
+    expect(parts.get("xl/drawings/_rels/drawing1.xml.rels")).toBe(rels(rel("rId1", `${REL}/drawing`, "drawing1.xml")));
+    expect(p.dropped).toEqual([`${REL}/pivotTable`, `${REL}/table`]);
+  });
+
   it.each([
     ["slicer", `${REL}/slicer`],
     ["timeline", "http://schemas.microsoft.com/office/2011/relationships/timeline"],
