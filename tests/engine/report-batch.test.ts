@@ -9,6 +9,7 @@
  * The real LibreOffice run is in tests/cli/report.test.ts. Workbook contents are invented.
  */
 import fs from "fs";
+import os from "os";
 import path from "path";
 import { openPackage } from "../../src/engine/xlsx-package";
 import { readBook } from "../../src/engine/book";
@@ -27,7 +28,7 @@ const STAMP = /^soilcell \S+ on \d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ$/;
  * picks a row. Figures: a date, a date and time, a logical, a blank, an unlabelled row, a text
  * with a comma and quotes, a duration, and a number.
  */
-async function template(file: string, o: { header?: string; date1904?: boolean; rows?: (string | number | null)[][] } = {}): Promise<string> {
+async function template(file: string, o: { header?: string; date1904?: boolean; rows?: (string | number | null)[][]; noFound?: boolean } = {}): Promise<string> {
   return writeWorkbook(file, (wb) => {
     if (o.date1904) wb.properties.date1904 = true;
     const d = wb.addWorksheet("Data");
@@ -65,7 +66,7 @@ async function template(file: string, o: { header?: string; date1904?: boolean; 
     if (o.header) r.headerFooter = { oddHeader: o.header } as never;
     wb.definedNames.add("Report!$B$1", "Report_Key");
     wb.definedNames.add(`Data!$A$2:$A$${n}`, "Report_Keys");
-    wb.definedNames.add("Report!$B$3", "Report_Found");
+    if (!o.noFound) wb.definedNames.add("Report!$B$3", "Report_Found");
     wb.definedNames.add("Report!$B$4", "Report_File");
     wb.definedNames.add("Report!$B$5", "Report_Group");
     wb.definedNames.add("Report!$D$1:$E$9", "Report_Figures");
@@ -258,6 +259,18 @@ describe("batch options", () => {
     expect(csv(s.index.csv).split("\r\n")[1]).toBe('X0,not found,,,,,,,,FALSE,,,,,#DIV/0!,0,--keys');
   });
 
+  it("without Report_Found, a typed key not in the key list is listed as not found, where it was typed", async () => {
+    const t = await template(path.join(dir, "nofound.xlsx"), { noFound: true });
+    const s = await runReportBatch(t, { outDir: path.join(dir, "nofound"), pdf: false, xlsx: false, keys: ["ZZ", "S3", "s3"] });
+    expect(s.entries.map((e) => [e.key, e.status, e.reason ?? null])).toEqual([
+      ["ZZ", "not found", "not in the key list (Data!A2:A6), and the template names no Report_Found cell to look it up"],
+      ["S3", "ok", null],
+      ["s3", "not reported", "the same key as --keys: reported once"],
+    ]);
+    expect(s.notFound).toBe(1);
+    expect(csv(s.index.problems).split("\r\n").slice(1, 3)).toEqual(["ZZ,not found,,,,\"not in the key list (Data!A2:A6), and the template names no Report_Found cell to look it up\",--keys", "s3,not reported,,,,the same key as --keys: reported once,--keys"]);
+  });
+
   it("the 1904 date system: serial 0 is 1 January 1904", async () => {
     const t = await template(path.join(dir, "1904.xlsx"), { date1904: true, rows: [["S1", "A", "G", 0, 1], ["S2", "B", "G", 366.75, 1]] });
     const s = await runReportBatch(t, { outDir: path.join(dir, "d1904"), pdf: false, xlsx: false });
@@ -391,6 +404,9 @@ describe("PDFs", () => {
     expect(many.pdf.runs).toBe(5);
     const zero = await run("zero-runs", { jobs: 0, xlsx: false });
     expect(zero.pdf.runs).toBe(1);
+    // By default two runs side by side, one on a one-core machine.
+    const byDefault = await run("default-runs", { xlsx: false });
+    expect(byDefault.pdf.runs).toBe(os.cpus().length > 1 ? 2 : 1);
     const ten = await template(path.join(dir, "ten.xlsx"), { rows: Array.from({ length: 10 }, (_, i) => [`T${i}`, `N${i}`, "G", 1, 1]) });
     const lot = await runReportBatch(ten, { outDir: path.join(dir, "lot"), tools, xlsx: false, group: false, keys: [...Array.from({ length: 9 }, (_, i) => `T${i}`), "NOPE"], jobs: 12 });
     expect(lot.pdf.runs).toBe(8); // 9 reports (the key that selects nothing is not one), at most 8 runs
