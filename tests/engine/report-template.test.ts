@@ -70,11 +70,14 @@ describe("the key cell and the report sheet", () => {
     [{ sheet: "Report", keyCell: "Data!A1" }, 'the key cell Data!A1 is not on the report sheet "Report"'],
     [{ sheet: "Report" }, 'sheet "Report" has no Report_Key name; define one on its key cell (Formulas > Define Name) or give --key-cell'],
     [{}, "the workbook has no Report_Key name: name the cell where a key is typed Report_Key (Formulas > Define Name), or give --key-cell"],
+    [{ keyCell: "Report!C1" }, "the key cell Report!C1 is empty: type one key in it (the example the template shows)"],
+    [{ keyCell: "Report!B2" }, "the key cell Report!B2 holds a formula; a key is typed, so it must hold a value"],
   ])("%j: %s", async (o, message) => {
     expect(await refusal(two, o)).toEqual(tpl(message));
   });
 
   it("a key cell that is not a reference at all says so, with the parser's words", async () => {
+    expect(await refusal({ sheets: [DATA, REPORT] }, { keyCell: "Report!B1" })).toEqual(tpl("no keys: name the cells that list them Report_Keys, or give --keys-from or --keys"));
     const r = await refusal(two, { keyCell: "Report!B1)" });
     expect(r.kind).toBe("ReportTemplateError");
     expect(r.message).toMatch(/^the key cell "Report!B1\)" is not a cell reference \(.+\)$/);
@@ -198,7 +201,7 @@ describe("the other names", () => {
     rows:
       row(1, c("A1", "Sample"), c("B1", "S1"), c("D1", "Ca"), f("E1", "LEN(B1)*2", 4)) +
       row(2, f("B2", 'IF(B1="S1",TRUE,IF(B1="S2",1,IF(B1="Z0",0,IF(B1="ZT","TRUE",IF(B1="ZE",1/0,IF(B1="ZN",-1,FALSE))))))', "TRUE"), c("D2", ""), f("E2", "7", 7)) +
-      row(3, f("B3", 'IF(B1="S1","  North  ",IF(B1="S2",12,IF(B1="ZT",TRUE,IF(B1="ZE",1/0,""))))', "x"), c("D3", 5), f("E3", "1/0")) +
+      row(3, f("B3", 'IF(B1="S1","  North  ",IF(B1="S2",12,IF(B1="ZT",TRUE,IF(B1="ZE",1/0,IF(B1="ZF",FALSE,"")))))', "x"), c("D3", 5), f("E3", "1/0")) +
       row(4, f("B4", 'IF(B1="S1"," ",IF(B1="S2","G2",""))', ""), c("D4", "Empty")),
   };
   const names = [KEY, KEYS, { name: "Report_Found", text: "Report!$B$2" }, { name: "Report_File", text: "Report!$B$3" }, { name: "Report_Group", text: "Report!$B$4" }, { name: "Report_Figures", text: "Report!$D$1:$E$4" }];
@@ -216,6 +219,7 @@ describe("the other names", () => {
     expect(r("S1")).toEqual(["North", undefined]);
     expect(r("S2")).toEqual(["12", "G2"]);
     expect(r("ZT")).toEqual(["TRUE", undefined]);
+    expect(r("ZF")).toEqual(["FALSE", undefined]);
     expect(r("ZE")).toEqual(["ZE", undefined]);
     expect(r("Q")).toEqual(["Q", undefined]);
   });
@@ -255,5 +259,220 @@ describe("the other names", () => {
     const r = t.report(101);
     expect([r.found, r.name, r.group, r.figures]).toEqual([undefined, "101", undefined, []]);
     expect(t.names).toEqual({ key: "Report!B1", keys: "Data!A2:A4" });
+  });
+});
+
+const MAIN = "http://schemas.openxmlformats.org/spreadsheetml/2006/main";
+const RELS = "http://schemas.openxmlformats.org/officeDocument/2006/relationships";
+const HEAD = '<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n';
+/** The workbook's relationships with styles and shared strings added (sheets as xlsxBytes writes them). */
+const wbRels = (sheets: number, extra: string) =>
+  `${HEAD}<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">${Array.from({ length: sheets }, (_, i) => `<Relationship Id="rId${i + 1}" Type="${RELS}/worksheet" Target="worksheets/sheet${i + 1}.xml"/>`).join("")}${extra}</Relationships>`;
+const STYLES_REL = `<Relationship Id="rIdSt" Type="${RELS}/styles" Target="styles.xml"/>`;
+const SST_REL = `<Relationship Id="rIdSs" Type="${RELS}/sharedStrings" Target="sharedStrings.xml"/>`;
+/** The cells of a report sheet's XML (between <sheetData> and </sheetData>), and what follows them. */
+const dataOf = (xml: string) => /<sheetData>([\s\S]*)<\/sheetData>/.exec(xml)![1];
+const tailOf = (xml: string) => xml.slice(xml.indexOf("</sheetData>") + "</sheetData>".length);
+
+describe("figures' number formats, from the template's styles", () => {
+  // cellXfs: 0 General, 1 custom 164, 2 built-in 14 (with a child element), 3 no numFmtId, 4 an id
+  // with no built-in format (37 is not in the list kept), 5 a custom format without its code, 6 built-in 2.
+  const styles =
+    `${HEAD}<styleSheet xmlns="${MAIN}"><numFmts count="2"><numFmt numFmtId="164" formatCode="0.0 &quot;t/ha&quot;"/><numFmt numFmtId="165"/></numFmts>` +
+    '<cellXfs count="7"><xf numFmtId="0"/><xf numFmtId="164"/><xf numFmtId="14" applyNumberFormat="1"><alignment horizontal="left"/></xf><xf/><xf numFmtId="37"/><xf numFmtId="165"/><xf numFmtId="2"/></cellXfs>' +
+    '<cellStyleXfs count="1"><xf numFmtId="10"/></cellStyleXfs></styleSheet>';
+  const labels = ["General", "custom", "built-in 14", "none", "37", "no code", "built-in 2", "past the list"];
+  const report: SheetSpec = {
+    name: "Report",
+    rows: row(1, c("A1", "Sample"), c("B1", "S1")) + labels.map((l, i) => row(i + 2, c(`D${i + 2}`, l), `<c r="E${i + 2}" s="${i}"><f>LEN(B1)+${i}</f><v>0</v></c>`)).join(""),
+  };
+  const names = [KEY, KEYS, { name: "Report_Figures", text: `Report!$D$2:$E$${labels.length + 1}` }];
+
+  it("each figure has its value cell's format code; General when the style has none or is not known", async () => {
+    const t = await open({ sheets: [DATA, report], names }, {}, { "xl/styles.xml": styles, "xl/_rels/workbook.xml.rels": wbRels(2, STYLES_REL) });
+    expect(t.report("S1").figures.map((x) => [x.label, x.value, x.format])).toEqual([
+      ["General", 2, "General"],
+      ["custom", 3, '0.0 "t/ha"'],
+      ["built-in 14", 4, "m/d/yyyy"],
+      ["none", 5, "General"],
+      ["37", 6, "General"],
+      ["no code", 7, "General"],
+      ["built-in 2", 8, "0.00"],
+      ["past the list", 9, "General"], // style 7: the cell styles' xf after cellXfs is not a cell format
+    ]);
+  });
+
+  it("without a styles part every figure is General; a self-closing cellXfs holds no formats", async () => {
+    const none = await open({ sheets: [DATA, report], names });
+    expect(new Set(none.report("S1").figures.map((x) => x.format))).toEqual(new Set(["General"]));
+    const empty = `${HEAD}<styleSheet xmlns="${MAIN}"><cellXfs count="0"/><cellStyleXfs count="1"><xf numFmtId="2"/></cellStyleXfs></styleSheet>`;
+    const t = await open({ sheets: [DATA, report], names }, {}, { "xl/styles.xml": empty, "xl/_rels/workbook.xml.rels": wbRels(2, STYLES_REL) });
+    expect(new Set(t.report("S1").figures.map((x) => x.format))).toEqual(new Set(["General"]));
+  });
+
+  it.each([
+    [1, "0"],
+    [3, "#,##0"],
+    [4, "#,##0.00"],
+    [9, "0%"],
+    [10, "0.00%"],
+    [11, "0.00E+00"],
+    [15, "d-mmm-yy"],
+    [16, "d-mmm"],
+    [17, "mmm-yy"],
+    [22, "m/d/yyyy h:mm"],
+    [49, "@"],
+  ])("built-in format %d is %s", async (id, code) => {
+    const st = `${HEAD}<styleSheet xmlns="${MAIN}"><cellXfs count="2"><xf/><xf numFmtId="${id}"/></cellXfs></styleSheet>`;
+    const r: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1"), c("D1", "x"), `<c r="E1" s="1"><v>1</v></c>`) };
+    const t = await open({ sheets: [DATA, r], names: [KEY, KEYS, { name: "Report_Figures", text: "Report!$D$1:$E$1" }] }, {}, { "xl/styles.xml": st, "xl/_rels/workbook.xml.rels": wbRels(2, STYLES_REL) });
+    expect(t.report("S1").figures[0]!.format).toBe(code);
+  });
+});
+
+describe("the report sheet's text and its other parts", () => {
+  const sst = `${HEAD}<sst xmlns="${MAIN}" count="3" uniqueCount="3"><si><t>Plain</t></si><si/><si><r><rPr><b/></rPr><t>Bold</t></r><r><t xml:space="preserve"> tail</t></r></si></sst>`;
+
+  it("shared strings become inline strings with their runs: no shared-strings part is needed", async () => {
+    const report: SheetSpec = {
+      name: "Report",
+      rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(2, `<c r="A2" t="s"><v>0</v></c>`, `<c r="B2" t="s"><v>2</v></c>`, `<c r="C2" t="s"/>`, `<c r="D2" t="s"><v> 1 </v></c>`, `<c r="E2" s="0"><v>5</v></c>`),
+    };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] }, {}, { "xl/sharedStrings.xml": sst, "xl/_rels/workbook.xml.rels": wbRels(2, SST_REL) });
+    expect(dataOf(t.report("S2").sheetXml)).toBe(
+      '<row r="1"><c r="A1" t="inlineStr"><is><t>Sample</t></is></c><c r="B1" t="inlineStr"><is><t xml:space="preserve">S2</t></is></c></row>' +
+        '<row r="2"><c r="A2" t="inlineStr"><is><t>Plain</t></is></c><c r="B2" t="inlineStr"><is><r><rPr><b/></rPr><t>Bold</t></r><r><t xml:space="preserve"> tail</t></r></is></c><c r="C2" t="s"/><c r="D2" t="inlineStr"><is></is></c><c r="E2" s="0"><v>5</v></c></row>',
+    );
+  });
+
+  it("leaves out what points at other sheets or needs workbook parts: validations, tables, conditional formats and links to another sheet, extensions that name one", async () => {
+    const after =
+      "<headerFooter><oddHeader>&amp;A</oddHeader></headerFooter>" +
+      '<conditionalFormatting sqref="B1"><cfRule type="expression" priority="1"><formula>Data!$A$1="x"</formula></cfRule></conditionalFormatting>' +
+      '<conditionalFormatting sqref="B2" pivot="0" xr:uid="Data!A1"><cfRule type="expression" priority="2"><formula>$B$2&gt;1</formula></cfRule></conditionalFormatting>' +
+      '<conditionalFormatting sqref="A1"/>' +
+      '<dataValidations count="1"><dataValidation type="list" sqref="B1"><formula1>$A$1:$A$2</formula1></dataValidation></dataValidations>' +
+      '<dataValidations count="0"/>' +
+      '<hyperlinks><hyperlink ref="A1" location="Data!A1" display="Data"/></hyperlinks>' +
+      '<hyperlinks><hyperlink ref="A2" display="Go!"/></hyperlinks>' +
+      "<hyperlinks/>" +
+      '<pageMargins left="0.7" right="0.7" top="0.75" bottom="0.75" header="0.3" footer="0.3"/>' +
+      '<tableParts count="0"/>' +
+      '<tableParts count="1"><tablePart r:id="rId7"/></tableParts>' +
+      '<extLst><ext uri="{A}"><x14:dataValidations count="1"/></ext></extLst>' +
+      '<extLst><ext uri="{B}"><xm:f>Data!A1</xm:f></ext></extLst>' +
+      '<extLst><ext uri="{C}" xmlns:xm="x!y"><xm:f>B1:B2</xm:f></ext></extLst>' +
+      "<extLst/>";
+    const report: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(2, f("B2", 'B1&"!"', "S1!")), after };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] });
+    expect(tailOf(t.report("S2").sheetXml)).toBe(
+      "<headerFooter><oddHeader>&amp;A</oddHeader></headerFooter>" +
+        '<conditionalFormatting sqref="B2" pivot="0" xr:uid="Data!A1"><cfRule type="expression" priority="2"><formula>$B$2&gt;1</formula></cfRule></conditionalFormatting>' +
+        '<conditionalFormatting sqref="A1"/>' +
+        '<hyperlinks><hyperlink ref="A2" display="Go!"/></hyperlinks>' +
+        "<hyperlinks/>" +
+        '<pageMargins left="0.7" right="0.7" top="0.75" bottom="0.75" header="0.3" footer="0.3"/>' +
+        '<extLst><ext uri="{C}" xmlns:xm="x!y"><xm:f>B1:B2</xm:f></ext></extLst>' +
+        "<extLst/>" +
+        "</worksheet>",
+    );
+    // What comes before the cells is cut the same way.
+    const before = { name: "Report", rows: report.rows };
+    const t2 = await open({ sheets: [DATA, before], names: [KEY, KEYS] });
+    expect(t2.report("S2").sheetXml).toBe(`${HEAD}<worksheet xmlns="${MAIN}" xmlns:r="${RELS}"><sheetData>${dataOf(t2.report("S2").sheetXml)}</sheetData></worksheet>`);
+  });
+});
+
+describe("cells in error, listed in reading order", () => {
+  it("computed errors with the engine's message; cached errors (constants, formulas not computed again) with the template's or 'cached in the template'", async () => {
+    const report: SheetSpec = {
+      name: "Report",
+      rows:
+        row(1, c("A1", "Sample"), c("B1", "S1"), `<c r="AA1" t="e"><v>#N/A</v></c>`) +
+        row(2, f("B2", "1/0"), f("C2", 'IF(B1="S2",1/0,1)', 1), `<c r="D2" t="e"><f>NA()</f><v>#N/A</v></c>`) +
+        row(9, f("B9", 'IF(B1="S2",NA(),1)', 1)) +
+        row(10, f("B10", 'IF(B1="S2",SQRT(-1),1)', 1), f("C10", 'IF(B1="S2",1/0,1)', 1), f("AB10", 'IF(B1="S2",1/0,1)', 1)),
+    };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] });
+    expect(t.report("S2").errors.map((e) => [e.cell, e.error, e.formula, e.message])).toEqual([
+      ["AA1", "#N/A", "", "cached in the template"],
+      ["B2", "#DIV/0!", "=1/0", "division by zero"],
+      ["C2", "#DIV/0!", '=IF(B1="S2",1/0,1)', "division by zero"],
+      ["D2", "#N/A", "=NA()", "cached in the template"],
+      ["B9", "#N/A", '=IF(B1="S2",NA(),1)', expect.any(String)],
+      ["B10", "#NUM!", '=IF(B1="S2",SQRT(-1),1)', expect.any(String)],
+      ["C10", "#DIV/0!", '=IF(B1="S2",1/0,1)', "division by zero"],
+      ["AB10", "#DIV/0!", '=IF(B1="S2",1/0,1)', "division by zero"],
+    ]);
+    expect(t.report("S2").errors[0]!.sheet).toBe("Report");
+    expect(t.report("S1").errors.map((e) => e.cell)).toEqual(["AA1", "B2", "D2"]);
+  });
+
+  it("a formula longer than 200 characters, a message longer than 300, are cut with their length", async () => {
+    const long = "x".repeat(350);
+    const report: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(2, f("B2", `IF(B1="S2",SOIL.CMOL("${long}","Ca"),1)`.replace("SOIL.CMOL", "_xldudf_SOIL_CMOL"), 1)) + row(3, f("B3", `IF(B1="S2",SOIL.CMOL("${"y".repeat(150)}","Ca"),1)`.replace("SOIL.CMOL", "_xldudf_SOIL_CMOL"), 1)) };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] });
+    const [e2, e3] = t.report("S2").errors;
+    const typed = `=IF(B1="S2",SOIL.CMOL("${long}","Ca"),1)`;
+    expect(e2!.formula).toBe(`${typed.slice(0, 200)}… (${typed.length} characters)`);
+    const message = `mg_per_kg: "${long}" is not a number`; // SOIL.CMOL's refusal (behaviour)
+    expect(e2!.message).toBe(`${message.slice(0, 300)}… (${message.length} characters)`);
+    const typed3 = `=IF(B1="S2",SOIL.CMOL("${"y".repeat(150)}","Ca"),1)`;
+    expect(typed3.length).toBeLessThanOrEqual(200);
+    expect(e3!.formula).toBe(typed3); // 200 or fewer: whole
+  });
+});
+
+describe("spills computed for a key", () => {
+  it("writes the spill's cells, clears what the template's spill covered beyond it, keeps another spill's values over a stale clear, lists errors inside it", async () => {
+    const report: SheetSpec = {
+      name: "Report",
+      rows:
+        row(1, c("A1", "Sample"), c("B1", "S1"), `<c r="C1" cm="1"><f t="array" ref="C1:D4">IF(B1="S1",{1;2;3},1/{1;0;2})</f><v>1</v></c>`) +
+        row(2, `<c r="B2" cm="1"><f t="array" ref="B2:C3">B1&amp;"!"</f><v>0</v></c>`, `<c r="C2" t="e"><v>#N/A</v></c>`) +
+        row(3, c("C3", 3)),
+    };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS], dynamic: true });
+    expect(dataOf(t.report("S1").sheetXml)).toBe(
+      '<row r="1"><c r="A1" t="inlineStr"><is><t>Sample</t></is></c><c r="B1" t="inlineStr"><is><t xml:space="preserve">S1</t></is></c><c r="C1"><v>1</v></c><c r="D1"/></row>' +
+        '<row r="2"><c r="B2" t="inlineStr"><is><t xml:space="preserve">S1!</t></is></c><c r="C2"><v>2</v></c><c r="D2"/></row>' +
+        '<row r="3"><c r="B3"/><c r="C3"><v>3</v></c><c r="D3"/></row><row r="4"><c r="C4"/><c r="D4"/></row>',
+    );
+    expect(t.report("S1").errors).toEqual([]); // the stale #N/A in C2 is the spill's now
+    const s2 = t.report("S2");
+    expect(dataOf(s2.sheetXml)).toContain('<c r="C2" t="e"><v>#DIV/0!</v></c>');
+    expect(s2.errors.map((e) => [e.cell, e.error, e.formula, e.message])).toEqual([["C2", "#DIV/0!", '=IF(B1="S1",{1;2;3},1/{1;0;2})', "division by zero"]]);
+  });
+});
+
+describe("cells in error inside spills, sorted into reading order", () => {
+  it("by row, then by column (Z before AA before AB)", async () => {
+    const report: SheetSpec = {
+      name: "Report",
+      rows:
+        row(1, c("A1", "Sample"), c("B1", "S1"), `<c r="Z1" cm="1"><f t="array" ref="Z1:AB1">1/(B1="S1")*{1,1,1}</f><v>1</v></c>`, c("AA1", 1), c("AB1", 1)) +
+        row(2, `<c r="C2" cm="1"><f t="array" ref="C2:C4">1/(B1="S1")*{1;1;1}</f><v>1</v></c>`) +
+        row(3, f("B3", 'IF(B1="S2",1/0,1)', 1), c("C3", 1)) +
+        row(4, c("C4", 1)),
+    };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS], dynamic: true });
+    expect(t.report("S1").errors).toEqual([]);
+    expect(t.report("S2").errors.map((e) => e.cell)).toEqual(["Z1", "AA1", "AB1", "C2", "B3", "C3", "C4"]);
+  });
+});
+
+describe("limits", () => {
+  it("a formula asking for more cells than allowed, for one key, is refused as a workbook error naming the cell", async () => {
+    const report: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(2, f("B2", 'IF(B1="BIG",SUMPRODUCT(Data!A1:Z1000),0)', 0)) };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] }, { maxCells: 1000 });
+    expect(t.report("S1").errors).toEqual([]);
+    expect(() => t.report("BIG")).toThrow(new WorkbookFileError("a formula asks for a range of 1000×26 cells, more than the 1000 cells soilcell takes in one formula; refused (in Report!B2)"));
+    const big = await open({ sheets: [DATA, report], names: [KEY, KEYS] });
+    expect(big.report("BIG").errors).toEqual([]); // 4,000,000 cells by default
+  });
+
+  it("a template refusal is a ReportTemplateError by name", () => {
+    expect(ReportTemplateError.name).toBe("ReportTemplateError");
+    expect(new ReportTemplateError("m")).toMatchObject({ name: "ReportTemplateError", message: "m" });
   });
 });
