@@ -117,8 +117,9 @@ describe("seasonSummary, whole", () => {
   it("one message under two errors is two groups; the same in one workbook twice counts one workbook", () => {
     const s = seasonSummary([], [done("a.xlsx", [{ sheet: "S", cell: "A1", message: "m" }, { sheet: "S", cell: "A2", message: "m" }])], { seconds: 1, jobs: 1 });
     expect(s.errorGroups.map((g) => [g.count, g.workbooks])).toEqual([[2, 1]]);
-    const mixed: FileResult = done("b.xlsx", [{ sheet: "S", cell: "A1", message: "m" }]);
-    if (mixed.outcome.kind === "recalculated") (mixed.outcome.summary.errors as { error: string }[])[0]!.error = "#N/A";
+    const base = done("b.xlsx", [{ sheet: "S", cell: "A1", message: "m" }]);
+    if (base.outcome.kind !== "recalculated") throw new Error("a recalculated result");
+    const mixed: FileResult = { item: base.item, outcome: { kind: "recalculated", summary: { ...base.outcome.summary, errors: base.outcome.summary.errors.map((e) => ({ ...e, error: "#N/A" })) } } };
     const t = seasonSummary([], [done("a.xlsx", [{ sheet: "S", cell: "A1", message: "m" }]), mixed], { seconds: 1, jobs: 1 });
     expect(t.errorGroups.map((g) => [g.error, g.count])).toEqual([
       ["#VALUE!", 1],
