@@ -125,6 +125,8 @@ describe("a batch of reports: files, names and the index", () => {
     expect(s.warnings).toEqual([]);
     expect(Object.keys(s.seconds)).toEqual(["total", "template", "reports", "pdf", "index"]);
     for (const v of Object.values(s.seconds)) expect(v).toBeGreaterThanOrEqual(0);
+    for (const v of Object.values(s.seconds)) expect(v).toBeLessThan(60); // seconds, not milliseconds
+    expect(s.seconds.total).toBeCloseTo(s.seconds.template + s.seconds.reports + s.seconds.pdf + s.seconds.index, 9);
     expect(s.seconds.total).toBeGreaterThanOrEqual(s.seconds.template);
     expect(lines).toEqual(["11 formula cells read the key cell Report!B1; 5 keys"]); // fewer than 50 reports: no progress line
   });
@@ -269,6 +271,11 @@ describe("batch options", () => {
     ]);
     expect(s.notFound).toBe(1);
     expect(csv(s.index.problems).split("\r\n").slice(1, 3)).toEqual(["ZZ,not found,,,,\"not in the key list (Data!A2:A6), and the template names no Report_Found cell to look it up\",--keys", "s3,not reported,,,,the same key as --keys: reported once,--keys"]);
+  });
+
+  it("CSV fields with a leading or trailing space, a line break or a carriage return are quoted", async () => {
+    const s = await runReportBatch(file, { outDir: path.join(dir, "quoted"), pdf: false, keys: [" lead", "trail ", "two\nlines", "cr\rx", "plain"] });
+    expect(csv(s.index.csv).split("\r\n").slice(1, 6).map((l) => l.split(",not found")[0])).toEqual(['" lead"', '"trail "', '"two\nlines"', '"cr\rx"', "plain"]);
   });
 
   it("the 1904 date system: serial 0 is 1 January 1904", async () => {

@@ -360,6 +360,21 @@ describe("one workbook of many reports (for the office engine)", () => {
     );
     expect(parts.get("docProps/custom.xml")).toMatch(/<vt:lpwstr>reports from a template, for conversion \(soilcell [^)]+ on \d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ\)<\/vt:lpwstr>/);
     expect(parts.get("docProps/core.xml")).toContain("<dc:title>reports</dc:title>");
+    // Each renamed XML part keeps its content type; the shared image has its default (png).
+    const ct = parts.get("[Content_Types].xml")!;
+    expect([...ct.matchAll(/<Override PartName="([^"]+)" ContentType="([^"]+)"\/>/g)].map((m) => `${m[1]} ${m[2]!.replace(/^application\/vnd\.openxmlformats-(officedocument|package)\./, "")}`)).toEqual([
+      `/xl/worksheets/sheet1.xml spreadsheetml.worksheet+xml`,
+      "/xl/drawings/drawing1.r1.xml drawing+xml",
+      "/xl/comments1.r1.xml spreadsheetml.comments+xml",
+      `/xl/worksheets/sheet2.xml spreadsheetml.worksheet+xml`,
+      "/xl/drawings/drawing1.r2.xml drawing+xml",
+      "/xl/comments1.r2.xml spreadsheetml.comments+xml",
+      "/xl/styles.xml spreadsheetml.styles+xml",
+      "/xl/theme/theme1.xml theme+xml",
+      "/xl/workbook.xml spreadsheetml.sheet.main+xml",
+      "/docProps/core.xml core-properties+xml",
+      "/docProps/custom.xml custom-properties+xml",
+    ]);
   });
 
   it("the pageSetUpPr's fitToPage is dropped where the fixed scale is given", async () => {

@@ -147,6 +147,18 @@ describe("the key list", () => {
     expect(await refusal({ sheets: [DATA, REPORT], names: [KEY] }, { keysFrom: ["SUM(A2:A3)"] })).toEqual(tpl("--keys-from must refer to cells (e.g. 'Client report'!$C$4), not a formula or a list of areas"));
   });
 
+  it("an empty --keys-from is no override: Report_Keys is read", async () => {
+    const t = await open({ sheets: [DATA, REPORT], names: [KEY, KEYS] }, { keysFrom: [] });
+    expect(t.keys.map((k) => k.key)).toEqual(["S1", "S2", 101]);
+  });
+
+  it("a typed key that matches only an error in the list is not in the list", async () => {
+    const data: SheetSpec = { name: "Data", rows: row(1, c("A1", "S1")) + row(2, `<c r="A2" t="e"><v>#N/A</v></c>`) };
+    const t = await open({ sheets: [data, REPORT], names: [KEY, { name: "Report_Keys", text: "Data!$A$1:$A$2" }] }, { keys: ["#N/A", "S1"] });
+    expect(t.keys).toEqual([{ key: "S1", from: "--keys" }]);
+    expect(t.keyProblems).toEqual([{ key: "#N/A", from: "--keys", reason: "not in the key list (Data!A1:A2), and the template names no Report_Found cell to look it up", before: 0, notFound: true }]);
+  });
+
   it("Report_Keys scoped to the workbook without a sheet is on the report sheet", async () => {
     const report: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(5, c("A5", "R1")) + row(6, c("A6", "R2")) };
     const t = await open({ sheets: [DATA, report], names: [KEY, { name: "Report_Keys", text: "$A$5:$A$6" }] });
@@ -420,6 +432,23 @@ describe("cells in error, listed in reading order", () => {
     const typed3 = `=IF(B1="S2",SOIL.CMOL("${"y".repeat(150)}","Ca"),1)`;
     expect(typed3.length).toBeLessThanOrEqual(200);
     expect(e3!.formula).toBe(typed3); // 200 or fewer: whole
+  });
+});
+
+describe("cut lengths at their limits", () => {
+  it("a formula of 200 characters is whole, of 201 cut; a message of 300 characters whole, of 301 cut", async () => {
+    const cell = (ref: string, n: number) => f(ref, `IF(B1="S2",_xldudf_SOIL_CMOL("${"y".repeat(n)}","Ca"),1)`, 1);
+    const report: SheetSpec = { name: "Report", rows: row(1, c("A1", "Sample"), c("B1", "S1")) + row(2, cell("B2", 167), cell("C2", 168), cell("D2", 271), cell("E2", 272)) };
+    const t = await open({ sheets: [DATA, report], names: [KEY, KEYS] });
+    const [b2, c2, d2, e2] = t.report("S2").errors;
+    const typed = (n: number) => `=IF(B1="S2",SOIL.CMOL("${"y".repeat(n)}","Ca"),1)`;
+    expect(typed(167).length).toBe(200);
+    expect(b2!.formula).toBe(typed(167));
+    expect(c2!.formula).toBe(`${typed(168).slice(0, 200)}… (201 characters)`);
+    const message = (n: number) => `mg_per_kg: "${"y".repeat(n)}" is not a number`; // SOIL.CMOL's refusal (behaviour)
+    expect(message(271).length).toBe(300);
+    expect(d2!.message).toBe(message(271));
+    expect(e2!.message).toBe(`${message(272).slice(0, 300)}… (301 characters)`);
   });
 });
 
