@@ -316,9 +316,14 @@ function figureText(f: Figure | undefined, date1904: boolean): string {
   return String(v);
 }
 
-/** Whether a number format shows a date (d, m, y outside quotes and brackets; m alone may be minutes only with h or s). */
+/**
+ * Whether a number format shows a date (d, m, y outside quotes and brackets; m alone may be minutes
+ * only with h or s). Elapsed time ([h]:mm, [mm]:ss) is a duration, not a date.
+ */
 export function isDateFormat(code: string): boolean {
-  const bare = code.replace(/"[^"]*"|\[[^\]]*\]|\\./g, "");
+  const unquoted = code.replace(/"[^"]*"|\\./g, "");
+  if (/\[(?:h+|m+|s+)\]/i.test(unquoted)) return false;
+  const bare = unquoted.replace(/\[[^\]]*\]/g, "");
   return /[dy]/i.test(bare) || (/m/i.test(bare) && !/[hs]/i.test(bare) && !/0/.test(bare));
 }
 

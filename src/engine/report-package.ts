@@ -78,6 +78,8 @@ export class ReportPackager {
       .filter((d) => d.localSheetId === sheet.index && /^_xlnm\.(Print_Area|Print_Titles)$/i.test(d.name))
       .map((d) => ({ name: d.name, text: d.text }));
     this.hasCharts = this.closureHas(sheet.path, /\/chart$/);
+    // Known before any copy is made, so a batch can say so up front.
+    this.findDropped(sheet.path);
   }
 
   /** A workbook of one report (the sheet keeps the template's name). */
@@ -201,10 +203,7 @@ export class ReportPackager {
         lines.push(`<Relationship Id="${encodeXmlText(r.id)}" Type="${encodeXmlText(r.type)}" Target="${encodeXmlText(r.target)}" TargetMode="External"/>`);
         continue;
       }
-      if (DROPPED.some((d) => d.test(r.type))) {
-        if (!this.dropped.includes(r.type)) this.dropped.push(r.type);
-        continue;
-      }
+      if (DROPPED.some((d) => d.test(r.type))) continue; // listed in `dropped` by the constructor
       const from = resolveTarget(src, r.target);
       const to = this.copyPart(from, suffix, parts, overrides, copied);
       if (to === undefined) continue;
@@ -230,6 +229,18 @@ export class ReportPackager {
     const rels = this.copyRels(src, name, suffix, parts, overrides, copied);
     if (rels) parts.push({ name: relsPathOf(name), data: rels });
     return name;
+  }
+
+  /** The relationship types of the parts the sheet points at (directly or not) that a copy leaves out. */
+  private findDropped(src: string, seen = new Set<string>()): void {
+    if (seen.has(src)) return;
+    seen.add(src);
+    for (const r of readRelationships(this.pkg.text(relsPathOf(src)))) {
+      if (r.external) continue;
+      if (DROPPED.some((d) => d.test(r.type))) {
+        if (!this.dropped.includes(r.type)) this.dropped.push(r.type);
+      } else this.findDropped(resolveTarget(src, r.target), seen);
+    }
   }
 
   private closureHas(src: string, type: RegExp, seen = new Set<string>()): boolean {

@@ -103,3 +103,79 @@ describe("seasonInputs", () => {
     expect(r.items.map((i) => rel(i.input))).toEqual(["missing.xlsx"]);
   });
 });
+
+describe("seasonInputs: refusals and edges", () => {
+  let dir: string;
+  const rel = (p: string) => path.relative(dir, p);
+  beforeAll(() => {
+    dir = tempDir("soilcell-inputs2-");
+    touch(path.join(dir, "d1", "x.xlsx"));
+    touch(path.join(dir, "d2", "x.xlsx"));
+    touch(path.join(dir, "w", "a.xlsx"));
+    touch(path.join(dir, "w", "b.xlsx"));
+    fs.symlinkSync(path.join(dir, "nowhere.xlsx"), path.join(dir, "w", "broken.xlsx"));
+    fs.mkdirSync(path.join(dir, "outdir"));
+  });
+
+  it("a link to nothing found in a folder is not a workbook", () => {
+    expect(seasonInputs([path.join(dir, "w")]).items.map((i) => rel(i.input))).toEqual([path.join("w", "a.xlsx"), path.join("w", "b.xlsx")]);
+  });
+
+  it("-o naming one file with several workbooks: the message says how many and suggests a folder", () => {
+    expect(() => seasonInputs([path.join(dir, "w")], { output: "all.xlsx" })).toThrow(new InputError("-o all.xlsx names one output file, but there are 2 workbooks; give a folder (-o all/) to write them under it"));
+    expect(() => seasonInputs([path.join(dir, "w")], { output: "all.XLSM" })).toThrow("give a folder (-o all/) to write");
+    expect(new InputError("m").name).toBe("InputError");
+  });
+
+  it("-o naming a folder that exists (no trailing /) writes under it", () => {
+    const r = seasonInputs([path.join(dir, "w")], { output: path.join(dir, "outdir") });
+    expect(r.items.map((i) => rel(i.output))).toEqual([path.join("outdir", "a.recalc.xlsx"), path.join("outdir", "b.recalc.xlsx")]);
+  });
+
+  it("two workbooks whose outputs would be one file: the second is refused", () => {
+    const out = path.join(dir, "o") + path.sep;
+    const r = seasonInputs([path.join(dir, "d1", "x.xlsx"), path.join(dir, "d2", "x.xlsx")], { output: out });
+    expect(r.items.map((i) => rel(i.input))).toEqual([path.join("d1", "x.xlsx")]);
+    expect(r.refused).toEqual([{ input: path.join(dir, "d2", "x.xlsx"), reason: `refusing to write ${path.join(dir, "o", "x.recalc.xlsx")}: it is written by another workbook of this run; run them separately or choose another output with -o` }]);
+  });
+
+  it("a values copy that would be another workbook's output is refused too", () => {
+    const a = touch(path.join(dir, "v", "a.xlsx"));
+    const b = touch(path.join(dir, "v", "a.recalc.values.xlsx")); // named on the command line: its output is a.recalc.values.recalc.xlsx
+    const r = seasonInputs([a, b], { values: true });
+    expect(r.items.map((i) => [rel(i.input), rel(i.output), rel(i.valuesCopy!)])).toEqual([[path.join("v", "a.recalc.values.xlsx"), path.join("v", "a.recalc.values.recalc.xlsx"), path.join("v", "a.recalc.values.recalc.values.xlsx")]]);
+    expect(r.refused).toEqual([{ input: a, reason: `refusing to write ${b}: it is another input of this run; run them separately or choose another output with -o` }]);
+  });
+
+  it("a pattern's outputs mirror from its fixed folder: none (\".\") when the pattern starts with a wildcard", () => {
+    const cwd = process.cwd();
+    try {
+      process.chdir(path.join(dir, "w"));
+      const r = seasonInputs(["*.xlsx"], { output: path.join(dir, "pat") + path.sep });
+      expect(r.items.map((i) => [i.input, rel(i.output)])).toEqual([
+        ["a.xlsx", path.join("pat", "a.recalc.xlsx")],
+        ["b.xlsx", path.join("pat", "b.recalc.xlsx")],
+      ]);
+      process.chdir(dir);
+      const r2 = seasonInputs(["w/*.xlsx", "d*/x.xlsx"], { output: path.join(dir, "pat2") + path.sep });
+      expect(r2.items.map((i) => [i.input, rel(i.output)])).toEqual([
+        [path.join("w", "a.xlsx"), path.join("pat2", "a.recalc.xlsx")],
+        [path.join("w", "b.xlsx"), path.join("pat2", "b.recalc.xlsx")],
+        [path.join("d1", "x.xlsx"), path.join("pat2", "d1", "x.recalc.xlsx")],
+        [path.join("d2", "x.xlsx"), path.join("pat2", "d2", "x.recalc.xlsx")],
+      ]);
+    } finally {
+      process.chdir(cwd);
+    }
+  });
+
+  it("an absolute pattern: from its fixed folder; a wildcard in the first folder mirrors from the root", () => {
+    const r = seasonInputs([`${dir}/w/*.xlsx`], { output: path.join(dir, "abs") + path.sep });
+    expect(r.items.map((i) => rel(i.output))).toEqual([path.join("abs", "a.recalc.xlsx"), path.join("abs", "b.recalc.xlsx")]);
+    const [, top, ...rest] = dir.split("/"); // "/tmp/soilcell-…" → "tmp", "soilcell-…"
+    const pattern = ["", `?${top!.slice(1)}`, ...rest, "w", "*.xlsx"].join("/");
+    const out = path.join(dir, "root") + path.sep;
+    const r2 = seasonInputs([pattern], { output: out });
+    expect(r2.items.map((i) => i.output)).toEqual(["a", "b"].map((n) => path.join(out, top!, ...rest, "w", `${n}.recalc.xlsx`)));
+  });
+});
