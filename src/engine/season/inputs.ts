@@ -129,12 +129,17 @@ function expand(arg: string): Found[] | InputRefusal {
   }
   // A name that exists is a file, whatever its characters; one that does not may be a pattern.
   if (stat || !isDynamicPattern(arg)) return [{ file: arg, base: path.dirname(arg) }];
-  const matches = globSync([arg.replace(/\\/g, "/")], { expandDirectories: false, onlyFiles: true, followSymbolicLinks: false, absolute: path.isAbsolute(arg) })
+  // An absolute pattern is matched from its fixed folder: given whole, the glob library reads a
+  // wildcard in its first folder (/?mp/…) relative to the working folder and found nothing when
+  // that folder was not at the depth it assumed.
+  const absolute = path.isAbsolute(arg);
+  const base = staticBase(arg);
+  const pattern = absolute ? arg.split(/[\\/]/).slice(base === path.sep ? 1 : base.split(/[\\/]/).length).join("/") : arg.replace(/\\/g, "/");
+  const matches = globSync([pattern], { ...(absolute ? { cwd: base } : {}), expandDirectories: false, onlyFiles: true, followSymbolicLinks: false, absolute })
     .map((m) => path.normalize(m))
     .filter(isSeasonWorkbook)
     .sort();
   if (!matches.length) return { input: arg, reason: `no .xlsx or .xlsm workbook matches ${arg}` };
-  const base = staticBase(arg);
   return matches.map((file) => ({ file, base }));
 }
 

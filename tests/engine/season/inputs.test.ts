@@ -178,4 +178,19 @@ describe("seasonInputs: refusals and edges", () => {
     const r2 = seasonInputs([pattern], { output: out });
     expect(r2.items.map((i) => i.output)).toEqual(["a", "b"].map((n) => path.join(out, top!, ...rest, "w", `${n}.recalc.xlsx`)));
   });
+
+  it("an absolute pattern finds the same files whatever the working folder (the root, the test's folder, one deeper)", () => {
+    const [, top, ...rest] = dir.split("/");
+    const pattern = ["", `?${top!.slice(1)}`, ...rest, "w", "*.xlsx"].join("/");
+    const cwd = process.cwd();
+    fs.mkdirSync(path.join(dir, "deep", "er"), { recursive: true });
+    try {
+      for (const at of [path.sep, dir, path.join(dir, "deep", "er")]) {
+        process.chdir(at);
+        expect([at, seasonInputs([pattern]).items.map((i) => i.input)]).toEqual([at, [path.join(dir, "w", "a.xlsx"), path.join(dir, "w", "b.xlsx")]]);
+      }
+    } finally {
+      process.chdir(cwd);
+    }
+  });
 });
