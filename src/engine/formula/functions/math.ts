@@ -266,7 +266,7 @@ export function addMath(t: Table): void {
     if (n < (sample ? 2 : 1)) return err("#DIV/0!", `needs at least ${sample ? 2 : 1} numbers`);
     const mean = ns.reduce((s, x) => s + x, 0) / n;
     const ss = ns.reduce((s, x) => s + (x - mean) * (x - mean), 0);
-    return ss / (sample ? n - 1 : n);
+    return finite(ss / (sample ? n - 1 : n));
   };
   for (const [name, sample, root] of [
     ["VAR", true, false],

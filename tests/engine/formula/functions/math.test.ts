@@ -211,6 +211,8 @@ const CASES: [string, number | string | boolean, string][] = [
   ["STDEV(\"x\")", "#VALUE! text \"x\" is not a number", "LO"],
   ["VAR(2,\"4\",TRUE)", 2.333333333333333, "MS:COUNT page (same remark on the SUM, AVERAGE, MIN, MAX, VAR pages, from memory): logical values and numeric text typed as arguments count, in a reference or array only numbers do (LO counts TRUE in cells as 1 / refuses typed text)"],
   ["_xlfn.STDEV.P(5)", 0, "LO"],
+  ["VARP(1,1E+298)", "#NUM! the result is not a finite number", "LO 7.4 headless (#NUM!; the engine wrote Infinity, found by scripts/oracle/differential.js)"],
+  ["STDEV(-1E+300,1E+300)", "#NUM! the result is not a finite number", "LO 7.4 headless"],
   ["LARGE(A1:A4,1)", 4, "LO"],
   ["LARGE(A1:A4,2)", 3, "LO"],
   ["LARGE(A1:A4,4)", 1, "LO"],
