@@ -187,7 +187,9 @@ function ifsAggregate(kind: "sum" | "count" | "average" | "min" | "max", hasTarg
       if (c instanceof XlArray) return notComputed("an array of criteria is not computed headless");
       const cv = c instanceof XlRef ? ctx.host.value(c.sheet, c.r1, c.c1) : ((c ?? null) as Scalar);
       ranges.push(r);
-      tests.push(criterion(cv === null && c !== undefined ? "" : cv));
+      // A criterion that is an empty cell, or written empty, is the number 0 (Microsoft Support,
+      // COUNTIFS and AVERAGEIF: "treats the empty cell as a 0 value"; LibreOffice the same).
+      tests.push(criterion(cv === null ? 0 : cv));
     }
     if (target && target !== ranges[0] && (target.rows !== (ranges[0] as XlRef).rows || target.cols !== (ranges[0] as XlRef).cols) && targetFirst) {
       return err("#VALUE!", "the range to aggregate and the criteria ranges differ in size");

@@ -270,6 +270,14 @@ const CASES: [string, number | string | boolean, string][] = [
   ["COUNTIF(E1:E3,\"=#N/A\")", 1, "LO"],
   ["COUNTIF(A1:A6,\"<>x*\")", 6, "LO"],
   ["COUNTIF(A1:A6,\"=x*\")", 0, "LO"],
+  // A criterion that is an empty cell, or written empty, is 0 (it counted the blank cells and
+  // empty text before; found by scripts/oracle/differential.js)
+  ["COUNTIF(C1:C6,C4)", 0, "LO 7.4 headless; MS:COUNTIFS: a criteria argument that is a reference to an empty cell is treated as 0 (from memory of the page's remarks)"],
+  ["SUMIF(C1:C6,C4,D1:D6)", 0, "LO 7.4 headless; MS:COUNTIFS: a criteria argument that is a reference to an empty cell is treated as 0 (from memory of the page's remarks)"],
+  ["COUNTIFS(A1:A6,\">0\",C1:C6,C4)", 0, "LO 7.4 headless; MS:COUNTIFS: a criteria argument that is a reference to an empty cell is treated as 0 (from memory of the page's remarks)"],
+  ["AVERAGEIF(C1:C6,C4,D1:D6)", "#DIV/0! no cell meets the criteria", "LO 7.4 headless; MS:AVERAGEIF: an empty cell in criteria is treated as 0 (from memory of the page's remarks)"],
+  ["COUNTIF(C1:C6,)", 0, "LO 7.4 headless"],
+  ["COUNTIF(C1:C6,\"\")", 2, "LO 7.4 headless"],
 ];
 
 function check(v: Computed, cell: string, want: number | string | boolean): void {
