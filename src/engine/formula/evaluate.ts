@@ -458,7 +458,9 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
   }
   if (argNodes.length < fn.min || argNodes.length > fn.max) {
     const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
-    return err("#VALUE!", `${name} takes ${range} arguments, not ${argNodes.length}`);
+    // Excel does not accept such a formula, so what it shows for one in a file is not known; an
+    // error value here would be swallowed by IFERROR, ISERR or COUNT into a number.
+    return notComputed(`${name} takes ${range} arguments, not ${argNodes.length}; not computed headless`);
   }
   if (fn.lazy) return fn.lazy(argNodes, ctx);
   // An argument written but left empty (VLOOKUP(x,t,2,), LEFT(s,)) reaches a value parameter as

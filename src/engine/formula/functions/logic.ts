@@ -131,6 +131,7 @@ export function addLogic(t: Table): void {
         if (isError(v)) return v;
         if (compare(x, v) === 0) return branch(args[i + 1], ctx);
       }
+      if (i < args.length && (args[i] as Node).k === "miss") return notComputed("SWITCH with its default written but left empty is not computed headless (LibreOffice gives #N/A, Excel's reading is not checked)");
       return i < args.length ? branch(args[i], ctx) : err("#N/A", "SWITCH found no match");
     },
   });

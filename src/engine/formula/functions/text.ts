@@ -278,6 +278,8 @@ export function addText(t: Table): void {
     if (isError(b)) return b;
     const c = int(sec);
     if (isError(c)) return c;
+    // Microsoft Support, TIME: hour, minute and second are each a number from 0 to 32767.
+    if (Math.max(a, b, c) > 32767) return notComputed("TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless");
     const total = a * 3600 + b * 60 + c;
     if (total < 0) return err("#NUM!", "a negative time");
     return (total % 86400) / 86400;
