@@ -321,3 +321,11 @@ describe("math functions: errors passed through, and no negative zero", () => {
     expect(evaluateFormula("=SIGN(-0)")).toEqual({ value: 0 });
   });
 });
+
+describe("LARGE and SMALL with a k that is not a whole number", () => {
+  it("are refused (LO 7.4 headless: LARGE(A1:A6,0.5) is #VALUE!, the engine rounded k up and gave the largest; Microsoft's LARGE page does not say how k is read; found by scripts/oracle/differential.js)", () => {
+    expect(evaluateFormula("=LARGE({3,1,2},1.5)")).toEqual({ error: "#VALUE!", message: "LARGE with k = 1.5, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)" });
+    expect(evaluateFormula("=SMALL({3,1,2},0.5)")).toEqual({ error: "#VALUE!", message: "SMALL with k = 0.5, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)" });
+    expect(evaluateFormula("=LARGE({3,1,2},2)")).toEqual({ value: 2 }); // LO
+  });
+});

@@ -431,3 +431,23 @@ describe("text functions over arrays, and what is refused", () => {
     expect(v("H2") as number).toBeGreaterThan(45000); // after 15 March 2023
   });
 });
+
+describe("refused where Excel's reading is not known (found by scripts/oracle/differential.js)", () => {
+  const neg = (name: string) => `${name} with a count between -1 and 0 is not computed headless (whether Excel truncates it to 0 or refuses it as negative is not checked; LibreOffice: #VALUE!)`;
+  it("a count between -1 and 0 for LEFT, RIGHT, MID, REPT (LO 7.4 headless: #VALUE!; the engine truncated it to 0 and gave \"\")", () => {
+    expect(evaluateFormula('=LEFT("abc",-0.5)')).toEqual({ error: "#VALUE!", message: neg("LEFT") });
+    expect(evaluateFormula('=RIGHT("abc",-0.25)')).toEqual({ error: "#VALUE!", message: neg("RIGHT") });
+    expect(evaluateFormula('=MID("abc",1,-0.5)')).toEqual({ error: "#VALUE!", message: neg("MID") });
+    expect(evaluateFormula('=REPT("x",-0.25)')).toEqual({ error: "#VALUE!", message: neg("REPT") });
+    expect(evaluateFormula('=LEFT("abc",0.5)')).toEqual({ value: "" }); // LO
+    expect(evaluateFormula('=LEFT("abc",-1)')).toEqual({ error: "#VALUE!", message: "LEFT of a negative count" }); // LO: #VALUE!
+  });
+  it("HOUR and MINUTE less than a second before a full minute (LO 7.4 headless truncates: HOUR(0.999999) is 23, MINUTE(TIME(10,59,59)+0.7/86400) is 59; the engine rounded to the second: 0 and 0)", () => {
+    const msg = (name: string) => `${name} of a time less than a second before a full minute is not computed headless (rounded to the second it is the next minute; whether Excel rounds or truncates here is not checked)`;
+    expect(evaluateFormula("=HOUR(0.999999)")).toEqual({ error: "#VALUE!", message: msg("HOUR") });
+    expect(evaluateFormula("=MINUTE(TIME(10,59,59)+0.7/86400)")).toEqual({ error: "#VALUE!", message: msg("MINUTE") });
+    expect(evaluateFormula("=SECOND(0.999999)")).toEqual({ value: 0 }); // LO
+    expect(evaluateFormula("=MINUTE(TIME(6,45,0))")).toEqual({ value: 45 }); // LO
+    expect(evaluateFormula("=HOUR(TIME(10,59,59)+0.3/86400)")).toEqual({ value: 10 }); // LO
+  });
+});
