@@ -46,6 +46,14 @@ function exactMatcher(lookup: Scalar): (v: Scalar) => boolean {
  */
 function approximateIndex(values: readonly Scalar[], lookup: Scalar, descending: boolean): number {
   const same = (v: Scalar) => v !== null && !isError(v) && typeof v === typeof lookup;
+  // On values out of order the answer depends on how the search probes them, which Microsoft
+  // leaves open ("VLOOKUP may not return the correct value"): refused, not guessed.
+  let prev: Scalar | undefined;
+  for (const v of values) {
+    if (!same(v)) continue;
+    if (prev !== undefined && (compare(prev, v) as number) * (descending ? -1 : 1) > 0) notComputed("an approximate match over values not in sorted order is not computed headless (the result depends on Excel's search; sort the values or use an exact match)");
+    prev = v;
+  }
   let lo = 0;
   let hi = values.length - 1;
   let found = -1;
