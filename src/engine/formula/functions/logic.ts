@@ -106,7 +106,8 @@ export function addLogic(t: Table): void {
     min: 2,
     max: 254,
     lazy: (args, ctx) => {
-      if (args.length % 2) return err("#VALUE!", "IFS takes condition, value pairs");
+      // Excel does not accept IFS with a condition and no value (as with a wrong argument count).
+      if (args.length % 2) return notComputed("IFS takes condition, value pairs; not computed headless");
       for (let i = 0; i < args.length; i += 2) {
         const c = toValue(ev(args[i] as Node, ctx, false), ctx);
         if (c instanceof XlArray) return notComputed("IFS with an array condition is not computed headless");

@@ -335,7 +335,7 @@ export function addLookup(t: Table): void {
     // Reference or array: an expression is taken as an array even in a legacy formula (the
     // non-CSE INDEX(…,0) idiom), a reference stays a reference (A1:INDEX(…)).
     param: classes("A", "V", "V"),
-    call: ([a, r, c], ctx) => indexInto(a instanceof XlRef || a instanceof XlArray ? a : (a as Value), r as Scalar | undefined, c as Scalar | undefined, ctx),
+    call: ([a, r, c], ctx) => a === undefined ? notComputed("INDEX with its array left empty is not computed headless (it gave 0; LibreOffice: #VALUE!)") : indexInto(a instanceof XlRef || a instanceof XlArray ? a : (a as Value), r as Scalar | undefined, c as Scalar | undefined, ctx),
   });
   t.set("MATCH", {
     min: 2,

@@ -365,3 +365,10 @@ describe("INDEX at the edges of its range", () => {
     expect([v("H1"), v("H2"), v("H3"), v("H4")]).toEqual([11, 10, 60, 10]);
   });
 });
+
+describe("INDEX with its array left empty", () => {
+  it("is refused (LO 7.4 headless: INDEX(,1) and INDEX(,FALSE) are #VALUE!; the engine gave 0; found by scripts/oracle/differential.js)", () => {
+    expect(evaluateFormula("=INDEX(,1)")).toEqual({ error: "#VALUE!", message: "INDEX with its array left empty is not computed headless (it gave 0; LibreOffice: #VALUE!)" });
+    expect(evaluateFormula("=INDEX(,FALSE)")).toEqual({ error: "#VALUE!", message: "INDEX with its array left empty is not computed headless (it gave 0; LibreOffice: #VALUE!)" });
+  });
+});
