@@ -10,7 +10,7 @@
  */
 import { Book, Form, localSerial } from "./book";
 import { a1, rangeA1 } from "./cellref";
-import { Ctx, Host, NotComputed, Uncomputable, ev, firstScalar, intersect, notComputed, toArray } from "./formula/evaluate";
+import { Ctx, Host, NotComputed, Uncomputable, arityProblem, ev, firstScalar, intersect, notComputed, toArray } from "./formula/evaluate";
 import type { Node } from "./formula/parser";
 import { Rect, Scalar, Value, XlArray, XlError, XlRef, err, isError } from "./formula/values";
 import { ModeCode, Plan, Reason } from "./plan";
@@ -412,6 +412,11 @@ export class RecalcHost implements Host {
       const why =
         sheet.formulas.form[f] === Form.Table ? "a what-if data table is not computed headless" : `the formula cannot be read headless (${sheet.formulas.syntaxError.get(f) ?? "unknown"})`;
       this.setScalar(i, new Uncomputable(why));
+      return;
+    }
+    const arity = arityProblem(node);
+    if (arity) {
+      this.setScalar(i, new Uncomputable(arity));
       return;
     }
     const mode = plan.mode[i];

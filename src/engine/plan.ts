@@ -824,6 +824,8 @@ function shapeOfCall(name: string, args: readonly Node[], c: ShapeCtx, sub: (x: 
   }
   const fn = nativeFunction(name);
   if (!fn) return ONE;
+  // Too few or too many arguments: the cell is refused when computed; nothing to predict.
+  if (args.length < fn.min || args.length > fn.max) return ONE;
   switch (name) {
     case "ROW":
     case "COLUMN": {

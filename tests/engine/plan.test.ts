@@ -104,6 +104,11 @@ describe("predicted sizes of dynamic arrays that read a SOIL spill (B1 = SOIL.CM
     expect(p.cells["Lab!D10"]).toBe(`${expected} L${expected.endsWith("soil") ? 0 : 1}`);
   });
 
+  it("a dynamic array calling a function with too few arguments (TRANSPOSE(), INDEX()) is predicted as one cell, not a crash (found by scripts/oracle/differential.js; behaviour: such a cell is refused when computed)", async () => {
+    const p = await planOf(S(row(1, da("D1", "D1", "TRANSPOSE()"), da("E1", "E1", "INDEX()"), da("F1", "F1", "TRANSPOSE(A1:A3,A1)"))));
+    expect(p.cells).toEqual({ "Lab!D1": "spill D1 r3 L0", "Lab!E1": "spill E1 r3 L0", "Lab!F1": "spill F1 r3 L0" });
+  });
+
   it("a spill read from a formula that is not recomputed: the range the file records, or one cell", async () => {
     const p = await planOf(S(row(1, c("A1", 1), f("B1", 'SOIL.CMOL(A1,"Ca")', 0), da("G1", "G1:G5", "SEQUENCE(5)", 1), da("H1", "H1", "G1#+B1", 0), da("I1", "I1", "C9#+B1", 0)) + row(9, f("C9", "1", 1))));
     expect(p.cells).toEqual({ "Lab!B1": "spill B1 r1 soil L0", "Lab!H1": "spill H1:H5 r2 L1", "Lab!I1": "spill I1 r2 L1" });

@@ -448,6 +448,50 @@ export function evalArg(node: Node, cls: ParamClass, ctx: Ctx): Value | undefine
   return ev(node, ctx.arrays ? ctx : { ...ctx, arrays: true }, true);
 }
 
+const ARITY = new WeakMap<Node, string | undefined>();
+
+/**
+ * The first call in a formula with a wrong number of arguments for a native function, said as a
+ * refusal, or undefined. Checked over the whole formula before it is computed, so a call in a
+ * branch not taken (CHOOSE(1,FALSE,CODE())) refuses the cell too: Excel does not accept the formula.
+ */
+export function arityProblem(n: Node): string | undefined {
+  if (ARITY.has(n)) return ARITY.get(n);
+  let out: string | undefined;
+  const kids: Node[] = [];
+  switch (n.k) {
+    case "fn": {
+      const fn = FUNCTIONS.get(n.name);
+      if (fn && (n.args.length < fn.min || n.args.length > fn.max)) {
+        const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
+        out = `${n.name} takes ${range} arguments, not ${n.args.length}; not computed headless`;
+      }
+      kids.push(...n.args);
+      break;
+    }
+    case "neg":
+    case "plus":
+    case "at":
+    case "pct":
+    case "spill":
+      kids.push(n.x);
+      break;
+    case "bin":
+    case "range":
+    case "isect":
+      kids.push(n.a, n.b);
+      break;
+    case "union":
+      kids.push(...n.items);
+      break;
+    default:
+      break;
+  }
+  for (const c of kids) out ??= arityProblem(c);
+  ARITY.set(n, out);
+  return out;
+}
+
 function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value {
   const soil = ctx.host.soil(name);
   if (soil) return callSoil(soil, argNodes, ctx);
@@ -458,7 +502,9 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
   }
   if (argNodes.length < fn.min || argNodes.length > fn.max) {
     const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
-    return err("#VALUE!", `${name} takes ${range} arguments, not ${argNodes.length}`);
+    // Excel does not accept such a formula, so what it shows for one in a file is not known; an
+    // error value here would be swallowed by IFERROR, ISERR or COUNT into a number.
+    return notComputed(`${name} takes ${range} arguments, not ${argNodes.length}; not computed headless`);
   }
   if (fn.lazy) return fn.lazy(argNodes, ctx);
   // An argument written but left empty (VLOOKUP(x,t,2,), LEFT(s,)) reaches a value parameter as

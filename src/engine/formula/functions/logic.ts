@@ -106,7 +106,8 @@ export function addLogic(t: Table): void {
     min: 2,
     max: 254,
     lazy: (args, ctx) => {
-      if (args.length % 2) return err("#VALUE!", "IFS takes condition, value pairs");
+      // Excel does not accept IFS with a condition and no value (as with a wrong argument count).
+      if (args.length % 2) return notComputed("IFS takes condition, value pairs; not computed headless");
       for (let i = 0; i < args.length; i += 2) {
         const c = toValue(ev(args[i] as Node, ctx, false), ctx);
         if (c instanceof XlArray) return notComputed("IFS with an array condition is not computed headless");
@@ -131,6 +132,7 @@ export function addLogic(t: Table): void {
         if (isError(v)) return v;
         if (compare(x, v) === 0) return branch(args[i + 1], ctx);
       }
+      if (i < args.length && (args[i] as Node).k === "miss") return notComputed("SWITCH with its default written but left empty is not computed headless (LibreOffice gives #N/A, Excel's reading is not checked)");
       return i < args.length ? branch(args[i], ctx) : err("#N/A", "SWITCH found no match");
     },
   });

@@ -46,6 +46,14 @@ function exactMatcher(lookup: Scalar): (v: Scalar) => boolean {
  */
 function approximateIndex(values: readonly Scalar[], lookup: Scalar, descending: boolean): number {
   const same = (v: Scalar) => v !== null && !isError(v) && typeof v === typeof lookup;
+  // On values out of order the answer depends on how the search probes them, which Microsoft
+  // leaves open ("VLOOKUP may not return the correct value"): refused, not guessed.
+  let prev: Scalar | undefined;
+  for (const v of values) {
+    if (!same(v)) continue;
+    if (prev !== undefined && (compare(prev, v) as number) * (descending ? -1 : 1) > 0) notComputed("an approximate match over values not in sorted order is not computed headless (the result depends on Excel's search; sort the values or use an exact match)");
+    prev = v;
+  }
   let lo = 0;
   let hi = values.length - 1;
   let found = -1;
@@ -187,7 +195,9 @@ function ifsAggregate(kind: "sum" | "count" | "average" | "min" | "max", hasTarg
       if (c instanceof XlArray) return notComputed("an array of criteria is not computed headless");
       const cv = c instanceof XlRef ? ctx.host.value(c.sheet, c.r1, c.c1) : ((c ?? null) as Scalar);
       ranges.push(r);
-      tests.push(criterion(cv === null && c !== undefined ? "" : cv));
+      // A criterion that is an empty cell, or written empty, is the number 0 (Microsoft Support,
+      // COUNTIFS and AVERAGEIF: "treats the empty cell as a 0 value"; LibreOffice the same).
+      tests.push(criterion(cv === null ? 0 : cv));
     }
     if (target && target !== ranges[0] && (target.rows !== (ranges[0] as XlRef).rows || target.cols !== (ranges[0] as XlRef).cols) && targetFirst) {
       return err("#VALUE!", "the range to aggregate and the criteria ranges differ in size");
@@ -325,7 +335,7 @@ export function addLookup(t: Table): void {
     // Reference or array: an expression is taken as an array even in a legacy formula (the
     // non-CSE INDEX(…,0) idiom), a reference stays a reference (A1:INDEX(…)).
     param: classes("A", "V", "V"),
-    call: ([a, r, c], ctx) => indexInto(a instanceof XlRef || a instanceof XlArray ? a : (a as Value), r as Scalar | undefined, c as Scalar | undefined, ctx),
+    call: ([a, r, c], ctx) => a === undefined ? notComputed("INDEX with its array left empty is not computed headless (it gave 0; LibreOffice: #VALUE!)") : indexInto(a instanceof XlRef || a instanceof XlArray ? a : (a as Value), r as Scalar | undefined, c as Scalar | undefined, ctx),
   });
   t.set("MATCH", {
     min: 2,

@@ -3,7 +3,7 @@
  * rounds (ROUND rounds half away from zero on the decimal value shown to 15 digits), and which
  * error it gives where.
  */
-import { Ctx, eachCell } from "../evaluate";
+import { Ctx, eachCell, notComputed } from "../evaluate";
 import { approxAdd, finite, toNumber } from "../coerce";
 import { Scalar, Value, XlArray, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, eachValue, int, num, numbersOf, scalarFn } from "./kit";
@@ -266,7 +266,7 @@ export function addMath(t: Table): void {
     if (n < (sample ? 2 : 1)) return err("#DIV/0!", `needs at least ${sample ? 2 : 1} numbers`);
     const mean = ns.reduce((s, x) => s + x, 0) / n;
     const ss = ns.reduce((s, x) => s + (x - mean) * (x - mean), 0);
-    return ss / (sample ? n - 1 : n);
+    return finite(ss / (sample ? n - 1 : n));
   };
   for (const [name, sample, root] of [
     ["VAR", true, false],
@@ -298,7 +298,8 @@ export function addMath(t: Table): void {
       if (isError(ns)) return ns;
       const k = num(a[1] as Scalar | undefined);
       if (isError(k)) return k;
-      const kk = Math.ceil(k);
+      if (!Number.isInteger(k)) return notComputed(`${largest ? "LARGE" : "SMALL"} with k = ${k}, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)`);
+      const kk = k;
       if (kk < 1 || kk > ns.length) return err("#NUM!", `k = ${k} is outside 1 to ${ns.length}`);
       ns.sort((x, y) => (largest ? y - x : x - y));
       return ns[kk - 1] as number;

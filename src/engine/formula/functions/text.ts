@@ -4,7 +4,7 @@
  * refused with a message rather than guessed.
  */
 import { Ctx, notComputed, toArray } from "../evaluate";
-import { numberFromText, toText } from "../coerce";
+import { numberFromText, toNumber, toText } from "../coerce";
 import { Scalar, Value, XlArray, XlError, XlRef, err, isError } from "../values";
 import { Table, bool, classes, eachValue, int, num, scalarFn, text } from "./kit";
 
@@ -97,6 +97,12 @@ function datePartOf(n: number, part: "y" | "m" | "d", ctx: Ctx): Scalar {
   return d[part];
 }
 
+/** A count between -1 and 0: truncated it is 0, yet it is negative; which Excel does first is not checked. */
+function fractionalNegative(name: string, v: Scalar | undefined): void {
+  const n = v === undefined ? 0 : toNumber(v);
+  if (typeof n === "number" && n < 0 && n > -1) notComputed(`${name} with a count between -1 and 0 is not computed headless (whether Excel truncates it to 0 or refuses it as negative is not checked; LibreOffice: #VALUE!)`);
+}
+
 export function addText(t: Table): void {
   t.set("LEN", textFn(1, 1, (s) => s.length));
   t.set("UPPER", textFn(1, 1, (s) => s.toUpperCase()));
@@ -104,11 +110,13 @@ export function addText(t: Table): void {
   t.set("TRIM", textFn(1, 1, (s) => s.replace(/ +/g, " ").replace(/^ | $/g, "")));
   t.set("CLEAN", textFn(1, 1, (s) => s.replace(/[\u0000-\u001f]/g, "")));
   t.set("LEFT", textFn(1, 2, (s, a) => {
+    fractionalNegative("LEFT", a[1]);
     const n = int(a[1], 1);
     if (isError(n)) return n;
     return n < 0 ? err("#VALUE!", "LEFT of a negative count") : s.slice(0, n);
   }));
   t.set("RIGHT", textFn(1, 2, (s, a) => {
+    fractionalNegative("RIGHT", a[1]);
     const n = int(a[1], 1);
     if (isError(n)) return n;
     return n < 0 ? err("#VALUE!", "RIGHT of a negative count") : n === 0 ? "" : s.slice(-n);
@@ -116,12 +124,14 @@ export function addText(t: Table): void {
   t.set("MID", textFn(3, 3, (s, a) => {
     const start = int(a[1]);
     if (isError(start)) return start;
+    fractionalNegative("MID", a[2]);
     const n = int(a[2]);
     if (isError(n)) return n;
     if (start < 1 || n < 0) return err("#VALUE!", "MID's start must be at least 1 and its length at least 0");
     return s.slice(start - 1, start - 1 + n);
   }));
   t.set("REPT", textFn(2, 2, (s, a) => {
+    fractionalNegative("REPT", a[1]);
     const n = int(a[1]);
     if (isError(n)) return n;
     if (n < 0) return err("#VALUE!", "REPT of a negative count");
@@ -278,6 +288,8 @@ export function addText(t: Table): void {
     if (isError(b)) return b;
     const c = int(sec);
     if (isError(c)) return c;
+    // Microsoft Support, TIME: hour, minute and second are each a number from 0 to 32767.
+    if (Math.max(a, b, c) > 32767) return notComputed("TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless");
     const total = a * 3600 + b * 60 + c;
     if (total < 0) return err("#NUM!", "a negative time");
     return (total % 86400) / 86400;
@@ -290,7 +302,12 @@ export function addText(t: Table): void {
         const n = serialArg(v as Scalar, ctx);
         if (isError(n)) return n;
         if (n < 0) return err("#NUM!", "a negative time");
-        const secs = Math.round((n - Math.floor(n)) * 86400);
+        const exact = (n - Math.floor(n)) * 86400;
+        const secs = Math.round(exact);
+        // Half a second or more before a full minute: rounded, the minute (and hour) goes up;
+        // LibreOffice truncates there. Which Excel does is not checked.
+        const frac = exact - Math.floor(exact);
+        if (div > 1 && secs % 60 === 0 && frac >= 0.5 && frac < 1 - 1e-6) return notComputed(`${div === 3600 ? "HOUR" : "MINUTE"} of a time less than a second before a full minute is not computed headless (rounded to the second it is the next minute; whether Excel rounds or truncates here is not checked)`);
         return Math.floor(secs / div) % mod;
       },
     }) as const;

@@ -41,7 +41,9 @@ const CASES: [string, number | string | boolean, string][] = [
   ["PRODUCT((A1:A2,B1))", 20, "LO"],
   ["EXACT(,\"\")", true, "LO"],
   ["EXACT(,0)", false, "LO"],
-  ["LEN(,)", "#VALUE! LEN takes 1 arguments, not 2", "LO"],
+  ["LEN(,)", "not computed: it reads H25, which is not computed headless (LEN takes 1 arguments, not 2; not computed headless)", "behaviour: Excel does not accept a formula with a wrong argument count, so it is refused (LO: #VALUE!, which ISERR or COUNT would swallow)"],
+  ["CHOOSE(1,FALSE,CODE())", "not computed: it reads H26, which is not computed headless (CODE takes 1 arguments, not 0; not computed headless)", "behaviour: Excel does not accept a formula with a wrong argument count, so the cell is refused even where the call is in a branch not taken (it gave FALSE; LO: #VALUE!; found by scripts/oracle/differential.js)"],
+  ["IFERROR(ABS(),5)", "not computed: it reads H27, which is not computed headless (ABS takes 1 arguments, not 0; not computed headless)", "behaviour: as above (LO: #VALUE!)"],
 ];
 
 function check(v: Computed, cell: string, want: number | string | boolean): void {

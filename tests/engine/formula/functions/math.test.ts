@@ -211,6 +211,8 @@ const CASES: [string, number | string | boolean, string][] = [
   ["STDEV(\"x\")", "#VALUE! text \"x\" is not a number", "LO"],
   ["VAR(2,\"4\",TRUE)", 2.333333333333333, "MS:COUNT page (same remark on the SUM, AVERAGE, MIN, MAX, VAR pages, from memory): logical values and numeric text typed as arguments count, in a reference or array only numbers do (LO counts TRUE in cells as 1 / refuses typed text)"],
   ["_xlfn.STDEV.P(5)", 0, "LO"],
+  ["VARP(1,1E+298)", "#NUM! the result is not a finite number", "LO 7.4 headless (#NUM!; the engine wrote Infinity, found by scripts/oracle/differential.js)"],
+  ["STDEV(-1E+300,1E+300)", "#NUM! the result is not a finite number", "LO 7.4 headless"],
   ["LARGE(A1:A4,1)", 4, "LO"],
   ["LARGE(A1:A4,2)", 3, "LO"],
   ["LARGE(A1:A4,4)", 1, "LO"],
@@ -317,5 +319,13 @@ describe("math functions: errors passed through, and no negative zero", () => {
   it("INT(-0) is 0, not -0 (LO: 0; a cell cannot hold a negative zero)", () => {
     expect(evaluateFormula("=INT(-0)")).toEqual({ value: 0 });
     expect(evaluateFormula("=SIGN(-0)")).toEqual({ value: 0 });
+  });
+});
+
+describe("LARGE and SMALL with a k that is not a whole number", () => {
+  it("are refused (LO 7.4 headless: LARGE(A1:A6,0.5) is #VALUE!, the engine rounded k up and gave the largest; Microsoft's LARGE page does not say how k is read; found by scripts/oracle/differential.js)", () => {
+    expect(evaluateFormula("=LARGE({3,1,2},1.5)")).toEqual({ error: "#VALUE!", message: "LARGE with k = 1.5, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)" });
+    expect(evaluateFormula("=SMALL({3,1,2},0.5)")).toEqual({ error: "#VALUE!", message: "SMALL with k = 0.5, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)" });
+    expect(evaluateFormula("=LARGE({3,1,2},2)")).toEqual({ value: 2 }); // LO
   });
 });

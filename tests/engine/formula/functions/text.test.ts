@@ -341,6 +341,9 @@ const CASES: [string, number | string | boolean, string][] = [
   ["SUBSTITUTE(\"aaaa\",\"aa\",\"b\",2)", "aab", "LO"],
   ["SUBSTITUTE(\"aaaa\",\"aa\",\"b\")", "bb", "LO"],
   ["_xlfn.TEXTJOIN(\"-\",FALSE,\"a\",A5,\"b\")", "a--b", "LO"],
+  ["TIME(32767,0,0)", 0.2916666666666667, "LO 7.4 headless"],
+  ["TIME(32768,0,0)", "not computed: it reads H323, which is not computed headless (TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless)", "behaviour: MS:TIME: hour, minute and second are each 0 to 32767; beyond it Excel's result is not documented (LO computes 0.333…), so refused (found by scripts/oracle/differential.js)"],
+  ["TIME(0,0,123456)", "not computed: it reads H324, which is not computed headless (TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless)", "behaviour: MS:TIME: hour, minute and second are each 0 to 32767"],
 ];
 
 function check(v: Computed, cell: string, want: number | string | boolean): void {
@@ -426,5 +429,25 @@ describe("text functions over arrays, and what is refused", () => {
     expect(frac).toBeLessThan(1);
     expect(Number.isInteger(v("H2"))).toBe(true);
     expect(v("H2") as number).toBeGreaterThan(45000); // after 15 March 2023
+  });
+});
+
+describe("refused where Excel's reading is not known (found by scripts/oracle/differential.js)", () => {
+  const neg = (name: string) => `${name} with a count between -1 and 0 is not computed headless (whether Excel truncates it to 0 or refuses it as negative is not checked; LibreOffice: #VALUE!)`;
+  it("a count between -1 and 0 for LEFT, RIGHT, MID, REPT (LO 7.4 headless: #VALUE!; the engine truncated it to 0 and gave \"\")", () => {
+    expect(evaluateFormula('=LEFT("abc",-0.5)')).toEqual({ error: "#VALUE!", message: neg("LEFT") });
+    expect(evaluateFormula('=RIGHT("abc",-0.25)')).toEqual({ error: "#VALUE!", message: neg("RIGHT") });
+    expect(evaluateFormula('=MID("abc",1,-0.5)')).toEqual({ error: "#VALUE!", message: neg("MID") });
+    expect(evaluateFormula('=REPT("x",-0.25)')).toEqual({ error: "#VALUE!", message: neg("REPT") });
+    expect(evaluateFormula('=LEFT("abc",0.5)')).toEqual({ value: "" }); // LO
+    expect(evaluateFormula('=LEFT("abc",-1)')).toEqual({ error: "#VALUE!", message: "LEFT of a negative count" }); // LO: #VALUE!
+  });
+  it("HOUR and MINUTE less than a second before a full minute (LO 7.4 headless truncates: HOUR(0.999999) is 23, MINUTE(TIME(10,59,59)+0.7/86400) is 59; the engine rounded to the second: 0 and 0)", () => {
+    const msg = (name: string) => `${name} of a time less than a second before a full minute is not computed headless (rounded to the second it is the next minute; whether Excel rounds or truncates here is not checked)`;
+    expect(evaluateFormula("=HOUR(0.999999)")).toEqual({ error: "#VALUE!", message: msg("HOUR") });
+    expect(evaluateFormula("=MINUTE(TIME(10,59,59)+0.7/86400)")).toEqual({ error: "#VALUE!", message: msg("MINUTE") });
+    expect(evaluateFormula("=SECOND(0.999999)")).toEqual({ value: 0 }); // LO
+    expect(evaluateFormula("=MINUTE(TIME(6,45,0))")).toEqual({ value: 45 }); // LO
+    expect(evaluateFormula("=HOUR(TIME(10,59,59)+0.3/86400)")).toEqual({ value: 10 }); // LO
   });
 });
