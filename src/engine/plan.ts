@@ -3,7 +3,7 @@
  *
  * The rule: the SOIL cells, and every cell that depends on them (directly, through ranges,
  * defined names or spills), are computed; so is a formula that the file holds without a cached
- * value. Every other cell keeps the value its file cached, unless the workbook was saved with
+ * value, with every cell that depends on it. Every other cell keeps the value its file cached, unless the workbook was saved with
  * manual calculation (its cached values may be stale): then every formula is computed. Dependencies are read statically
  * from each formula's tree (a superset is safe: a cell computed needlessly gets Excel's value
  * anyway); structured references read their table's area. A formula whose references are only
@@ -456,6 +456,17 @@ export function planRecalc(book: Book, soil: SoilSignatures, options: PlanOption
     else if (live && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
     if (reason[g]) markChanged(g);
   }
+  // A formula the file holds without a cached value is computed, so what reads it changes too
+  // (its readers' cached values were not computed from the value it gets now).
+  // (Every such formula is marked before any is predicted: a prediction follows the formulas that
+  // are computed.)
+  const uncached: number[] = [];
+  for (let g = 0; g < F.n; g++) {
+    if (reason[g] || cachedOf(g)) continue;
+    reason[g] = Reason.Uncached;
+    uncached.push(g);
+  }
+  for (const g of uncached) markChanged(g);
 
   // Cells reading a changed area change too: pass over the formulas until none is added.
   let passes = 0;

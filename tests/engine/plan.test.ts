@@ -354,3 +354,14 @@ describe("a workbook saved with manual calculation (calcPr calcMode=\"manual\", 
     }
   });
 });
+
+describe("what reads a formula saved without a cached value is computed too", () => {
+  it("A2 has no cached value, so C2 = A2+1 and D2 = SUM(A2:A3), which cache what A2 gave before, are planned (found by a consultant-style workbook run: recalc computed A2 as 10 and kept C2's 999; behaviour: Excel computes a formula's readers from its new value)", async () => {
+    const rows = row(1, c("A1", 400.78), f("B1", 'SOIL.CMOL(A1,"Ca")', 2)) + row(2, f("A2", "B2*2"), c("B2", 5), f("C2", "A2+1", 999), f("D2", "SUM(A2:A3)", 999), f("E2", "B2+1", 6));
+    const p = await planOf(S(rows));
+    expect(p.cells).toEqual({ "Lab!B1": "spill B1 r1 soil L0", "Lab!A2": "single A2 r3 L0", "Lab!C2": "single C2 r2 L1", "Lab!D2": "single D2 r2 L1" });
+    // without any SOIL formula too
+    const q = await planOf(S(row(2, f("A2", "B2*2"), c("B2", 5), f("C2", "A2+1", 999), f("E2", "B2+1", 6))));
+    expect(q.cells).toEqual({ "Lab!A2": "single A2 r3 L0", "Lab!C2": "single C2 r2 L1" });
+  });
+});
