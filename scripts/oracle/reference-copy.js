@@ -10,9 +10,11 @@ const JSZip = require("jszip");
 const { parse, textOf, escapeXml } = require("./xml");
 const { readWorkbookCells, parseA1, a1, MAIN_NS } = require("./xlsx-cells");
 
-function valueCellXml(prefix, addr, v) {
+function valueCellXml(prefix, addr, v, options = {}) {
   const p = prefix ? `${prefix}:` : "";
   if (v === null || v === undefined) return `<${p}c r="${addr}"/>`;
+  // LibreOffice reads an empty text constant as a blank cell; a formula ="" keeps it text (as Excel holds a SOIL blank result, "")
+  if (v === "" && options.emptyTextAsFormula) return `<${p}c r="${addr}" t="str"><${p}f>""</${p}f><${p}v></${p}v></${p}c>`;
   if (typeof v === "number") return `<${p}c r="${addr}"><${p}v>${String(v)}</${p}v></${p}c>`;
   if (typeof v === "boolean") return `<${p}c r="${addr}" t="b"><${p}v>${v ? 1 : 0}</${p}v></${p}c>`;
   if (typeof v === "string") return `<${p}c r="${addr}" t="inlineStr"><${p}is><${p}t xml:space="preserve">${escapeXml(v)}</${p}t></${p}is></${p}c>`;
@@ -41,8 +43,10 @@ function withoutSpillOperator(formula, sheetName, refs) {
 /**
  * The reference copy's bytes. `replacements`: { sheet: { A1: value } } (number, string, boolean,
  * { error }, null) for every SOIL cell and spill element; each must exist as a <c> in the sheet.
+ * `options.emptyTextAsFormula`: an empty text value becomes the formula ="" (LibreOffice reads an
+ * empty text constant as a blank cell).
  */
-async function referenceCopy(bytes, replacements) {
+async function referenceCopy(bytes, replacements, options = {}) {
   const book = await readWorkbookCells(bytes);
   const refs = new Map();
   for (const s of book.sheets) for (const c of s.cells.values()) if (c.f && c.f.t === "array" && c.f.ref) refs.set(`${s.name}!${c.r}`, c.f.ref);
@@ -66,7 +70,7 @@ async function referenceCopy(bytes, replacements) {
         const addr = a1(at.row, at.col);
         const prefix = c.name.includes(":") ? c.name.split(":")[0] : "";
         if (Object.prototype.hasOwnProperty.call(want, addr)) {
-          cuts.push([c.start, c.end, valueCellXml(prefix, addr, want[addr])]);
+          cuts.push([c.start, c.end, valueCellXml(prefix, addr, want[addr], options)]);
           done.add(addr);
           continue;
         }

@@ -51,6 +51,8 @@ export interface Book {
   /** Tables by name (upper case); a structured reference reads within its table's area. */
   readonly tables: ReadonlyMap<string, TableArea>;
   readonly date1904: boolean;
+  /** Saved with manual calculation: cached values may be stale, so a recalculation computes every formula. */
+  readonly manualCalc?: boolean;
   /** Sheet lookup by name, case-insensitive. */
   sheetIndex(name: string): number | undefined;
   /** A defined name visible from a sheet (its own scope first, then the workbook's). */
@@ -103,6 +105,7 @@ export function readBook(pkg: XlsxPackage, names: NameMap): Book {
     names: definedNames,
     tables,
     date1904: pkg.date1904,
+    manualCalc: pkg.manualCalc === true,
     sheetIndex: (name) => byName.get(name.toUpperCase()),
     definedName: (name, from) => nameIndex.get(`${from}|${name.toUpperCase()}`) ?? nameIndex.get(`|${name.toUpperCase()}`),
   };

@@ -3,7 +3,8 @@
  *
  * The rule: the SOIL cells, and every cell that depends on them (directly, through ranges,
  * defined names or spills), are computed; so is a formula that the file holds without a cached
- * value. Every other cell keeps the value its file cached. Dependencies are read statically
+ * value, with every cell that depends on it. Every other cell keeps the value its file cached, unless the workbook was saved with
+ * manual calculation (its cached values may be stale): then every formula is computed. Dependencies are read statically
  * from each formula's tree (a superset is safe: a cell computed needlessly gets Excel's value
  * anyway); structured references read their table's area. A formula whose references are only
  * known when it runs (OFFSET, INDIRECT) is computed whenever the workbook has any SOIL cell, since
@@ -443,6 +444,11 @@ export function planRecalc(book: Book, soil: SoilSignatures, options: PlanOption
     const info = infoOf(g);
     const live = (anySoil && soilSeeds) || seeded;
     if (isSoil[g] && soilSeeds) reason[g] = Reason.Soil;
+    // A workbook saved with manual calculation may cache values its inputs no longer give (a pH
+    // edited, not recalculated): keeping them would feed stale decisions into the SOIL cells'
+    // dependents (IF(G2="Apply lime",…) over a G2 no longer true). Every formula is computed, as
+    // Excel computes them all on F9; what the engine cannot compute is an error with its reason.
+    else if (live && soilSeeds && book.manualCalc) reason[g] = Reason.Depends;
     // A formula whose reads are only known when it runs, or cannot be traced at all (it does not
     // parse, or holds something opaque), might read a recomputed or changed cell: it is computed,
     // and what the engine cannot compute becomes an error with its reason, never a stale value.
@@ -450,6 +456,17 @@ export function planRecalc(book: Book, soil: SoilSignatures, options: PlanOption
     else if (live && info && callsThrough(book, info, F.sheet[g] as number, "dynamic")) reason[g] = Reason.Dynamic;
     if (reason[g]) markChanged(g);
   }
+  // A formula the file holds without a cached value is computed, so what reads it changes too
+  // (its readers' cached values were not computed from the value it gets now).
+  // (Every such formula is marked before any is predicted: a prediction follows the formulas that
+  // are computed.)
+  const uncached: number[] = [];
+  for (let g = 0; g < F.n; g++) {
+    if (reason[g] || cachedOf(g)) continue;
+    reason[g] = Reason.Uncached;
+    uncached.push(g);
+  }
+  for (const g of uncached) markChanged(g);
 
   // Cells reading a changed area change too: pass over the formulas until none is added.
   let passes = 0;

@@ -59,6 +59,8 @@ export interface XlsxPackage {
   readonly workbookPath: string;
   readonly definedNames: readonly DefinedNameDecl[];
   readonly date1904: boolean;
+  /** The workbook was saved with manual calculation (calcPr calcMode="manual"): its cached values may be stale. */
+  readonly manualCalc?: boolean;
   /** A part's text (UTF-8), or undefined when the package has no such part. */
   text(path: string): string | undefined;
   has(path: string): boolean;
@@ -211,6 +213,7 @@ export async function openPackage(bytes: Buffer): Promise<XlsxPackage> {
     workbookPath,
     definedNames: wb.definedNames,
     date1904: wb.date1904,
+    manualCalc: wb.manualCalc,
     cellXmlBytes,
     text,
     has: (p) => !removed.has(p) && (replaced.has(p) || byName.has(p)),
@@ -257,6 +260,7 @@ interface WorkbookXml {
   sheets: { name: string; rid?: string }[];
   definedNames: DefinedNameDecl[];
   date1904: boolean;
+  manualCalc: boolean;
 }
 
 function readWorkbookXml(xml: string): WorkbookXml {
@@ -264,6 +268,7 @@ function readWorkbookXml(xml: string): WorkbookXml {
   const sheets: { name: string; rid?: string }[] = [];
   const definedNames: DefinedNameDecl[] = [];
   let date1904 = false;
+  let manualCalc = false;
   let relPrefix: string | undefined;
   for (let t = s.next(); t !== Tok.End; t = s.next()) {
     if (t !== Tok.Open) continue;
@@ -272,6 +277,9 @@ function readWorkbookXml(xml: string): WorkbookXml {
     } else if (s.local === "workbookPr") {
       const d = s.attr("date1904");
       date1904 = d === "1" || d === "true";
+    } else if (s.local === "calcPr") {
+      // ECMA-376 Part 1, calcPr (18.2.2) calcMode: ST_CalcMode "manual", "auto" (the default), "autoNoTable" (section numbers from memory)
+      manualCalc = s.attr("calcMode") === "manual";
     } else if (s.local === "sheet") {
       const attrs = s.attrs();
       const name = attrs.get("name");
@@ -289,7 +297,7 @@ function readWorkbookXml(xml: string): WorkbookXml {
       definedNames.push(local === undefined ? { name, text } : { name, text, localSheetId: Number(local) });
     }
   }
-  return { sheets, definedNames, date1904 };
+  return { sheets, definedNames, date1904, manualCalc };
 }
 
 /** Runs a step on the file's contents; anything it throws becomes a plain WorkbookFileError. */

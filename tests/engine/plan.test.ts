@@ -337,3 +337,31 @@ describe("readsSpillOf (what a values copy must turn into values)", () => {
     expect([2, 3, 4, 5, 6, 7].map(reads)).toEqual([true, true, true, false, false, false]);
   });
 });
+
+describe("a workbook saved with manual calculation (calcPr calcMode=\"manual\", ECMA-376 Part 1 calcPr; behaviour)", () => {
+  // A2 (pH) was edited after the last recalculation: C2 caches "Apply lime" that A2 no longer gives.
+  const rows = row(2, c("A2", 6.0), f("B2", 'SOIL.CMOL(A2,"Ca")', 0), f("C2", 'IF(A2<5.5,"Apply lime","No lime")', 1), f("D2", 'IF(C2="Apply lime",B2*4,0)', 1)) + row(3, f("E3", "A2*2", 1));
+  const withCalc = (calcPr: string) => ({ "xl/workbook.xml": `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>\n<workbook xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main" xmlns:r="http://schemas.openxmlformats.org/officeDocument/2006/relationships"><sheets><sheet name="Lab" sheetId="1" r:id="rId1"/></sheets>${calcPr}</workbook>` });
+  it("plans every formula, so no stale cached value feeds a recomputed cell (a consultant-style workbook run: D2 spread a lime rate from a stale \"Apply lime\"; Excel computes every formula on F9)", async () => {
+    const p = await planOf(S(rows), undefined, withCalc('<calcPr calcId="191029" calcMode="manual"/>'));
+    expect(Object.keys(p.cells).sort()).toEqual(["Lab!B2", "Lab!C2", "Lab!D2", "Lab!E3"]);
+    expect(p.cells["Lab!C2"]).toBe("single C2 r2 L0");
+  });
+  it("with automatic calculation (stated or by default) only the SOIL cells and their dependents are planned", async () => {
+    for (const calcPr of ['<calcPr calcId="191029" calcMode="auto"/>', '<calcPr calcId="191029"/>', ""]) {
+      const p = await planOf(S(rows), undefined, withCalc(calcPr));
+      expect(Object.keys(p.cells).sort()).toEqual(["Lab!B2", "Lab!D2"]);
+    }
+  });
+});
+
+describe("what reads a formula saved without a cached value is computed too", () => {
+  it("A2 has no cached value, so C2 = A2+1 and D2 = SUM(A2:A3), which cache what A2 gave before, are planned (found by a consultant-style workbook run: recalc computed A2 as 10 and kept C2's 999; behaviour: Excel computes a formula's readers from its new value)", async () => {
+    const rows = row(1, c("A1", 400.78), f("B1", 'SOIL.CMOL(A1,"Ca")', 2)) + row(2, f("A2", "B2*2"), c("B2", 5), f("C2", "A2+1", 999), f("D2", "SUM(A2:A3)", 999), f("E2", "B2+1", 6));
+    const p = await planOf(S(rows));
+    expect(p.cells).toEqual({ "Lab!B1": "spill B1 r1 soil L0", "Lab!A2": "single A2 r3 L0", "Lab!C2": "single C2 r2 L1", "Lab!D2": "single D2 r2 L1" });
+    // without any SOIL formula too
+    const q = await planOf(S(row(2, f("A2", "B2*2"), c("B2", 5), f("C2", "A2+1", 999), f("E2", "B2+1", 6))));
+    expect(q.cells).toEqual({ "Lab!A2": "single A2 r3 L0", "Lab!C2": "single C2 r2 L1" });
+  });
+});

@@ -142,13 +142,27 @@ export function addLogic(t: Table): void {
     lazy: (args, ctx) => {
       const k = toValue(ev(args[0] as Node, ctx, false), ctx);
       if (k instanceof XlArray) {
-        return lift([k], ([x]) => {
+        // Each choice an index names is computed once and broadcast with the index, as Excel's
+        // array arithmetic pairs arrays (CHOOSE({1,2},B2:B9,A2:A9) is an 8×2 array); choices
+        // no index names are not computed.
+        // In a legacy formula too (the left-lookup idiom VLOOKUP(x,CHOOSE({1,2},B2:B9,A2:A9),2,0)
+        // is written without Ctrl+Shift+Enter): the chosen ranges are read whole, not intersected.
+        const actx = ctx.arrays ? ctx : { ...ctx, arrays: true };
+        const chosen: (Scalar | XlArray)[] = args.map(() => null);
+        for (let r = 0; r < k.rows; r++) {
+          for (let c = 0; c < k.cols; c++) {
+            const n = toNumber(k.at(r, c));
+            if (isError(n)) continue;
+            const i = Math.trunc(n);
+            if (i >= 1 && i < args.length && chosen[i] === null) chosen[i] = toValue(branch(args[i], actx), actx);
+          }
+        }
+        return lift([k, ...chosen.slice(1)], ([x, ...vs]) => {
           const n = toNumber(x as Scalar);
           if (isError(n)) return n;
           const i = Math.trunc(n);
           if (i < 1 || i >= args.length) return err("#VALUE!", `CHOOSE index ${n} is outside 1 to ${args.length - 1}`);
-          const v = toValue(branch(args[i], ctx), ctx);
-          return v instanceof XlArray ? v.at(0, 0) : v;
+          return vs[i - 1] as Scalar;
         }, ctx);
       }
       const n = toNumber(k);

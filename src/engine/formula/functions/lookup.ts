@@ -37,6 +37,11 @@ function exactMatcher(lookup: Scalar): (v: Scalar) => boolean {
     const u = lookup.toUpperCase();
     return re ? (v) => typeof v === "string" && re.test(v) : (v) => typeof v === "string" && v.toUpperCase() === u;
   }
+  // A number matches only itself, bit for bit, not a neighbour within rounding noise as = compares:
+  // Excel cached #N/A for HLOOKUP(0.99900000000000011,…,FALSE) over a 0.999 (Stack Overflow
+  // question 12695417, "Simple HLOOKUP failing with Excel 2010", its workbook's XML as posted),
+  // and LibreOffice 7.4 gives #N/A for MATCH(0.3,{0.30000000000000004},0).
+  if (typeof lookup === "number") return (v) => v === lookup;
   return (v) => v !== null && !isError(v) && typeof v === typeof lookup && compare(v, lookup) === 0;
 }
 

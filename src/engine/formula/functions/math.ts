@@ -4,9 +4,26 @@
  * error it gives where.
  */
 import { Ctx, eachCell, notComputed } from "../evaluate";
-import { approxAdd, finite, toNumber } from "../coerce";
+import { approxAdd, approxSub, finite, toNumber } from "../coerce";
 import { Scalar, Value, XlArray, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, eachValue, int, num, numbersOf, scalarFn } from "./kit";
+
+/**
+ * Refuses INT of a number (or MOD of a quotient) just below a whole number that is that whole
+ * number to 15 digits (8.2-0.2 is 7.999999999999999, shown as 8): the binary value floors to 7,
+ * the 15-digit value Excel shows floors to 8 (LibreOffice 7.4 gives 8), and no Microsoft page seen
+ * says which Excel gives; a wrong whole number (years of split applications, bags) would pass unseen.
+ */
+function floorsApart(x: number): boolean {
+  const shown = Number(x.toPrecision(15));
+  return !Number.isInteger(x) && Number.isInteger(shown) && Math.floor(x) !== shown;
+}
+
+function floorUnknown(name: string, x: number): never {
+  return notComputed(
+    `${name} of ${x}, which is ${Number(x.toPrecision(15))} to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. ${name === "INT" ? "INT(ROUND(x,9))" : "MOD(ROUND(x,9),d)"}`,
+  );
+}
 
 /** Rounds to `digits` decimals, half away from zero, on the number as Excel shows it (15 digits). */
 export function roundHalfAway(x: number, digits: number): number {
@@ -136,7 +153,10 @@ export function addMath(t: Table): void {
   }));
   t.set("INT", scalarFn(1, 1, ([x]) => {
     const a = num(x);
-    return isError(a) ? a : Math.floor(a) || 0;
+    if (isError(a)) return a;
+    const r = Math.floor(a);
+    if (floorsApart(a)) floorUnknown("INT", a);
+    return r || 0;
   }));
   t.set("ABS", scalarFn(1, 1, ([x]) => {
     const a = num(x);
@@ -190,7 +210,11 @@ export function addMath(t: Table): void {
     const b = num(y);
     if (isError(b)) return b;
     if (b === 0) return err("#DIV/0!", "MOD by zero");
-    const r = a - b * Math.floor(a / b);
+    const q = a / b;
+    if (floorsApart(q)) floorUnknown("MOD", q);
+    // MOD(n, d) = n - d*INT(n/d), with the worksheet's subtraction (rounding noise of nearly
+    // equal operands is 0): MOD(7.7,1.1) is 0, not -8.9E-16, a remainder of the wrong sign
+    const r = approxSub(a, b * Math.floor(q));
     return finite(r);
   }));
   t.set("PI", scalarFn(0, 0, () => Math.PI));

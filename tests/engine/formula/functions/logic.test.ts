@@ -269,6 +269,25 @@ describe("logical functions over arrays (dynamic-array formulas)", () => {
     expect(evaluateFormula('=CHOOSE({1,2},{7,8},"b")')).toEqual({ value: [[7, "b"]] });
     expect(evaluateFormula('=CHOOSE({2.9,1.1},"a","b")')).toEqual({ value: [["b", "a"]] });
   });
+  it("CHOOSE with an array index broadcasts the chosen arrays against it: CHOOSE({1,2},col,col) is a two-column table (LO 7.4 headless; a bug took each choice's first element, so the left lookup VLOOKUP(x,CHOOSE({1,2},B,A),2,FALSE) answered #N/A)", async () => {
+    expect(evaluateFormula('=CHOOSE({1,2},{"a";"b"},{1;2})')).toEqual({ value: [["a", 1], ["b", 2]] });
+    expect(evaluateFormula('=CHOOSE({1;2},{7,8},"b")')).toEqual({ value: [[7, 8], ["b", "b"]] });
+    expect(evaluateFormula('=VLOOKUP("b",CHOOSE({1,2},{"a";"b"},{1;2}),2,FALSE)')).toEqual({ value: 2 });
+    // on a sheet, in a legacy formula (row 12, outside the ranges) and a dynamic-array one: LibreOffice 7.4 headless gives the same values
+    const cells = { A2: "N1", A3: "N2", A4: "N3", A5: "N4", B2: "Low", B3: "Optimum", B4: "Optimum", B5: "High", C2: 60, C3: 30, C4: 30, C5: 0 };
+    const v = await compute(cells, {
+      H12: 'VLOOKUP("Optimum",CHOOSE({1,2},B2:B5,A2:A5),2,FALSE)',
+      H13: { da: 'VLOOKUP("High",CHOOSE({1,2},B2:B5,A2:A5),2,FALSE)', spill: "H13" },
+      H14: "SUM(CHOOSE({1,2},C2:C5,C2:C5))",
+      H15: "INDEX(CHOOSE({1,2},C2:C5,A2:A5),4,2)",
+      H16: 'MATCH("N4",INDEX(CHOOSE({1,2},C2:C5,A2:A5),0,2),0)',
+    });
+    expect(v("H12")).toBe("N2");
+    expect(v("H13")).toBe("N4");
+    expect(v("H14")).toBe(240);
+    expect(v("H15")).toBe("N4");
+    expect(v("H16")).toBe(4);
+  });
   it("IFS and SWITCH over an array are refused, not guessed (behaviour)", () => {
     expect(evaluateFormula("=IFS({TRUE,FALSE},1)")).toEqual({ error: "#VALUE!", message: "IFS with an array condition is not computed headless" });
     expect(evaluateFormula("=SWITCH({1,2},1,\"a\")")).toEqual({ error: "#VALUE!", message: "SWITCH over an array is not computed headless" });

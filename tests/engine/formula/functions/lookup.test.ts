@@ -372,3 +372,16 @@ describe("INDEX with its array left empty", () => {
     expect(evaluateFormula("=INDEX(,FALSE)")).toEqual({ error: "#VALUE!", message: "INDEX with its array left empty is not computed headless (it gave 0; LibreOffice: #VALUE!)" });
   });
 });
+
+describe("exact match of a number compares the binary value, not the 15-digit one", () => {
+  it("MATCH(…,0), VLOOKUP(…,FALSE) and HLOOKUP(…,FALSE) do not find a neighbour within rounding noise (LO 7.4 headless: #N/A for each; behaviour: Excel cached #N/A for HLOOKUP(0.99900000000000011,…,FALSE) over a 0.999, Stack Overflow question 12695417 'Simple HLOOKUP failing with Excel 2010', its workbook's XML as posted; the engine found them. Found by a consultant-style workbook run)", () => {
+    expect(evaluateFormula("=MATCH(0.3,{0.1,0.2,0.30000000000000004},0)").error).toBe("#N/A");
+    expect(evaluateFormula("=VLOOKUP(0.1+0.2,{0.3,\"x\"},2,FALSE)").error).toBe("#N/A");
+    expect(evaluateFormula("=HLOOKUP(0.99900000000000011,{0.998,0.999;\"A\",\"B\"},2,FALSE)").error).toBe("#N/A");
+    expect(evaluateFormula("=MATCH(8,{7.999999999999999},0)").error).toBe("#N/A");
+    // equal numbers still match, and = keeps comparing on 15 digits (LO: 3, "x", TRUE)
+    expect(evaluateFormula("=MATCH(0.3,{0.1,0.2,0.3},0)")).toEqual({ value: 3 });
+    expect(evaluateFormula("=VLOOKUP(0.3,{0.3,\"x\"},2,FALSE)")).toEqual({ value: "x" });
+    expect(evaluateFormula("=(0.1+0.2)=0.3")).toEqual({ value: true });
+  });
+});

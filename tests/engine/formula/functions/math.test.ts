@@ -329,3 +329,24 @@ describe("LARGE and SMALL with a k that is not a whole number", () => {
     expect(evaluateFormula("=LARGE({3,1,2},2)")).toEqual({ value: 2 }); // LO
   });
 });
+
+describe("INT and MOD just below a whole number (found by a consultant-style workbook and scripts/oracle/differential.js)", () => {
+  it("INT of a number that is a whole number to 15 digits but just below it in binary is refused: 8.2-0.2 is 7.999999999999999, LibreOffice 7.4 headless gives INT 8, the engine gave 7, and no Microsoft page seen says which Excel gives (behaviour: a refusal beats a wrong whole number)", () => {
+    expect(evaluateFormula("=INT(8.2-0.2)")).toEqual({ error: "#VALUE!", message: "INT of 7.999999999999999, which is 8 to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. INT(ROUND(x,9))" });
+    // IFERROR cannot swallow the refusal into a number
+    expect(evaluateFormula("=IFERROR(INT(8.2-0.2),0)").error).toBe("#VALUE!");
+    expect(evaluateFormula("=INT(ROUND(8.2-0.2,9))")).toEqual({ value: 8 }); // LO
+    expect(evaluateFormula("=INT(-(8.2-0.2))")).toEqual({ value: -8 }); // LO: both floors agree
+    expect(evaluateFormula("=INT(0.1*3*10)")).toEqual({ value: 3 }); // LO: 3.0000000000000004, above the whole number
+    expect(evaluateFormula("=INT(1E+300)")).toEqual({ value: 1e300 }); // LO
+  });
+  it("MOD whose quotient is just below a whole number is refused the same way: MOD(0.3,0.1), quotient 2.9999999999999996 (LO 7.4 headless: 0; the engine gave 0.09999999999999998)", () => {
+    expect(evaluateFormula("=MOD(0.3,0.1)")).toEqual({ error: "#VALUE!", message: "MOD of 2.9999999999999996, which is 3 to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. MOD(ROUND(x,9),d)" });
+    expect(evaluateFormula("=MOD(1E+20,7)")).toEqual({ value: 0 }); // a quotient beyond 15 digits is whole: not refused
+  });
+  it("MOD's remainder uses the worksheet's subtraction, so rounding noise is 0, not a remainder of the wrong sign (LO 7.4 headless: MOD(7.7,1.1) 0, MOD(-0.3,0.1) 0; the engine gave -8.9E-16 and 5.6E-17; MS MOD page: MOD(n,d) = n - d*INT(n/d), from memory)", () => {
+    expect(evaluateFormula("=MOD(7.7,1.1)")).toEqual({ value: 0 });
+    expect(evaluateFormula("=MOD(-0.3,0.1)")).toEqual({ value: 0 });
+    expect(evaluateFormula("=MOD(5.5,2)")).toEqual({ value: 1.5 }); // LO
+  });
+});
