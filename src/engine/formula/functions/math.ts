@@ -20,9 +20,7 @@ function floorsApart(x: number): boolean {
 }
 
 function floorUnknown(name: string, x: number): never {
-  return notComputed(
-    `${name} of ${x}, which is ${Number(x.toPrecision(15))} to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. ${name === "INT" ? "INT(ROUND(x,9))" : "MOD(ROUND(x,9),d)"}`,
-  );
+  return notComputed(`${name} of ${x}, which is ${Number(x.toPrecision(15))} to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. MOD(ROUND(x,9),d)`);
 }
 
 /** Rounds to `digits` decimals, half away from zero, on the number as Excel shows it (15 digits). */
@@ -154,9 +152,12 @@ export function addMath(t: Table): void {
   t.set("INT", scalarFn(1, 1, ([x]) => {
     const a = num(x);
     if (isError(a)) return a;
-    const r = Math.floor(a);
-    if (floorsApart(a)) floorUnknown("INT", a);
-    return r || 0;
+    // Excel floors the number as it shows it, to 15 significant digits: practitioners measured
+    // INT(123456789-0.0000004) = 123456789 (binary 123456788.9999995977) but
+    // INT(123456789-0.0000005) = 123456788 (…8.999999493), and INT((8.2-INT(8.2))*10) = 1
+    // (1.99999999999999289); LibreOffice floors the same way (its approxFloor).
+    if (Number.isInteger(a)) return a || 0;
+    return Math.floor(Number(a.toPrecision(15))) || 0;
   }));
   t.set("ABS", scalarFn(1, 1, ([x]) => {
     const a = num(x);

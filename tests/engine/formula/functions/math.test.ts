@@ -331,13 +331,18 @@ describe("LARGE and SMALL with a k that is not a whole number", () => {
 });
 
 describe("INT and MOD just below a whole number (found by a consultant-style workbook and scripts/oracle/differential.js)", () => {
-  it("INT of a number that is a whole number to 15 digits but just below it in binary is refused: 8.2-0.2 is 7.999999999999999, LibreOffice 7.4 headless gives INT 8, the engine gave 7, and no Microsoft page seen says which Excel gives (behaviour: a refusal beats a wrong whole number)", () => {
-    expect(evaluateFormula("=INT(8.2-0.2)")).toEqual({ error: "#VALUE!", message: "INT of 7.999999999999999, which is 8 to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. INT(ROUND(x,9))" });
-    // IFERROR cannot swallow the refusal into a number
-    expect(evaluateFormula("=IFERROR(INT(8.2-0.2),0)").error).toBe("#VALUE!");
-    expect(evaluateFormula("=INT(ROUND(8.2-0.2,9))")).toEqual({ value: 8 }); // LO
-    expect(evaluateFormula("=INT(-(8.2-0.2))")).toEqual({ value: -8 }); // LO: both floors agree
-    expect(evaluateFormula("=INT(0.1*3*10)")).toEqual({ value: 3 }); // LO: 3.0000000000000004, above the whole number
+  it("INT floors the number to 15 significant digits, as Excel does (joeu2004, 2010, 'INT defect: Please try this on 2007 for me', and 2008, 'Why does Excel INT(x) behave like ROUND(x,0) for 10^14 and higher?', microsoft.public.excel, measurements of Excel 2003; 6StringJazzer, 2010, 'INT function returns unexpected results', excelforum.com; LibreOffice 7.4 headless gives the same)", () => {
+    expect(evaluateFormula("=INT(8.2-0.2)")).toEqual({ value: 8 }); // 7.999999999999999 in binary; LO 8
+    expect(evaluateFormula("=INT(123456789-0.0000004)")).toEqual({ value: 123456789 }); // joeu2004: Excel 123456789
+    expect(evaluateFormula("=INT(123456789-0.0000005)")).toEqual({ value: 123456788 }); // joeu2004: Excel 123456788
+    expect(evaluateFormula("=INT((8.2-INT(8.2))*10)")).toEqual({ value: 1 }); // excelforum: Excel 1 (1.99999999999999289)
+    expect(evaluateFormula("=INT(10^14+0.5)")).toEqual({ value: 100000000000001 }); // joeu2004: Excel 100000000000001
+    expect(evaluateFormula("=INT(-(8.2-0.2))")).toEqual({ value: -8 }); // LO
+    expect(evaluateFormula("=INT(-9.000000000000002)")).toEqual({ value: -9 }); // 15 digits: -9
+    expect(evaluateFormula("=INT(-9.00000000000002)")).toEqual({ value: -10 }); // 15 digits: -9.00000000000002
+    expect(evaluateFormula("=INT(0.1*3*10)")).toEqual({ value: 3 }); // LO: 3.0000000000000004
+    expect(evaluateFormula("=INT(2.5)")).toEqual({ value: 2 });
+    expect(evaluateFormula("=INT(-2.5)")).toEqual({ value: -3 }); // Microsoft Support, INT: INT(-8.9) is -9
     expect(evaluateFormula("=INT(1E+300)")).toEqual({ value: 1e300 }); // LO
   });
   it("MOD whose quotient is just below a whole number is refused the same way: MOD(0.3,0.1), quotient 2.9999999999999996 (LO 7.4 headless: 0; the engine gave 0.09999999999999998)", () => {
