@@ -253,7 +253,8 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
         const col = area.c1 + (j % width);
         const v = res.grid[j] as Scalar;
         if (isError(v)) problems.push({ sheet: plan.sheet[i] as number, row, col, p: problemOf(sheet.name, row, col, formulaText(sheet, plan.formula[i] as number), v) });
-        list.push({ kind: "value", row, col, value: writable(v) ?? null });
+        // In a values copy, the elements of a formula that became a value are plain constants too.
+        list.push({ kind: asValue?.[i] ? "constant" : "value", row, col, value: writable(v) ?? null });
         if (plan.soil[i]) spilled++;
       }
     }
@@ -292,7 +293,8 @@ function writeResults(book: Book, plan: Plan, host: RecalcHost, pkg: XlsxPackage
     if (asValue?.[i]) {
       // A values copy: the SOIL formula gives way to its value, so any program shows the number.
       formsChanged = true;
-      return cellXml({ kind: "value", row, col, value: value ?? null }, sheet.xml.slice(sheet.cells.start[k] as number, sheet.cells.end[k] as number), prefix);
+      // A constant (text as an inline string, "" as empty text), not a formula's string without its formula.
+      return cellXml({ kind: "constant", row, col, value: value ?? null }, sheet.xml.slice(sheet.cells.start[k] as number, sheet.cells.end[k] as number), prefix);
     }
     let dynamic: DynamicFormula | undefined;
     const form = sheet.formulas.form[f];

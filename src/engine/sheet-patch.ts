@@ -90,8 +90,9 @@ function typeAndValue(v: Scalar, p: string, constant = false): { t?: string; bod
   if (typeof v === "boolean") return { t: "b", body: `<${p}v>${v ? 1 : 0}</${p}v>` };
   if (v instanceof XlError) return { t: "e", body: `<${p}v>${encodeXmlText(v.code)}</${p}v>` };
   // Text a formula returned (in its own cell or spilled) is a formula string, as Excel stores it;
-  // a constant's text is an inline string (no shared-strings part needed).
-  if (constant) return v === "" ? { body: "" } : { t: "inlineStr", body: `<${p}is><${p}t xml:space="preserve">${encodeXmlText(v)}</${p}t></${p}is>` };
+  // a constant's text is an inline string (no shared-strings part needed). Empty text stays
+  // empty text, not a blank cell: ISBLANK, COUNTA and "" + "" tell them apart.
+  if (constant) return { t: "inlineStr", body: `<${p}is><${p}t xml:space="preserve">${encodeXmlText(v)}</${p}t></${p}is>` };
   return { t: "str", body: `<${p}v>${encodeXmlText(v)}</${p}v>` };
 }
 

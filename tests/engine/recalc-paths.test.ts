@@ -345,6 +345,14 @@ describe("which cells a values copy writes as values (behaviour: recalc.ts value
     // E1 reads C1#, and C1 holds no spill: #REF! (Microsoft, "Spilled range operator": a reference to a
     // cell without a dynamic array is #REF!); C1 is a value in the copy, so E1 is written as one too.
   });
+  it("a SOIL result that is empty text (a blank lab value) stays empty text in the copy, not a blank cell", async () => {
+    // Behaviour (style: never a blank where the result was ""): ISBLANK, COUNTA and ""+"" tell them
+    // apart (Microsoft Support, ISBLANK: a cell holding "" is not blank).
+    const spec: BookSpec = { sheets: [{ name: "Lab", rows: row(1, f("B1", 'SOIL.CMOL(A1,"Ca")', 0)) }] };
+    const r = await recalcBytes(xlsxBytes(spec), "in.xlsx", { valuesCopy: "v.xlsx" });
+    const xml = sheetData((await openPackage(r.valuesBytes!)).text(SHEET));
+    expect(xml).toBe('<row r="1"><c r="B1" t="inlineStr"><is><t xml:space="preserve"></t></is></c></row>');
+  });
 });
 
 describe("the calculation chain (ECMA-376 Part 1 §18.6: Excel rebuilds an absent calcChain)", () => {

@@ -63,9 +63,9 @@ describe("cellXml: values (ECMA-376 §18.18.11 cell types)", () => {
     expect(v(1, undefined, "x")).toBe('<x:c r="C2"><x:v>1</x:v></x:c>');
     expect(v("t", undefined, "x")).toBe('<x:c r="C2" t="str"><x:v>t</x:v></x:c>');
   });
-  it("constants: text as an inline string that keeps its spaces; an empty text is a blank; a given inline body is used as is", () => {
+  it("constants: text as an inline string that keeps its spaces; an empty text stays empty text (ISBLANK, COUNTA and \"\"+\"\" tell it from a blank); a given inline body is used as is", () => {
     expect(cellXml({ kind: "constant", row: 0, col: 0, value: " Ca " }, undefined, "")).toBe('<c r="A1" t="inlineStr"><is><t xml:space="preserve"> Ca </t></is></c>');
-    expect(cellXml({ kind: "constant", row: 0, col: 0, value: "" }, undefined, "")).toBe('<c r="A1"/>');
+    expect(cellXml({ kind: "constant", row: 0, col: 0, value: "" }, undefined, "")).toBe('<c r="A1" t="inlineStr"><is><t xml:space="preserve"></t></is></c>');
     expect(cellXml({ kind: "constant", row: 0, col: 0, value: 4 }, '<c r="A1" t="s"><v>0</v></c>', "")).toBe('<c r="A1"><v>4</v></c>');
     expect(cellXml({ kind: "constant", row: 0, col: 0, value: "Mg", inline: "<r><t>M</t></r><r><t>g</t></r>" }, '<c r="A1" s="2" t="s"><v>0</v></c>', "p")).toBe('<p:c r="A1" s="2" t="inlineStr"><p:is><r><t>M</t></r><r><t>g</t></r></p:is></p:c>');
   });
