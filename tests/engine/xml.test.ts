@@ -3,7 +3,7 @@
  * prefixes, attributes (quotes, spaces, '>' inside values, duplicates), entities and character
  * references, CDATA, comments, processing instructions, and every refusal with its exact words.
  *
- * Expected tokens and decodings: XML 1.0 (Fifth Edition), W3C 2008: §2.4 character data (CDATA
+ * Source of the expected tokens and decodings: XML 1.0 (Fifth Edition), W3C 2008: §2.4 character data (CDATA
  * sections §2.7 are literal), §2.5 comments, §2.6 processing instructions, §2.11 end-of-line
  * handling (CR LF and lone CR become LF), §3.1 start tags (attribute values in ' or ", no '<'
  * inside, an attribute name at most once), §4.1 character and entity references, §4.6 the five

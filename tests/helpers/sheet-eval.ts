@@ -84,3 +84,37 @@ export async function compute(
   };
   return get;
 }
+
+/** A case of a function table: [formula, expected (an error as "#CODE message"), its source]. */
+export type SheetCase = readonly [string, number | string | boolean, string];
+
+/** Checks one computed cell: an error by code and message, a number that is not whole to 12 places, anything else exactly. */
+export function checkCell(v: Computed, cell: string, want: number | string | boolean): void {
+  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
+  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
+  else expect(v(cell)).toBe(want);
+}
+
+/**
+ * One describe block for a table of cases: every formula in column H (row i + 1 for case i) of one
+ * sheet over `cells` and `formulas`, computed once, each case a test named with its source.
+ */
+export function describeSheetCases(
+  title: string,
+  cases: readonly SheetCase[],
+  cells: Record<string, number | string | boolean>,
+  formulas: Record<string, string> = {},
+  options: { date1904?: boolean; names?: { name: string; text: string }[] } = {},
+): void {
+  describe(title, () => {
+    let v: Computed;
+    beforeAll(async () => {
+      const all: Record<string, string> = { ...formulas };
+      cases.forEach(([f], i) => (all[`H${i + 1}`] = f));
+      v = await compute(cells, all, options);
+    });
+    it.each(cases.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
+      checkCell(v, `H${i + 1}`, want);
+    });
+  });
+}

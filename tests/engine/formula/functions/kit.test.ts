@@ -9,7 +9,7 @@
  * Error cases check the code against the source and the message against soilcell's own wording.
  */
 import { evaluateFormula } from "../../../../src/engine/evaluate";
-import { Computed, compute } from "../../../helpers/sheet-eval";
+import { describeSheetCases } from "../../../helpers/sheet-eval";
 
 const DATA: Record<string, number | string | boolean> = {"A1": 1, "A2": 2, "A3": "x", "B1": 10, "B2": "5", "C1": 3};
 const DATA_FORMULAS: Record<string, string> = {"E1": "1/0", "E2": "NA()"};
@@ -46,23 +46,7 @@ const CASES: [string, number | string | boolean, string][] = [
   ["IFERROR(ABS(),5)", "not computed: it reads H27, which is not computed headless (ABS takes 1 arguments, not 0; not computed headless)", "behaviour: as above (LO: #VALUE!)"],
 ];
 
-function check(v: Computed, cell: string, want: number | string | boolean): void {
-  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
-  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
-  else expect(v(cell)).toBe(want);
-}
-
-describe("kit functions on a sheet", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = { ...DATA_FORMULAS };
-    CASES.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute(DATA, formulas, { names: NAMES });
-  });
-  it.each(CASES.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("kit functions on a sheet", CASES, DATA, DATA_FORMULAS, { names: NAMES });
 
 describe("kit: array arguments and typed values", () => {
   it("an array argument left empty is #VALUE! saying so (LO: #VALUE! too; the message is soilcell's)", () => {

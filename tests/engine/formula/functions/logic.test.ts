@@ -10,7 +10,7 @@
  * (behaviour: the message says why).
  */
 import { evaluateFormula } from "../../../../src/engine/evaluate";
-import { Computed, compute } from "../../../helpers/sheet-eval";
+import { compute, describeSheetCases } from "../../../helpers/sheet-eval";
 
 const DATA: Record<string, number | string | boolean> = {"A1": 1, "A2": 0, "A3": "x", "A4": true, "A6": "TRUE", "A7": false, "B4": 5, "B5": -3, "C1": "a", "C2": "b", "C3": "c", "D1": 2, "D2": 3};
 const DATA_FORMULAS: Record<string, string> = {"B1": "NA()", "B2": "1/0", "B3": "\"x\"+1"};
@@ -218,23 +218,7 @@ const CASES: [string, number | string | boolean, string][] = [
   ["T(D1)", "", "LO"],
 ];
 
-function check(v: Computed, cell: string, want: number | string | boolean): void {
-  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
-  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
-  else expect(v(cell)).toBe(want);
-}
-
-describe("logic functions on a sheet", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = { ...DATA_FORMULAS };
-    CASES.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute(DATA, formulas, { names: NAMES });
-  });
-  it.each(CASES.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("logic functions on a sheet", CASES, DATA, DATA_FORMULAS, { names: NAMES });
 
 describe("logical functions over arrays (dynamic-array formulas)", () => {
   // LibreOffice 7.4 headless computes each of these (as an array formula) the same way, except where noted.

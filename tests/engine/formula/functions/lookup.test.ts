@@ -15,7 +15,7 @@
  * (behaviour: the message says why).
  */
 import { evaluateFormula } from "../../../../src/engine/evaluate";
-import { Computed, compute } from "../../../helpers/sheet-eval";
+import { compute, describeSheetCases } from "../../../helpers/sheet-eval";
 
 const DATA: Record<string, number | string | boolean> = {"A1": 1, "A2": 3, "A3": 5, "A4": 7, "A5": 9, "A6": 11, "B1": "apple", "B2": "Banana", "B3": "cherry", "B4": "a*b", "B5": "a.c", "B6": "date", "C1": 10, "C2": "10", "C3": true, "C5": "", "C6": -5, "D1": 60, "D2": 50, "D3": 40, "D4": 30, "D5": 20, "D6": 10, "E3": 4, "E4": "x", "E5": false, "F1": 1, "F2": "x", "F3": 5, "F4": true, "F5": 9, "F6": "b", "G1": "a~b", "G2": "a?c", "G3": "abc", "G4": "ABC", "G5": "a(b", "G6": "q"};
 // E1 holds #N/A and E2 #DIV/0!, as formulas; C4 is empty.
@@ -280,23 +280,7 @@ const CASES: [string, number | string | boolean, string][] = [
   ["COUNTIF(C1:C6,\"\")", 2, "LO 7.4 headless"],
 ];
 
-function check(v: Computed, cell: string, want: number | string | boolean): void {
-  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
-  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
-  else expect(v(cell)).toBe(want);
-}
-
-describe("lookup functions on a sheet", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = { ...DATA_FORMULAS };
-    CASES.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute(DATA, formulas, { names: NAMES });
-  });
-  it.each(CASES.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("lookup functions on a sheet", CASES, DATA, DATA_FORMULAS, { names: NAMES });
 
 describe("lookup functions: spills, refusals and limits", () => {
   it("ROW and COLUMN of a range spill in a dynamic-array formula (MS ROW/COLUMN pages: an array of the rows or columns; LO: the same as an array formula)", async () => {

@@ -11,7 +11,7 @@
  * (behaviour: the message says why).
  */
 import { evaluateFormula } from "../../../../src/engine/evaluate";
-import { Computed, compute } from "../../../helpers/sheet-eval";
+import { compute, describeSheetCases } from "../../../helpers/sheet-eval";
 
 const DATA: Record<string, number | string | boolean> = {"A1": 1, "A2": 2, "A3": 3, "A4": 4, "A5": "5", "A6": true, "B1": 2, "B2": "x", "B3": 4, "B4": 5, "C1": -2.5, "C2": 1.5, "C3": 0, "C4": 10, "D1": 3, "D2": 1, "D3": 2, "E1": 2.5, "E2": "", "F1": 1, "F2": 2, "G1": 3, "G2": 4};
 const DATA_FORMULAS: Record<string, string> = {"E3": "\"\""};
@@ -259,23 +259,7 @@ const CASES: [string, number | string | boolean, string][] = [
   ["MIN(1,,3)", 0, "LO"],
 ];
 
-function check(v: Computed, cell: string, want: number | string | boolean): void {
-  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
-  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
-  else expect(v(cell)).toBe(want);
-}
-
-describe("math functions on a sheet", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = { ...DATA_FORMULAS };
-    CASES.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute(DATA, formulas, { names: NAMES });
-  });
-  it.each(CASES.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("math functions on a sheet", CASES, DATA, DATA_FORMULAS, { names: NAMES });
 
 describe("math functions over arrays and at their limits", () => {
   it("rounding functions lift over an array (LibreOffice 7.4 computes every case of this block the same, as an array formula, except COUNTBLANK of an array, which it reads as 0)", () => {

@@ -12,7 +12,7 @@
  * Error cases check the code against the source and the message against soilcell's own wording.
  */
 import { evaluateFormula } from "../../../../src/engine/evaluate";
-import { Computed, compute } from "../../../helpers/sheet-eval";
+import { compute, describeSheetCases } from "../../../helpers/sheet-eval";
 
 const DATA: Record<string, number | string | boolean> = {"A1": "Hello World", "A2": "  a   b  ", "A3": 12.5, "A4": true, "A6": "abcabcabc", "A7": "2025-03-15", "A8": 45000.75, "B1": "a", "B2": "b", "B3": "", "B4": 3, "B5": false};
 const DATA_FORMULAS: Record<string, string> = {};
@@ -346,23 +346,7 @@ const CASES: [string, number | string | boolean, string][] = [
   ["TIME(0,0,123456)", "not computed: it reads H324, which is not computed headless (TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless)", "behaviour: MS:TIME: hour, minute and second are each 0 to 32767"],
 ];
 
-function check(v: Computed, cell: string, want: number | string | boolean): void {
-  if (typeof want === "string" && /^#[A-Z]/.test(want)) expect(v.full(cell)).toBe(want);
-  else if (typeof want === "number" && !Number.isInteger(want)) expect(v(cell) as number).toBeCloseTo(want, 12);
-  else expect(v(cell)).toBe(want);
-}
-
-describe("text functions on a sheet", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = { ...DATA_FORMULAS };
-    CASES.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute(DATA, formulas, { names: NAMES });
-  });
-  it.each(CASES.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("text functions on a sheet", CASES, DATA, DATA_FORMULAS, { names: NAMES });
 
 /** The same functions in a workbook with the 1904 date system: [formula, expected, source]. */
 const CASES_1904: [string, number | string | boolean, string][] = [
@@ -388,17 +372,7 @@ const CASES_1904: [string, number | string | boolean, string][] = [
   ["DATEDIF(0,366,\"Y\")", 1, "LO"],
 ];
 
-describe("date functions in the 1904 date system (serial 0 is 1 January 1904, a Friday)", () => {
-  let v: Computed;
-  beforeAll(async () => {
-    const formulas: Record<string, string> = {};
-    CASES_1904.forEach(([f], i) => (formulas[`H${i + 1}`] = f));
-    v = await compute({ A1: 0 }, formulas, { date1904: true });
-  });
-  it.each(CASES_1904.map(([f, want, source], i) => [f, want, source, i] as const))("%s is %p (%s)", (_f, want, _source, i) => {
-    check(v, `H${i + 1}`, want);
-  });
-});
+describeSheetCases("date functions in the 1904 date system (serial 0 is 1 January 1904, a Friday)", CASES_1904, { A1: 0 }, {}, { date1904: true });
 
 describe("text functions over arrays, and what is refused", () => {
   it("text functions lift over arrays element by element (LibreOffice 7.4 computes the same as an array formula)", () => {
