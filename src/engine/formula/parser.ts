@@ -79,6 +79,7 @@ export function canonicalFunctionName(written: string, names: NameMap): string {
     else if (u.startsWith("_XLWS.")) s = s.slice(6);
     else break;
   }
+  // Stryker disable next-line ConditionalExpression,StringLiteral: equivalent: addinFunction gives undefined for a name without the prefix, which is then upper-cased either way
   if (s.toUpperCase().startsWith("_XLDUDF_")) return names.addinFunction(s) ?? s.toUpperCase();
   return s.toUpperCase();
 }
@@ -286,6 +287,7 @@ class Parser {
 
   private call(t: Token): Node {
     const name = canonicalFunctionName(t.value as string, this.names);
+    // Stryker disable next-line StringLiteral: equivalent: the lexer makes a function token only before "(", so this never fails
     this.expect(T.LParen, "(");
     this.enter();
     const args: Node[] = [];
@@ -304,6 +306,7 @@ class Parser {
     this.leave();
     if (name === "ANCHORARRAY" && args.length === 1) return { k: "spill", x: args[0] as Node };
     if (name === "SINGLE" && args.length === 1) return { k: "at", x: args[0] as Node };
+    // Stryker disable next-line Regex: equivalent: the name was just checked to start with _XLPM., so the first match is at 0 either way
     if (name.startsWith("_XLPM.") || name === "LAMBDA" || name === "LET") return { k: "unsup", what: `${name.replace(/^_XLPM\./, "")} (LET and LAMBDA)`, args, opaque: false };
     return { k: "fn", name, args };
   }
@@ -313,7 +316,9 @@ class Parser {
     const rowOf = (v: number | undefined, abs: boolean, open: number) => (v === undefined ? open : abs ? v : v - this.originRow);
     const colOf = (v: number | undefined, abs: boolean, open: number) => (v === undefined ? open : abs ? v : v - this.originCol);
     // Whole columns (A:B) and whole rows (1:3) have absolute open sides.
+    // Stryker disable next-line ConditionalExpression: equivalent: the lexer marks a whole column's row sides absolute (ra1, ra2) itself
     const wholeCols = r.r1 === undefined;
+    // Stryker disable next-line ConditionalExpression: equivalent: the lexer marks a whole row's column sides absolute (ca1, ca2) itself
     const wholeRows = r.c1 === undefined;
     const abs =
       (wholeCols || r.ra1 ? 1 : 0) | (wholeRows || r.ca1 ? 2 : 0) | (wholeCols || r.ra2 ? 4 : 0) | (wholeRows || r.ca2 ? 8 : 0);
@@ -324,6 +329,7 @@ class Parser {
       r2: rowOf(r.r2, r.ra2, MAX_ROWS - 1),
       c2: colOf(r.c2, r.ca2, MAX_COLS - 1),
       abs,
+      // Stryker disable next-line ConditionalExpression: equivalent: a sheet property holding undefined reads as no sheet (every reader tests n.sheet === undefined)
       ...(r.sheet !== undefined ? { sheet: r.sheet } : {}),
     };
     return node;

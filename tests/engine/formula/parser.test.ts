@@ -57,6 +57,14 @@ describe("parser: literals and references", () => {
   });
 });
 
+describe("parser: precedence across levels (Microsoft Support, 'Calculation operators and precedence in Excel': & below + and -, comparisons below &)", () => {
+  it("1&2+3 is 1&(2+3); 1=2&3 is 1=(2&3)", () => {
+    expect(at("1&2+3")).toEqual({ k: "bin", op: "&", a: { k: "num", v: 1 }, b: { k: "bin", op: "+", a: { k: "num", v: 2 }, b: { k: "num", v: 3 } } });
+    expect(at("1=2&3")).toEqual({ k: "bin", op: "=", a: { k: "num", v: 1 }, b: { k: "bin", op: "&", a: { k: "num", v: 2 }, b: { k: "num", v: 3 } } });
+    expect(at("1&2*3")).toEqual({ k: "bin", op: "&", a: { k: "num", v: 1 }, b: { k: "bin", op: "*", a: { k: "num", v: 2 }, b: { k: "num", v: 3 } } });
+  });
+});
+
 describe("parser: operators", () => {
   it("each binary operator", () => {
     for (const op of ["+", "-", "*", "/", "^", "&", "=", "<>", "<", ">", "<=", ">="]) expect(at(`1${op}2`)).toEqual(bin(op, num(1), num(2)));
@@ -197,5 +205,21 @@ describe("parser: refusals", () => {
     refused(negs(MAX_DEPTH), /nests deeper than/);
     // Flat chains are loops, not recursion: a long sum is fine.
     expect(() => at(Array.from({ length: 5000 }, () => "1").join("+"))).not.toThrow();
+  });
+  it("depth is counted down on the way out: 300 groups one after another are not 300 levels deep", () => {
+    expect(() => at(Array.from({ length: 300 }, () => "(1)").join("+"))).not.toThrow();
+    expect(() => at(`SUM(${Array.from({ length: 300 }, () => "(1)").join(",")})`)).not.toThrow();
+  });
+  it("text that looks like an operator is text: a string between operands is refused, never read as the operator", () => {
+    // Behaviour (ECMA-376 Part 1 §18.17 formula grammar: operators are tokens, not string literals).
+    for (const op of ["&", "=", "<>", "+", "-", "*", "^"]) refused(`1"${op}"2`, /^unexpected text at 2$/);
+    refused("1@", /^unexpected text at 2$/);
+    refused("{*1}", /^an array constant holds only numbers, text, TRUE\/FALSE and errors \(at 2\)$/);
+    refused('{"-"1}', /^expected ",", ";" or "}" in an array constant at 5$/);
+  });
+  it("the messages name the token: ';', '#', and the position", () => {
+    refused("#", /^unexpected "#" at 1$/);
+    refused("1#2", /^unexpected "#" at 2$/);
+    refused("SUM(1;2)", /^";" is not an argument separator in a stored formula \(use ","\), at 6$/);
   });
 });
