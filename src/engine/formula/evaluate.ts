@@ -448,6 +448,12 @@ export function evalArg(node: Node, cls: ParamClass, ctx: Ctx): Value | undefine
   return ev(node, ctx.arrays ? ctx : { ...ctx, arrays: true }, true);
 }
 
+/** "ABS takes 1 arguments, not 2; not computed headless": the refusal of a call with a wrong argument count. */
+function arityMessage(name: string, fn: NativeFunction, given: number): string {
+  const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
+  return `${name} takes ${range} arguments, not ${given}; not computed headless`;
+}
+
 const ARITY = new WeakMap<Node, string | undefined>();
 
 /**
@@ -462,10 +468,7 @@ export function arityProblem(n: Node): string | undefined {
   switch (n.k) {
     case "fn": {
       const fn = FUNCTIONS.get(n.name);
-      if (fn && (n.args.length < fn.min || n.args.length > fn.max)) {
-        const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
-        out = `${n.name} takes ${range} arguments, not ${n.args.length}; not computed headless`;
-      }
+      if (fn && (n.args.length < fn.min || n.args.length > fn.max)) out = arityMessage(n.name, fn, n.args.length);
       kids.push(...n.args);
       break;
     }
@@ -501,10 +504,9 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
     return notComputed(`${name} is not computed headless`);
   }
   if (argNodes.length < fn.min || argNodes.length > fn.max) {
-    const range = fn.min === fn.max ? `${fn.min}` : fn.max === Infinity ? `at least ${fn.min}` : `${fn.min} to ${fn.max}`;
     // Excel does not accept such a formula, so what it shows for one in a file is not known; an
     // error value here would be swallowed by IFERROR, ISERR or COUNT into a number.
-    return notComputed(`${name} takes ${range} arguments, not ${argNodes.length}; not computed headless`);
+    return notComputed(arityMessage(name, fn, argNodes.length));
   }
   if (fn.lazy) return fn.lazy(argNodes, ctx);
   // An argument written but left empty (VLOOKUP(x,t,2,), LEFT(s,)) reaches a value parameter as

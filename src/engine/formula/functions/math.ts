@@ -9,18 +9,17 @@ import { Scalar, Value, XlArray, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, eachValue, int, num, numbersOf, scalarFn } from "./kit";
 
 /**
- * Refuses INT of a number (or MOD of a quotient) just below a whole number that is that whole
- * number to 15 digits (8.2-0.2 is 7.999999999999999, shown as 8): the binary value floors to 7,
- * the 15-digit value Excel shows floors to 8 (LibreOffice 7.4 gives 8), and no Microsoft page seen
- * says which Excel gives; a wrong whole number (years of split applications, bags) would pass unseen.
+ * Whether a MOD quotient is just below a whole number that it is to 15 digits (0.3/0.1 is
+ * 2.9999999999999996, shown as 3): its binary floor and its 15-digit floor differ, and no page
+ * seen says which Excel's MOD takes (INT takes the 15-digit one; see INT below).
  */
 function floorsApart(x: number): boolean {
   const shown = Number(x.toPrecision(15));
   return !Number.isInteger(x) && Number.isInteger(shown) && Math.floor(x) !== shown;
 }
 
-function floorUnknown(name: string, x: number): never {
-  return notComputed(`${name} of ${x}, which is ${Number(x.toPrecision(15))} to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. MOD(ROUND(x,9),d)`);
+function modFloorUnknown(q: number): never {
+  return notComputed(`MOD of ${q}, which is ${Number(q.toPrecision(15))} to 15 digits: whether Excel floors the binary or the 15-digit value is not known headless; round first, e.g. MOD(ROUND(x,9),d)`);
 }
 
 /** Rounds to `digits` decimals, half away from zero, on the number as Excel shows it (15 digits). */
@@ -212,7 +211,7 @@ export function addMath(t: Table): void {
     if (isError(b)) return b;
     if (b === 0) return err("#DIV/0!", "MOD by zero");
     const q = a / b;
-    if (floorsApart(q)) floorUnknown("MOD", q);
+    if (floorsApart(q)) modFloorUnknown(q);
     // MOD(n, d) = n - d*INT(n/d), with the worksheet's subtraction (rounding noise of nearly
     // equal operands is 0): MOD(7.7,1.1) is 0, not -8.9E-16, a remainder of the wrong sign
     const r = approxSub(a, b * Math.floor(q));
@@ -324,10 +323,9 @@ export function addMath(t: Table): void {
       const k = num(a[1] as Scalar | undefined);
       if (isError(k)) return k;
       if (!Number.isInteger(k)) return notComputed(`${largest ? "LARGE" : "SMALL"} with k = ${k}, not a whole number, is not computed headless (LibreOffice truncates it; Excel's reading is not documented)`);
-      const kk = k;
-      if (kk < 1 || kk > ns.length) return err("#NUM!", `k = ${k} is outside 1 to ${ns.length}`);
+      if (k < 1 || k > ns.length) return err("#NUM!", `k = ${k} is outside 1 to ${ns.length}`);
       ns.sort((x, y) => (largest ? y - x : x - y));
-      return ns[kk - 1] as number;
+      return ns[k - 1] as number;
     },
   });
   t.set("LARGE", kth(true));
