@@ -3,13 +3,29 @@
 // MUTATE_PART picks the part (mutation/parts.js); each part keeps its own incremental file, committed,
 // so a re-run after a small change only tests the mutants in changed code or reached by changed
 // tests. Not part of `npm test` or CI.
+import fs from "fs";
+import path from "path";
 import { createRequire } from "module";
+import { fileURLToPath } from "url";
 const { PARTS } = createRequire(import.meta.url)("./mutation/parts.js");
 const partName = process.env.MUTATE_PART || "core-top";
 const part = PARTS[partName];
 if (!part) throw new Error(`MUTATE_PART must be one of ${Object.keys(PARTS).join(", ")}, not ${partName}`);
 const folder = part.folder;
 process.env.MUTATE_FOLDER = folder; // read by mutation/jest.config.js in the test runner processes
+
+// A sample part (scripts/mutation-sample.mjs) runs the drawn spans only: each as a mutate range
+// (Stryker reads lines from 1 and columns from 0), and the nodes nested in one that hold no drawn
+// span left out by mutation/sample-ignorer.mjs.
+let mutate = part.mutate;
+let sampleOptions = {};
+if (part.sample) {
+  const root = path.dirname(fileURLToPath(import.meta.url));
+  process.env.MUTATE_SAMPLE = path.join(root, part.sample);
+  const { drawnSpans } = JSON.parse(fs.readFileSync(process.env.MUTATE_SAMPLE, "utf8"));
+  mutate = drawnSpans.map((s) => `${s.file}:${s.start.line}:${s.start.column - 1}-${s.end.line}:${s.end.column - 1}`);
+  sampleOptions = { plugins: ["@stryker-mutator/*", path.join(root, "mutation", "sample-ignorer.mjs")], ignorers: ["drawn-sample"] };
+}
 
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
@@ -24,7 +40,8 @@ export default {
   // To use it where cores are free: MUTATE_TYPECHECK=1.
   ...(process.env.MUTATE_TYPECHECK === "1" ? { checkers: ["typescript"], tsconfigFile: "tsconfig.json", typescriptChecker: { prioritizePerformanceOverAccuracy: true } } : {}),
   coverageAnalysis: "perTest",
-  mutate: part.mutate,
+  mutate,
+  ...sampleOptions,
   incremental: true,
   incrementalFile: `mutation/incremental/${partName}.json`,
   reporters: ["clear-text", "json", "progress-append-only"],

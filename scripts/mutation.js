@@ -21,6 +21,9 @@
  *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
  *                                            (Markdown, for the README)
  *   node scripts/mutation.js --markdown      the score table as Markdown (for the README)
+ *   node scripts/mutation.js engine-sample   the random sample of the engine parts not run in full
+ *                                            (drawn by scripts/mutation-sample.mjs); the table then
+ *                                            gives the folder an estimate with a 95 % interval
  *
  * Stryker runs at low priority (nice 15): the machine is shared. Arguments after `--` go to Stryker.
  * Score = (killed + timed out) / (killed + timed out + survived + no coverage); mutants that do not
@@ -38,6 +41,7 @@ const { spawnSync } = require("child_process");
 const ROOT = path.join(__dirname, "..");
 const FOLDERS = ["core", "functions", "engine"];
 const { PARTS } = require("../mutation/parts.js");
+const { clusterRatio } = require("../mutation/estimate.js");
 const TARGET = { core: 85, functions: 75, engine: 75 };
 
 const argv = process.argv.slice(2);
@@ -52,7 +56,10 @@ const retestTimeouts = own.includes("--retest-timeouts");
 const retestStatic = own.includes("--retest-static");
 const chosen = own.filter((a) => !a.startsWith("--"));
 for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
-const parts = Object.keys(PARTS).filter((p) => !chosen.length || chosen.includes(p) || chosen.includes(PARTS[p].folder));
+// A folder's sample part runs only when named: a folder run runs its parts in full.
+const parts = Object.keys(PARTS).filter((p) => chosen.includes(p) || (!PARTS[p].sample && (!chosen.length || chosen.includes(PARTS[p].folder))));
+/** A folder's parts run in full (not its sample part). */
+const fullParts = (folder) => Object.keys(PARTS).filter((p) => PARTS[p].folder === folder && !PARTS[p].sample);
 
 /** Every `// Stryker disable next-line <mutators>: <reason>` in src, as a Markdown list. */
 function equivalents() {
@@ -142,6 +149,80 @@ function tally(partNames) {
 }
 const oneLine = (s) => String(s ?? "").replace(/\s+/g, " ").slice(0, 80);
 
+/** A target judged on an estimate: met only when the whole interval is above it. */
+const estimateVerdict = (est, target) => (est.counts.Missing ? "not judged: the sample is out of date" : est.folderLow >= target ? "met, on the estimate" : est.folderHigh < target ? "NOT met, on the estimate" : "not judged: the interval spans it");
+
+/**
+ * The estimate for a folder's parts not run in full, from the run of its sample part (drawn by
+ * scripts/mutation-sample.mjs): the drawn spans of those parts, their mutants' statuses, the ratio
+ * detected / valid over them with a 95 % interval for cluster sampling (spans drawn without
+ * replacement, the ratio estimator's variance), and the folder's score with those parts estimated.
+ * Null when the folder has no sample or it was not run.
+ */
+function sampleEstimate(folder, full) {
+  const part = Object.keys(PARTS).find((p) => PARTS[p].folder === folder && PARTS[p].sample);
+  if (!part) return null;
+  const resultFile = path.join(ROOT, "mutation", "incremental", `${part}.json`);
+  const drawFile = path.join(ROOT, PARTS[part].sample);
+  if (!fs.existsSync(resultFile) || !fs.existsSync(drawFile)) return null;
+  const draw = JSON.parse(fs.readFileSync(drawFile, "utf8"));
+  const notRun = Object.keys(draw.parts).filter((p) => !fs.existsSync(path.join(ROOT, "mutation", "incremental", `${p}.json`)));
+  if (!notRun.length) return null;
+  const results = JSON.parse(fs.readFileSync(resultFile, "utf8")).files;
+  const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0, Static: 0, Missing: 0 };
+  const perSpan = [];
+  const survivors = [];
+  let drawnMutants = 0;
+  const spans = draw.drawnSpans.filter((sp) => notRun.includes(sp.part));
+  for (const sp of spans) {
+    const ms = (results[sp.file]?.mutants ?? []).filter(
+      (m) => m.location.start.line === sp.start.line && m.location.start.column === sp.start.column && m.location.end.line === sp.end.line && m.location.end.column === sp.end.column,
+    );
+    drawnMutants += sp.mutants.length;
+    let d = 0;
+    let v = 0;
+    for (const want of sp.mutants) {
+      const m = ms.find((x) => x.mutatorName === want.mutator && x.replacement === want.replacement);
+      if (!m) {
+        counts.Missing++; // the source changed since the draw: draw again
+        continue;
+      }
+      const status = m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "") ? "Static" : m.status;
+      counts[status] = (counts[status] ?? 0) + 1;
+      if (status === "Killed" || status === "Timeout") d++;
+      if (status === "Killed" || status === "Timeout" || status === "Survived" || status === "NoCoverage") v++;
+      if (status === "Survived" || status === "NoCoverage") survivors.push(`${status.padEnd(10)} ${sp.file}:${sp.start.line}:${sp.start.column} ${m.mutatorName} -> ${oneLine(m.replacement)} (sample)`);
+    }
+    perSpan.push([d, v]);
+  }
+  const n = perSpan.length;
+  const { p, sd } = clusterRatio(perSpan, draw.population.spans);
+  const V = perSpan.reduce((a, x) => a + x[1], 0);
+  // The folder: its full parts counted, the parts not run estimated from the sample (their valid
+  // mutants from their population and the sample's share of valid mutants).
+  const population = notRun.reduce((a, q) => a + draw.parts[q], 0);
+  const validRest = drawnMutants ? (population * V) / drawnMutants : 0;
+  const fullDetected = full ? full.counts.Killed + full.counts.Timeout : 0;
+  const fullValid = full ? fullDetected + full.counts.Survived + full.counts.NoCoverage : 0;
+  const folderScore = (100 * (fullDetected + p * validRest)) / (fullValid + validRest);
+  const folderSd = (100 * sd * validRest) / (fullValid + validRest);
+  return {
+    part,
+    notRun,
+    spans: n,
+    counts,
+    population,
+    drawnMutants,
+    score: 100 * p,
+    low: 100 * (p - 1.96 * sd),
+    high: 100 * Math.min(1, p + 1.96 * sd),
+    folderScore,
+    folderLow: folderScore - 1.96 * folderSd,
+    folderHigh: Math.min(100, folderScore + 1.96 * folderSd),
+    survivors,
+  };
+}
+
 if (markdown) {
   const pct = (x) => `${x.toFixed(1)} %`;
   const cells = (t) => {
@@ -151,20 +232,23 @@ if (markdown) {
   console.log("| part | killed | survived | no coverage | timed out | errors | equivalent | static, not run | score | floor |");
   console.log("|---|---|---|---|---|---|---|---|---|---|");
   for (const folder of FOLDERS) {
-    const names = Object.keys(PARTS).filter((p) => PARTS[p].folder === folder);
+    const names = fullParts(folder);
     const t = tally(names);
     if (!t) {
       console.log(`| \`src/${folder}\` | not run | | | | | | | | |`);
       continue;
     }
     const target = TARGET[folder];
-    const verdict = t.missing ? `not judged, ${t.missing} of ${names.length} parts not run` : t.score >= target ? "met" : "NOT met";
-    console.log(`| \`src/${folder}\` | ${cells(t).join(" | ")} | **${pct(t.score)}** (target ≥ ${target} % ${verdict}) | ${pct(t.floor)} |`);
+    const est = t.missing ? sampleEstimate(folder, t) : null;
+    const verdict = !t.missing ? (t.score >= target ? "met" : "NOT met") : est ? estimateVerdict(est, target) : `not judged, ${t.missing} of ${names.length} parts not run`;
+    const shown = est ? `**${pct(est.folderScore)}** (95 % interval ${pct(est.folderLow)}–${pct(est.folderHigh)}; target ≥ ${target} % ${verdict}); ${pct(t.score)} over the ${names.length - t.missing} parts run in full` : `**${pct(t.score)}** (target ≥ ${target} % ${verdict})`;
+    console.log(`| \`src/${folder}\` | ${cells(t).join(" | ")} | ${shown} | ${pct(t.floor)} |`);
     for (const p of names) {
       const tp = tally([p]);
       if (tp) console.log(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
-      else console.log(`| \`${p}\` | not run yet | | | | | | | | |`);
+      else console.log(`| \`${p}\` | not run in full${est && est.notRun.includes(p) ? " (in the sample below)" : ""} | | | | | | | | |`);
     }
+    if (est) console.log(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | |`);
   }
   process.exit(0);
 }
@@ -180,7 +264,7 @@ const row = (label, t, target) => {
   );
 };
 for (const folder of FOLDERS) {
-  const names = Object.keys(PARTS).filter((p) => PARTS[p].folder === folder);
+  const names = fullParts(folder);
   const t = tally(names);
   if (!t) {
     console.log(`src/${folder.padEnd(14)}(not run yet)`);
@@ -193,8 +277,15 @@ for (const folder of FOLDERS) {
     if (tp) row(`  ${p}`, tp);
     else console.log(`  ${p.padEnd(16)}(not run yet)`);
   }
+  const est = t.missing ? sampleEstimate(folder, t) : null;
+  if (est) {
+    row(`  ${est.part}`, { ...est, floor: NaN });
+    console.log(`    ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of ${est.notRun.join(", ")}: ${est.score.toFixed(1)} % (95 % interval ${est.low.toFixed(1)}–${est.high.toFixed(1)} %)${est.counts.Missing ? `; ${est.counts.Missing} drawn mutants not in the results (draw again)` : ""}`);
+    console.log(`    src/${folder} with those parts estimated: ${est.folderScore.toFixed(1)} % (${est.folderLow.toFixed(1)}–${est.folderHigh.toFixed(1)} %), target ≥ ${TARGET[folder]} % ${estimateVerdict(est, TARGET[folder])}`);
+  }
   if (showSurvivors) {
     for (const s of t.survivors) console.log(`    ${s}`);
+    if (est) for (const s of est.survivors) console.log(`    ${s}`);
     for (const s of t.ignored) console.log(`    equivalent ${s}`);
   }
 }
