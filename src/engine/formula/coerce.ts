@@ -171,6 +171,30 @@ function compareText(a: string, b: string): number {
 }
 
 /** A finite number, or #NUM! for results Excel cannot hold (overflow, NaN). */
+/**
+ * x^y as the ^ operator and POWER compute it (one rule for both). 0^0 is #NUM! and 0 to a negative
+ * power #DIV/0! (Microsoft Support, POWER and "Calculation operators": from memory). Odd roots of
+ * negative numbers are taken: (-2)^(1/3) = -1.25992 on a worksheet, and POWER(-2,1/3) too
+ * (practitioners' report, Stack Overflow question 6911356, 2011, "How to take the cube root of a
+ * negative number in VBA for Excel"); other fractional powers of a negative number are #NUM!.
+ * A result too small for a normal double (below 2.2250738585072014E-308, the smallest Excel
+ * holds: from memory) from a base that is not 0 is refused: LibreOffice gives #NUM!, and whether
+ * Excel gives 0 or #NUM! is not established here.
+ */
+export function power(x: number, y: number): number | XlError {
+  if (x === 0 && y === 0) return err("#NUM!", "0^0 is not defined");
+  if (x === 0 && y < 0) return err("#DIV/0!", "0 raised to a negative power");
+  let r: number;
+  if (x < 0 && !Number.isInteger(y)) {
+    const inv = 1 / y;
+    const k = Math.round(inv);
+    if (Math.abs(inv - k) >= 1e-12 || k % 2 === 0) return err("#NUM!", "a negative number raised to a fractional power");
+    r = -Math.pow(-x, y);
+  } else r = Math.pow(x, y);
+  if (x !== 0 && Math.abs(r) < 2.2250738585072014e-308) notComputed(`${x}^${y} is smaller than the smallest number a worksheet holds (about 2.2E-308): whether Excel gives 0 or #NUM! is not established headless`);
+  return finite(r);
+}
+
 export function finite(n: number, what = "the result"): number | XlError {
   return Number.isFinite(n) ? (n === 0 ? 0 : n) : err("#NUM!", `${what} is not a finite number`);
 }

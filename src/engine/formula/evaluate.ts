@@ -12,7 +12,7 @@
  */
 import type { Book } from "../book";
 import type { Node, RefNode } from "./parser";
-import { approxAdd, approxSub, compare, finite, toNumber, toText } from "./coerce";
+import { approxAdd, approxSub, compare, finite, power, toNumber, toText } from "./coerce";
 import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, XlUnion, err, isError } from "./values";
 
 /**
@@ -267,15 +267,7 @@ function arithmetic(op: string, a: Scalar, b: Scalar): Scalar {
     case "/":
       return y === 0 ? err("#DIV/0!", "division by zero") : finite(x / y);
     case "^":
-      if (x === 0 && y === 0) return err("#NUM!", "0^0 is not defined");
-      if (x === 0 && y < 0) return err("#DIV/0!", "0 raised to a negative power");
-      if (x < 0 && !Number.isInteger(y)) {
-        // Excel takes odd roots of negative numbers: (-8)^(1/3) = -2.
-        const inv = 1 / y;
-        if (Number.isInteger(Math.round(inv)) && Math.abs(inv - Math.round(inv)) < 1e-12 && Math.round(inv) % 2 !== 0) return finite(-Math.pow(-x, y));
-        return err("#NUM!", "a negative number raised to a fractional power");
-      }
-      return finite(Math.pow(x, y));
+      return power(x, y);
   }
   return err("#VALUE!", `unknown operator ${op}`);
 }

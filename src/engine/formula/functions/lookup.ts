@@ -349,6 +349,8 @@ export function addLookup(t: Table): void {
     call: ([v, arr, type], ctx) => {
       const lookup = (v ?? null) as Scalar;
       if (isError(lookup)) return lookup;
+      // LibreOffice 7.4 gives #VALUE! for MATCH(5,5,0); Excel's answer is not established.
+      if (!(arr instanceof XlRef || arr instanceof XlArray || isError(arr as Scalar))) return notComputed("MATCH over a single value (not a range or array) is not computed headless (LibreOffice gives #VALUE!; Excel's answer is not established)");
       const a = arrayArg(arr, ctx);
       if (isError(a)) return a;
       const values = vector(a);

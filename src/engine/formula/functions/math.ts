@@ -4,7 +4,7 @@
  * error it gives where.
  */
 import { Ctx, eachCell, notComputed } from "../evaluate";
-import { approxAdd, approxSub, finite, toNumber } from "../coerce";
+import { approxAdd, approxSub, finite, power, toNumber } from "../coerce";
 import { Scalar, Value, XlArray, XlRef, err, isError } from "../values";
 import { Table, arrayArg, classes, eachValue, int, num, numbersOf, scalarFn } from "./kit";
 
@@ -199,10 +199,7 @@ export function addMath(t: Table): void {
     if (isError(a)) return a;
     const b = num(y);
     if (isError(b)) return b;
-    if (a === 0 && b === 0) return err("#NUM!", "0^0 is not defined");
-    if (a === 0 && b < 0) return err("#DIV/0!", "0 raised to a negative power");
-    const r = Math.pow(a, b);
-    return Number.isNaN(r) ? err("#NUM!", "a negative number raised to a fractional power") : finite(r);
+    return power(a, b);
   }));
   t.set("MOD", scalarFn(2, 2, ([x, y]) => {
     const a = num(x);
@@ -375,19 +372,22 @@ export function addMath(t: Table): void {
       return r.rows * r.cols - filled;
     },
   });
+  // ROWS(5), COLUMNS("a"): LibreOffice 7.4 gives #VALUE!, the engine gave 1; Excel's answer is not
+  // established (Microsoft's page names a reference or an array).
+  const singleValueShape = (name: string) => notComputed(`${name} of a single value (not a range or array) is not computed headless (LibreOffice gives #VALUE!; Excel's answer is not established)`);
   t.set("ROWS", {
     min: 1,
     max: 1,
     param: R,
     noLift: true,
-    call: ([a]) => (a instanceof XlRef || a instanceof XlArray ? a.rows : isError(a) ? a : 1),
+    call: ([a]) => (a instanceof XlRef || a instanceof XlArray ? a.rows : isError(a) ? a : singleValueShape("ROWS")),
   });
   t.set("COLUMNS", {
     min: 1,
     max: 1,
     param: R,
     noLift: true,
-    call: ([a]) => (a instanceof XlRef || a instanceof XlArray ? a.cols : isError(a) ? a : 1),
+    call: ([a]) => (a instanceof XlRef || a instanceof XlArray ? a.cols : isError(a) ? a : singleValueShape("COLUMNS")),
   });
   void int;
 }

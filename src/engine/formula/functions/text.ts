@@ -288,6 +288,12 @@ export function addText(t: Table): void {
     if (isError(b)) return b;
     const c = int(sec);
     if (isError(c)) return c;
+    // A negative fraction: truncated toward 0 or floored, the answers differ (TIME(0,0,-0.5) is 0
+    // or #NUM!) and which Excel does is not established (LibreOffice: #VALUE!).
+    for (const x of [h, m, sec]) {
+      const n = num(x as Scalar);
+      if (!isError(n) && n < 0 && !Number.isInteger(n)) return notComputed(`TIME with a negative fraction (${n}) is not computed headless (whether Excel truncates it toward 0 or down is not established; LibreOffice gives #VALUE!)`);
+    }
     // Microsoft Support, TIME: hour, minute and second are each a number from 0 to 32767.
     if (Math.max(a, b, c) > 32767) return notComputed("TIME with an argument above 32767 (outside the range Microsoft documents) is not computed headless");
     const total = a * 3600 + b * 60 + c;

@@ -369,3 +369,12 @@ describe("exact match of a number compares the binary value, not the 15-digit on
     expect(evaluateFormula("=(0.1+0.2)=0.3")).toEqual({ value: true });
   });
 });
+
+describe("MATCH over a single value (found by scripts/oracle/differential.js)", () => {
+  it("is refused: LO 7.4 headless gives #VALUE! for MATCH(5,5,0), the engine gave 1; Excel's answer is not established. A one-element array is kept (LO: 1)", () => {
+    expect(evaluateFormula("=MATCH(5,5,0)")).toEqual({ error: "#VALUE!", message: "MATCH over a single value (not a range or array) is not computed headless (LibreOffice gives #VALUE!; Excel's answer is not established)" });
+    expect(evaluateFormula('=MATCH("a","a",0)')).toEqual({ error: "#VALUE!", message: expect.stringContaining("MATCH over a single value") });
+    expect(evaluateFormula("=MATCH(5,{5},0)")).toEqual({ value: 1 });
+    expect(evaluateFormula("=MATCH(5,NA(),0)")).toEqual({ error: "#N/A", message: expect.any(String) });
+  });
+});

@@ -135,7 +135,10 @@ const CASES: [string, number | string | boolean, string][] = [
   ["POWER(2,10)", 1024, "LO"],
   ["POWER(0,0)", "#NUM! 0^0 is not defined", "XL:0^0 is #NUM! (from memory; LO: 1)"],
   ["POWER(0,-1)", "#DIV/0! 0 raised to a negative power", "XL:#DIV/0! (from memory; LO: #NUM!)"],
-  ["POWER(-8,1/3)", "#NUM! a negative number raised to a fractional power", "XL:a negative base with a fractional power is #NUM! (from memory; LO: -2)"],
+  ["POWER(-8,1/3)", -2, "LO; Excel too: practitioners' report (Stack Overflow question 6911356, 2011, 'How to take the cube root of a negative number in VBA for Excel': =(-2)^(1/3) gives -1.25992 on a worksheet, and POWER(-2,1/3) works); the engine gave #NUM! here while its ^ operator took the root"],
+  ["POWER(-2,1/3)", -1.2599210498948732, "LO; the same report's worksheet value -1.25992"],
+  ["POWER(-8,0.5)", "#NUM! a negative number raised to a fractional power", "LO"],
+  ["POWER(-8,1/4)", "#NUM! a negative number raised to a fractional power", "LO"],
   ["POWER(4,0.5)", 2, "LO"],
   ["POWER(10,400)", "#NUM! the result is not a finite number", "LO"],
   ["POWER(\"x\",2)", "#VALUE! text \"x\" is not a number", "LO"],
@@ -251,6 +254,8 @@ const CASES: [string, number | string | boolean, string][] = [
   ["COLUMNS({1,2,3})", 3, "LO"],
   ["ROWS(NA())", "#N/A", "LO"],
   ["COLUMNS(NA())", "#N/A", "LO"],
+  ["ROWS({5})", 1, "LO"],
+  ["COLUMNS(A2)", 1, "LO"],
   ["SUMPRODUCT(A1:A2,{1;#N/A})", "#N/A", "LO"],
   ["COUNT(,)", 2, "LO"],
   ["COUNTA(,)", 2, "LO"],
@@ -337,5 +342,34 @@ describe("INT and MOD just below a whole number (found by a consultant-style wor
     expect(evaluateFormula("=MOD(7.7,1.1)")).toEqual({ value: 0 });
     expect(evaluateFormula("=MOD(-0.3,0.1)")).toEqual({ value: 0 });
     expect(evaluateFormula("=MOD(5.5,2)")).toEqual({ value: 1.5 }); // LO
+  });
+});
+
+describe("ROWS and COLUMNS of a single value (found by scripts/oracle/differential.js)", () => {
+  it("are refused: LO 7.4 headless gives #VALUE! for ROWS(5), COLUMNS(5) and ROWS(\"a\"), the engine gave 1; Microsoft's page names a reference or an array, and Excel's answer for a value is not established", () => {
+    for (const f of ["ROWS(5)", "COLUMNS(5)", 'ROWS("a")', "ROWS(TRUE)", "ROWS(IF(TRUE,5))"]) {
+      expect(evaluateFormula(`=${f}`)).toEqual({ error: "#VALUE!", message: expect.stringMatching(/^(ROWS|COLUMNS) of a single value \(not a range or array\) is not computed headless/) });
+    }
+  });
+});
+
+describe("POWER and ^ below the smallest normal number (found by scripts/oracle/differential.js)", () => {
+  it("are refused, not written as 0 (LO 7.4 headless: POWER(10,-400), 10^-400 and POWER(2,-1075) are #NUM!; the engine wrote 0; Excel's answer is not established)", () => {
+    const refused = (f: string) => expect(evaluateFormula(`=${f}`)).toEqual({ error: "#VALUE!", message: expect.stringContaining("smaller than the smallest number a worksheet holds") });
+    refused("POWER(10,-400)");
+    refused("10^-400");
+    refused("POWER(2,-1075)");
+    refused("POWER(2,-1023)"); // subnormal: 1.1E-308, below 2.2250738585072014E-308
+    refused("(-2)^-1023");
+  });
+  it("at the edge: 2^-1022, the smallest normal number, is kept (behaviour: the bound is the smallest normal double)", () => {
+    expect(evaluateFormula("=POWER(2,-1022)")).toEqual({ value: 2.2250738585072014e-308 });
+    expect(evaluateFormula("=2^-1022")).toEqual({ value: 2.2250738585072014e-308 });
+    expect(evaluateFormula("=0^5")).toEqual({ value: 0 });
+  });
+  it("^ and POWER give the same answers: one rule (coerce.ts power)", () => {
+    for (const [x, y] of [["-8", "1/3"], ["-8", "0.5"], ["0", "0"], ["0", "-1"], ["2", "0.5"], ["-32", "1/5"], ["10", "400"]]) {
+      expect(evaluateFormula(`=POWER(${x},${y})`)).toEqual(evaluateFormula(`=(${x})^(${y})`));
+    }
   });
 });

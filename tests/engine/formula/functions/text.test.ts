@@ -425,3 +425,13 @@ describe("refused where Excel's reading is not known (found by scripts/oracle/di
     expect(evaluateFormula("=HOUR(TIME(10,59,59)+0.3/86400)")).toEqual({ value: 10 }); // LO
   });
 });
+
+describe("TIME with a negative fraction (found by scripts/oracle/differential.js)", () => {
+  it("is refused: truncated toward 0 TIME(0,0,-0.5) is 0, floored it is #NUM!; LO 7.4 headless gives #VALUE! and Excel's rule is not established (the engine gave 0). Whole negatives and positive fractions are kept", () => {
+    for (const f of ["TIME(0,0,-0.5)", "TIME(1,-0.5,0)", "TIME(-0.1,30,0)"]) {
+      expect(evaluateFormula(`=${f}`)).toEqual({ error: "#VALUE!", message: expect.stringContaining("TIME with a negative fraction") });
+    }
+    expect(evaluateFormula("=TIME(1,-30,0)")).toEqual({ value: 0.020833333333333332 });
+    expect(evaluateFormula("=TIME(12.9,0,0)")).toEqual({ value: 0.5 });
+  });
+});
