@@ -103,7 +103,7 @@ let failed = false;
 if (!reportOnly && !showSurvivors && !markdown) {
   for (const part of parts) {
     const folder = PARTS[part].folder;
-    console.log(`\n== mutation testing ${part}: ${PARTS[part].mutate.join(" ")} ==`);
+    console.log(`\n== mutation testing ${part}: ${PARTS[part].sample ? `the sample in ${PARTS[part].sample}` : PARTS[part].mutate.join(" ")} ==`);
     if (retestTimeouts) forget(part, "timed-out", (m) => m.status === "Timeout");
     if (retestStatic) forget(part, "static", (m) => m.static === true);
     const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
