@@ -6,7 +6,7 @@
  */
 import { Book, localSerial } from "./book";
 import { a1 } from "./cellref";
-import { Ctx, Host, NotComputed, ResourceLimit, ev, toArray } from "./formula/evaluate";
+import { Ctx, Host, NotComputed, ResourceLimit, arityProblem, ev, toArray } from "./formula/evaluate";
 import "./formula/functions";
 import { FormulaSyntaxError } from "./formula/lexer";
 import { Node, parseFormula } from "./formula/parser";
@@ -138,6 +138,9 @@ export function evaluateFormula(formula: string, options: { blankReferences?: bo
   }
   const ref = options.blankReferences ? undefined : firstReference(node);
   if (ref) return { error: "#REF!", message: `eval has no workbook, so ${ref} has nothing to read; give the values themselves (e.g. {1;2;3} for a column), or put the formula in a workbook and use soilcell recalc` };
+  // A wrong argument count anywhere is refused before anything is computed, as in a workbook.
+  const arity = arityProblem(node);
+  if (arity) return { error: "#VALUE!", message: arity };
   const ctx: Ctx = { host: host(options.blankReferences === true), sheet: 0, row: 0, col: 0, arrays: true, depth: 0 };
   let a: ReturnType<typeof toArray>;
   try {

