@@ -183,11 +183,13 @@ function compareText(a: string, b: string): number {
  */
 export function power(x: number, y: number): number | XlError {
   if (x === 0 && y === 0) return err("#NUM!", "0^0 is not defined");
+  // Stryker disable next-line EqualityOperator: equivalent for y <= 0: 0^0 returned above
   if (x === 0 && y < 0) return err("#DIV/0!", "0 raised to a negative power");
   let r: number;
   if (x < 0 && !Number.isInteger(y)) {
     const inv = 1 / y;
     const k = Math.round(inv);
+    // Stryker disable next-line EqualityOperator: equivalent for >: 1/y − k is a multiple of 2^-52 or coarser (k ≥ 1), and the double 1e-12 is not, so equality cannot occur
     if (Math.abs(inv - k) >= 1e-12 || k % 2 === 0) return err("#NUM!", "a negative number raised to a fractional power");
     r = -Math.pow(-x, y);
   } else r = Math.pow(x, y);

@@ -366,6 +366,9 @@ describe("POWER and ^ below the smallest normal number (found by scripts/oracle/
     expect(evaluateFormula("=POWER(2,-1022)")).toEqual({ value: 2.2250738585072014e-308 });
     expect(evaluateFormula("=2^-1022")).toEqual({ value: 2.2250738585072014e-308 });
     expect(evaluateFormula("=0^5")).toEqual({ value: 0 });
+    // 0 to a fractional power is 0, not a "negative base" case (LO 7.4 headless: 0)
+    expect(evaluateFormula("=0^0.5")).toEqual({ value: 0 });
+    expect(evaluateFormula("=POWER(0,1/3)")).toEqual({ value: 0 });
   });
   it("^ and POWER give the same answers: one rule (coerce.ts power)", () => {
     for (const [x, y] of [["-8", "1/3"], ["-8", "0.5"], ["0", "0"], ["0", "-1"], ["2", "0.5"], ["-32", "1/5"], ["10", "400"]]) {
