@@ -189,7 +189,7 @@ export function power(x: number, y: number): number | XlError {
   if (x < 0 && !Number.isInteger(y)) {
     const inv = 1 / y;
     const k = Math.round(inv);
-    // Stryker disable next-line EqualityOperator: equivalent for >: 1/y − k is a multiple of 2^-52 or coarser (k ≥ 1), and the double 1e-12 is not, so equality cannot occur
+    // Stryker disable next-line EqualityOperator: equivalent for >: 1/y − k is a multiple of 2^-52 or coarser when k ≠ 0 (and 1/y = 1e-12 means y is whole), and the double 1e-12 is not, so equality cannot occur
     if (Math.abs(inv - k) >= 1e-12 || k % 2 === 0) return err("#NUM!", "a negative number raised to a fractional power");
     r = -Math.pow(-x, y);
   } else r = Math.pow(x, y);
