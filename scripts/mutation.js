@@ -214,6 +214,7 @@ function sampleEstimate(folder, full) {
     population,
     drawnMutants,
     score: 100 * p,
+    floor: (100 * counts.Killed) / (counts.Killed + counts.Timeout + counts.Survived + counts.NoCoverage),
     low: 100 * (p - 1.96 * sd),
     high: 100 * Math.min(1, p + 1.96 * sd),
     folderScore,
@@ -248,7 +249,7 @@ if (markdown) {
       if (tp) console.log(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
       else console.log(`| \`${p}\` | not run in full${est && est.notRun.includes(p) ? " (in the sample below)" : ""} | | | | | | | | |`);
     }
-    if (est) console.log(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | |`);
+    if (est) console.log(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | ${pct(est.floor)} |`);
   }
   process.exit(0);
 }
@@ -270,16 +271,17 @@ for (const folder of FOLDERS) {
     console.log(`src/${folder.padEnd(14)}(not run yet)`);
     continue;
   }
-  row(`src/${folder}`, t, TARGET[folder]);
-  if (t.missing) console.log(`  (${t.missing} of ${names.length} parts not run yet)`);
+  const est = t.missing ? sampleEstimate(folder, t) : null;
+  row(`src/${folder}`, t, est ? undefined : TARGET[folder]);
+  if (est) console.log(`  over the ${names.length - t.missing} parts run in full; with the other ${t.missing} estimated from a sample: ${est.folderScore.toFixed(1)} % (95 % interval ${est.folderLow.toFixed(1)}–${est.folderHigh.toFixed(1)} %), target ≥ ${TARGET[folder]} % ${estimateVerdict(est, TARGET[folder])}`);
+  else if (t.missing) console.log(`  (${t.missing} of ${names.length} parts not run yet)`);
   for (const p of names) {
     const tp = tally([p]);
     if (tp) row(`  ${p}`, tp);
     else console.log(`  ${p.padEnd(16)}(not run yet)`);
   }
-  const est = t.missing ? sampleEstimate(folder, t) : null;
   if (est) {
-    row(`  ${est.part}`, { ...est, floor: NaN });
+    row(`  ${est.part}`, est);
     console.log(`    ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of ${est.notRun.join(", ")}: ${est.score.toFixed(1)} % (95 % interval ${est.low.toFixed(1)}–${est.high.toFixed(1)} %)${est.counts.Missing ? `; ${est.counts.Missing} drawn mutants not in the results (draw again)` : ""}`);
     console.log(`    src/${folder} with those parts estimated: ${est.folderScore.toFixed(1)} % (${est.folderLow.toFixed(1)}–${est.folderHigh.toFixed(1)} %), target ≥ ${TARGET[folder]} % ${estimateVerdict(est, TARGET[folder])}`);
   }
