@@ -373,6 +373,11 @@ describe("serial dates (Microsoft, \"Date systems in Excel\")", () => {
     expect(isoToSerial("2024-1-1", false)).toBeUndefined();
     expect(isoToSerial("2024-01-01T10", false)).toBeUndefined();
     expect(isoToSerial("", false)).toBeUndefined();
+    // The whole text is the date: a prefix is not skipped (ECMA-376 Part 1: a t="d" cell holds an ISO 8601
+    // date-time, from memory); fractions of a second may have several digits.
+    expect(isoToSerial("x2024-01-01", false)).toBeUndefined();
+    expect(isoToSerial("12024-01-01", false)).toBeUndefined();
+    expect(isoToSerial("2024-01-01T00:00:01.25Z", false)).toBe(45292 + 1.25 / 86400);
   });
   it("localSerial: milliseconds since 1970 UTC, minutes west of UTC, either system", () => {
     const noon = Date.UTC(2024, 0, 1, 12);
