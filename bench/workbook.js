@@ -62,17 +62,8 @@ function forColumn(template, first, last) {
   return template.replace(/@([A-Z])/g, (_, c) => `${c}${first}:${c}${last}`);
 }
 
-/** mulberry32: a small seeded generator, so the invented data are the same every run. */
-function random(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A seeded generator, so the invented data are the same every run. */
+const random = require("../scripts/seeded-random").seededRandom;
 
 const round = (x, d) => Math.round(x * 10 ** d) / 10 ** d;
 

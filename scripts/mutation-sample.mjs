@@ -49,17 +49,8 @@ if (folders.has(undefined)) throw new Error(`unknown part among ${partNames.join
 if (folders.size !== 1) throw new Error("a sample is drawn from the parts of one folder");
 const folder = [...folders][0];
 
-/** mulberry32: a small seeded generator (the draw must be the same on every machine). */
-function generator(s) {
-  let a = s >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A seeded generator (the draw must be the same on every machine). */
+const { seededRandom: generator } = require(path.join(ROOT, "scripts", "seeded-random.js"));
 
 // The files of a glob as parts.js writes them: {a,b} alternatives and a dir/**/*.ts tail (any depth).
 function expand(glob) {
