@@ -118,6 +118,9 @@ if (!reportOnly && !showSurvivors && !markdown) {
   }
 }
 
+/** A mutant's status as the table counts it: a static mutant that was not run is "Static", not "Ignored". */
+const statusOf = (m) => (m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "") ? "Static" : m.status);
+
 /** Counts of the mutants of some parts by status, from their incremental files (null: none run). */
 function tally(partNames) {
   const files = partNames.map((p) => path.join(ROOT, "mutation", "incremental", `${p}.json`)).filter((f) => fs.existsSync(f));
@@ -127,13 +130,11 @@ function tally(partNames) {
   const ignored = [];
   for (const [name, f] of files.flatMap((file) => Object.entries(JSON.parse(fs.readFileSync(file, "utf8")).files))) {
     for (const m of f.mutants) {
-      counts[m.status] = (counts[m.status] ?? 0) + 1;
+      const status = statusOf(m);
+      counts[status] = (counts[status] ?? 0) + 1;
       const where = `${name}:${m.location.start.line}:${m.location.start.column}`;
-      if (m.status === "Survived" || m.status === "NoCoverage") survivors.push(`${m.status.padEnd(10)} ${where} ${m.mutatorName} -> ${oneLine(m.replacement)}`);
-      if (m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "")) {
-        counts.Ignored--;
-        counts.Static = (counts.Static ?? 0) + 1;
-      } else if (m.status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
+      if (status === "Survived" || status === "NoCoverage") survivors.push(`${status.padEnd(10)} ${where} ${m.mutatorName} -> ${oneLine(m.replacement)}`);
+      if (status === "Ignored") ignored.push(`${where} ${m.mutatorName}: ${m.statusReason ?? ""}`);
     }
   }
   const detected = counts.Killed + counts.Timeout;
@@ -187,7 +188,7 @@ function sampleEstimate(folder, full) {
         counts.Missing++; // the source changed since the draw: draw again
         continue;
       }
-      const status = m.status === "Ignored" && /static mutant/i.test(m.statusReason ?? "") ? "Static" : m.status;
+      const status = statusOf(m);
       counts[status] = (counts[status] ?? 0) + 1;
       if (status === "Killed" || status === "Timeout") d++;
       if (status === "Killed" || status === "Timeout" || status === "Survived" || status === "NoCoverage") v++;
@@ -196,8 +197,7 @@ function sampleEstimate(folder, full) {
     perSpan.push([d, v]);
   }
   const n = perSpan.length;
-  const { p, sd } = clusterRatio(perSpan, draw.population.spans);
-  const V = perSpan.reduce((a, x) => a + x[1], 0);
+  const { p, sd, valid: V } = clusterRatio(perSpan, draw.population.spans);
   // The folder: its full parts counted, the parts not run estimated from the sample (their valid
   // mutants from their population and the sample's share of valid mutants).
   const population = notRun.reduce((a, q) => a + draw.parts[q], 0);

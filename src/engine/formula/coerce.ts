@@ -170,7 +170,6 @@ function compareText(a: string, b: string): number {
   return x < y ? -1 : 1;
 }
 
-/** A finite number, or #NUM! for results Excel cannot hold (overflow, NaN). */
 /**
  * x^y as the ^ operator and POWER compute it (one rule for both). 0^0 is #NUM! and 0 to a negative
  * power #DIV/0! (Microsoft Support, POWER and "Calculation operators": from memory). Odd roots of
@@ -197,6 +196,7 @@ export function power(x: number, y: number): number | XlError {
   return finite(r);
 }
 
+/** A finite number, or #NUM! for results Excel cannot hold (overflow, NaN). */
 export function finite(n: number, what = "the result"): number | XlError {
   return Number.isFinite(n) ? (n === 0 ? 0 : n) : err("#NUM!", `${what} is not a finite number`);
 }
