@@ -352,7 +352,6 @@ function run(spec: BindingSpec, args: unknown[]): Out {
   }
   const shape = broadcastShape(shapes);
   if ("error" in shape) return [[hostErrorFor(new SoilError("SHAPE_MISMATCH", shape.error))]];
-  // Stryker disable next-line EqualityOperator,ArithmeticOperator,BlockStatement: equivalent: only chooses the path; the column path gives each element what the element path gives (tests/functions/column-path.test.ts)
   if (spec.column && shape.rows * shape.cols >= 16) {
     const fast = runColumn(spec, spec.column, grids, wholes, shape);
     if (fast) return fast;
@@ -376,7 +375,6 @@ function run(spec: BindingSpec, args: unknown[]): Out {
  * element's result is what `element` gives it. Undefined when the arguments do not suit a kernel
  * (a text argument that varies by element, or one that is blank or an error).
  */
-// Stryker disable next-line BlockStatement: equivalent: an empty body returns undefined, which sends every element down the element path
 function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undefined)[], wholes: unknown[], shape: Shape): Out | undefined {
   const { params } = spec;
   // Stryker disable next-line ArrayDeclaration: equivalent: every index is assigned below (a shared value, or a column in `values`), so the length given up front changes nothing
@@ -395,14 +393,13 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
       continue;
     }
     const single = g.length === 1 && (g[0] as Cell[]).length === 1;
-    // Stryker disable next-line StringLiteral,BooleanLiteral,BlockStatement: equivalent: each leaves every multi-cell argument to the `!single` exit below, and 16+ cells mean there is one, so the call falls back on the element path
     if (p.kind === "number" && !single) {
       columns[i] = g;
       continue;
     }
     const c = (g[0] as Cell[])[0];
     if (!single || errors().is(c)) return undefined;
-    // Stryker disable next-line BooleanLiteral,ConditionalExpression,LogicalOperator,EqualityOperator,StringLiteral: equivalent: a shortcut; elementValue below reads numeric text the same way and refuses (so falls back on) the rest, and a blank falls back as BLANK or reaches the kernel as omitted, as in the element path
+    // Stryker disable next-line ConditionalExpression,LogicalOperator,StringLiteral: equivalent where the shortcut is dropped or narrowed (false, p.kind === "", a non-finite number let through): elementValue below reads a plain number the same way, gives numeric text the number the element path gives it, and sends a blank (BLANK), other text and a non-finite number (refused) to the element path as this does
     if (p.kind === "number" && !(typeof c === "number" && Number.isFinite(c))) return undefined;
     try {
       const v = elementValue(p, c, false);

@@ -57,7 +57,7 @@ describe("column kernels through the bindings", () => {
  * x × y plus the number of cells in an optional whole range; x below 0 is refused, x = 13 makes a
  * non-finite number. The kernel does the same over columns, so any difference is the layer's.
  */
-import { declare, num, optNum, optRange, ColumnKernel } from "../../src/functions/_binding";
+import { declare, num, optNum, optRange, text, ColumnKernel } from "../../src/functions/_binding";
 import { SoilError } from "../../src/core/errors";
 
 function scaleBinding(): void {}
@@ -160,5 +160,106 @@ describe("SOIL.CEC over blocks, rows and columns = cell by cell (invented values
   it("na left out is named in every element of a 16-cell range", () => {
     const ca = amounts(16, 1, 200);
     expect(run([ca, ca, ca, null, [["mg/kg"]]])).toEqual(numbers(16, 1, () => "#VALUE! na is required"));
+  });
+});
+
+/*
+ * The column path must do the work, not only agree with the element path: the benchmark's kernel
+ * figures (one validation per column) rest on it. A binding declared here counts its calls: the
+ * kernel gets, once, exactly the elements whose numeric arguments are all plain finite numbers, in
+ * reading order; the element function only the others that are neither blank nor an error.
+ */
+describe("the column path takes the plain-number elements in one kernel call", () => {
+  function countedBinding(): void {}
+  const calls = { kernel: [] as { values: unknown[]; n: number }[], element: [] as unknown[][] };
+  const counted = declare(
+    countedBinding,
+    [num("x"), optNum("y", 2), optRange("table")] as const,
+    (x, y, table) => {
+      calls.element.push([x, y, table]);
+      return x * (y as number) + tableCells(table);
+    },
+    (values, n) => {
+      calls.kernel.push({ values: values.map((v) => (v instanceof Float64Array ? Array.from(v) : v)), n });
+      return scaleKernel(values, n);
+    },
+  );
+  beforeEach(() => {
+    calls.kernel = [];
+    calls.element = [];
+  });
+  const plain = (v: unknown) => typeof v === "number" && Number.isFinite(v);
+
+  it.each([
+    ["a 4×4 block", 4, 4],
+    ["a 16×1 column", 16, 1],
+    ["a 1×16 row", 1, 16],
+    ["a 3×7 block", 3, 7],
+  ])("%s of x against a single y and a table", (_, rows, cols) => {
+    const x = numbers(rows, cols, mixed);
+    const table = [[1, 2], [3, null]];
+    const out = counted([x, [[3]], table]).map((r) => r.map(show));
+    const inOrder = x.flat();
+    expect(calls.kernel).toEqual([{ values: [inOrder.filter(plain), 3, [[1, 2], [3, null]]], n: inOrder.filter(plain).length }]);
+    // Only numeric text ("4") needs the element function; blanks and errors need neither.
+    expect(calls.element).toEqual(inOrder.filter((v) => v === "4").map(() => [4, 3, [[1, 2], [3, null]]]));
+    expect(out).toEqual(oneByOne([x, [[3]]], table));
+  });
+  it("two columns: the kernel gets the rows where both are plain numbers, the others go element by element", () => {
+    const x = numbers(16, 1, (r) => [r, "", r, "7", r][r % 5]);
+    const y = numbers(16, 1, (r) => [10, 10, "", 10, Infinity, 10][r % 6]);
+    const out = counted([x, y]).map((r) => r.map(show));
+    const both = x.flat().map((v, i) => [v, y.flat()[i]] as const).filter(([a, b]) => plain(a) && plain(b));
+    expect(calls.kernel).toEqual([{ values: [both.map(([a]) => a), both.map(([, b]) => b), undefined], n: both.length }]);
+    expect(out).toEqual(oneByOne([x, y]));
+  });
+  it("an omitted optional number reaches the kernel as its default, once for the column", () => {
+    const x = numbers(16, 1, (r) => r + 1);
+    counted([x]);
+    expect(calls.kernel).toEqual([{ values: [x.flat(), 2, undefined], n: 16 }]);
+    expect(calls.element).toEqual([]);
+  });
+  it("16 elements take the column path, 15 the element path", () => {
+    counted([numbers(15, 1, (r) => r + 1), [[3]]]);
+    expect(calls.kernel).toEqual([]);
+    expect(calls.element).toHaveLength(15);
+    calls.element = [];
+    counted([numbers(4, 4, (r, c) => r + c + 1), [[3]]]);
+    expect(calls.kernel).toHaveLength(1);
+    expect(calls.element).toEqual([]);
+  });
+  it("a column with no plain number calls no kernel", () => {
+    const x = numbers(16, 1, (r) => ["", null, "abc", "4"][r % 4]);
+    const out = counted([x, [[3]]]).map((r) => r.map(show));
+    expect(calls.kernel).toEqual([]);
+    expect(out).toEqual(oneByOne([x, [[3]]]));
+  });
+  it("a shared y that is text, blank or an error sends every element down the element path", () => {
+    for (const y of [[[""]], [[new PlainHostError("#N/A", "an error in a cell")]], [["n.d."]]]) {
+      calls.kernel = [];
+      counted([numbers(16, 1, (r) => r + 1), y]);
+      expect(calls.kernel).toEqual([]);
+    }
+  });
+});
+
+describe("a shared text argument reaches the kernel as its text", () => {
+  function wordBinding(): void {}
+  const seen: unknown[][] = [];
+  const withWord = declare(
+    wordBinding,
+    [num("x"), text("unit")] as const,
+    (x, unit) => (unit === "twice" ? 2 * x : x),
+    (values, n) => {
+      seen.push(values.map((v) => (v instanceof Float64Array ? Array.from(v) : v)));
+      const out = new Float64Array(n);
+      for (let i = 0; i < n; i++) out[i] = (values[1] === "twice" ? 2 : 1) * ((values[0] as Float64Array)[i] as number);
+      return { values: out, errors: new Map<number, SoilError>() };
+    },
+  );
+  it("one kernel call with the word, trimmed as the element path trims it", () => {
+    const x = numbers(16, 1, (r) => r);
+    expect(withWord([x, [[" twice "]]])).toEqual(numbers(16, 1, (r) => 2 * r));
+    expect(seen).toEqual([[x.flat(), "twice"]]);
   });
 });
