@@ -20,7 +20,8 @@
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
  *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
  *                                            (Markdown, for the README)
- *   node scripts/mutation.js --markdown      the score table as Markdown (for the README)
+ *   node scripts/mutation.js --markdown      the score table as Markdown
+ *   node scripts/mutation.js --readme        writes that table and the equivalents list into README.md
  *   node scripts/mutation.js engine-sample   the random sample of the engine parts not run in full
  *                                            (drawn by scripts/mutation-sample.mjs); the table then
  *                                            gives the folder an estimate with a 95 % interval
@@ -52,6 +53,7 @@ const reportOnly = own.includes("--report");
 const showSurvivors = own.includes("--survivors");
 const showEquivalents = own.includes("--equivalents");
 const markdown = own.includes("--markdown");
+const readme = own.includes("--readme");
 const retestTimeouts = own.includes("--retest-timeouts");
 const retestStatic = own.includes("--retest-static");
 const chosen = own.filter((a) => !a.startsWith("--"));
@@ -100,7 +102,7 @@ function forget(part, what, which) {
 }
 
 let failed = false;
-if (!reportOnly && !showSurvivors && !markdown) {
+if (!reportOnly && !showSurvivors && !markdown && !readme) {
   for (const part of parts) {
     const folder = PARTS[part].folder;
     console.log(`\n== mutation testing ${part}: ${PARTS[part].sample ? `the sample in ${PARTS[part].sample}` : PARTS[part].mutate.join(" ")} ==`);
@@ -224,33 +226,59 @@ function sampleEstimate(folder, full) {
   };
 }
 
-if (markdown) {
+/** The score table as Markdown lines. */
+function markdownTable() {
+  const lines = [];
   const pct = (x) => `${x.toFixed(1)} %`;
   const cells = (t) => {
     const c = t.counts;
     return [c.Killed, c.Survived, c.NoCoverage, c.Timeout, c.CompileError + c.RuntimeError, c.Ignored, c.Static];
   };
-  console.log("| part | killed | survived | no coverage | timed out | errors | equivalent | static, not run | score | floor |");
-  console.log("|---|---|---|---|---|---|---|---|---|---|");
+  lines.push("| part | killed | survived | no coverage | timed out | errors | equivalent | static, not run | score | floor |");
+  lines.push("|---|---|---|---|---|---|---|---|---|---|");
   for (const folder of FOLDERS) {
     const names = fullParts(folder);
     const t = tally(names);
     if (!t) {
-      console.log(`| \`src/${folder}\` | not run | | | | | | | | |`);
+      lines.push(`| \`src/${folder}\` | not run | | | | | | | | |`);
       continue;
     }
     const target = TARGET[folder];
     const est = t.missing ? sampleEstimate(folder, t) : null;
     const verdict = !t.missing ? (t.score >= target ? "met" : "NOT met") : est ? estimateVerdict(est, target) : `not judged, ${t.missing} of ${names.length} parts not run`;
     const shown = est ? `**${pct(est.folderScore)}** (95 % interval ${pct(est.folderLow)}–${pct(est.folderHigh)}; target ≥ ${target} % ${verdict}); ${pct(t.score)} over the ${names.length - t.missing} parts run in full` : `**${pct(t.score)}** (target ≥ ${target} % ${verdict})`;
-    console.log(`| \`src/${folder}\` | ${cells(t).join(" | ")} | ${shown} | ${pct(t.floor)} |`);
+    lines.push(`| \`src/${folder}\` | ${cells(t).join(" | ")} | ${shown} | ${pct(t.floor)} |`);
     for (const p of names) {
       const tp = tally([p]);
-      if (tp) console.log(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
-      else console.log(`| \`${p}\` | not run in full${est && est.notRun.includes(p) ? " (in the sample below)" : ""} | | | | | | | | |`);
+      if (tp) lines.push(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
+      else lines.push(`| \`${p}\` | not run in full${est && est.notRun.includes(p) ? " (in the sample below)" : ""} | | | | | | | | |`);
     }
-    if (est) console.log(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | ${pct(est.floor)} |`);
+    if (est) lines.push(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | ${pct(est.floor)} |`);
   }
+  return lines;
+}
+
+/** Replaces what lies between `<!-- name -->` and `<!-- /name -->` in the README. */
+function replaceBetween(text, name, content) {
+  const open = `<!-- ${name} -->`;
+  const close = `<!-- /${name} -->`;
+  const i = text.indexOf(open);
+  const j = text.indexOf(close);
+  if (i < 0 || j < i) throw new Error(`README.md has no ${open} … ${close} block`);
+  return `${text.slice(0, i + open.length)}\n${content}\n${text.slice(j)}`;
+}
+
+if (markdown) {
+  console.log(markdownTable().join("\n"));
+  process.exit(0);
+}
+if (readme) {
+  const file = path.join(ROOT, "README.md");
+  let text = fs.readFileSync(file, "utf8");
+  text = replaceBetween(text, "mutation:table", markdownTable().join("\n"));
+  text = replaceBetween(text, "mutation:equivalents", equivalents().join("\n"));
+  fs.writeFileSync(file, text);
+  console.log("README.md: score table and equivalent mutants rewritten (the words around them are yours to update)");
   process.exit(0);
 }
 
