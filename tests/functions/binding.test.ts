@@ -5,6 +5,8 @@
 import { convert, cmol } from "../../src/functions/units";
 import { PlainHostError, broadcastShape, specOf, declare, hostErrorFor, numberOfCell, num, optText, text, range, cell } from "../../src/functions/_binding";
 import * as errorsModule from "../../src/core/errors";
+import * as bands from "../../src/functions/bands";
+import * as nitrogen from "../../src/functions/nitrogen";
 
 const err = (v: unknown) => (v instanceof PlainHostError ? `${v.kind} ${v.message}` : undefined);
 
@@ -150,10 +152,38 @@ describe("binding layer: the code of each refusal made here", () => {
     expect(codesOf(() => echo([[new PlainHostError("#N/A", "x")]], [["w"]], null, [[2]]))).toEqual(["NOT_A_NUMBER"]);
     expect(codesOf(() => echo([[{}]], [["w"]], null, [[2]]))).toEqual(["NOT_A_NUMBER"]);
     expect(codesOf(() => echo([[1]], [["w"]], null, [[false]]))).toEqual(["NOT_A_NUMBER"]);
+    // A number argument given a boolean, and given text that is not a number.
+    expect(codesOf(() => cmol([[true]], [["K"]]))).toEqual(["NOT_A_NUMBER"]);
+    expect(codesOf(() => cmol([["abc"]], [["K"]]))).toEqual(["NOT_A_NUMBER"]);
   });
   it("too many arguments, an empty range and ranges that do not pair are SHAPE_MISMATCH", () => {
     expect(codesOf(() => (cmol as (...a: unknown[]) => unknown[][])([[1]], [["Ca"]], [[1]]))).toEqual(["SHAPE_MISMATCH"]);
     expect(codesOf(() => cmol([[]], [["Ca"]]))).toEqual(["SHAPE_MISMATCH"]);
     expect(codesOf(() => cmol([[1, 2, 3]], [["Ca", "Mg"]]))).toEqual(["SHAPE_MISMATCH"]);
+  });
+});
+
+describe("binding layer: cells a host may hand over", () => {
+  it("a cell holding undefined inside a range is blank, as null is", () => {
+    expect(cmol([[undefined], [null], [391.0]], [["K"]]).map((r) => r[0])).toEqual(["", "", expect.any(Number)]);
+  });
+  it("no negative zero reaches a cell, on the element path and the column path", () => {
+    // Invented arithmetic: -0 × x is -0 for a positive x.
+    function negZero(): void {}
+    const NEG = declare(negZero, [num("x")] as const, (x) => -0 * x, (v, n) => ({ values: new Float64Array(n).fill(-0), errors: new Map() }));
+    const one = NEG([[[2]]])[0]![0];
+    expect(Object.is(one, 0)).toBe(true);
+    const column = NEG([Array.from({ length: 16 }, () => [2])]).map((r) => r[0]);
+    expect(column.every((v) => Object.is(v, 0))).toBe(true);
+  });
+});
+
+describe("binding layer: what the help page says a needed argument needs", () => {
+  // scripts/help.js prints `needed <words>` for these; the words are the declarations' own.
+  const neededOf = (f: Function) => Object.fromEntries((specOf(f)?.params ?? []).filter((p) => "needed" in p).map((p) => [p.name, (p as { needed?: string }).needed]));
+  it("each argument Excel lists as optional but the function needs says when", () => {
+    expect(neededOf(bands.sufficiency)).toEqual({ method: "unless table names a built-in table or is your own" });
+    expect(neededOf(nitrogen.nfixed)).toEqual({ root_factor: "always: there is no default factor" });
+    expect(neededOf(nitrogen.nfixdm)).toEqual({ kg_n_per_t: "always: there is no default rule" });
   });
 });
