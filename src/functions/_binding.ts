@@ -193,6 +193,7 @@ export function declare<const Ps extends readonly Param[]>(
   return (args) => {
     // An indexed copy: Array.from walks an `arguments` object through its iterator, which cost
     // more than the rest of a one-cell call's shaping.
+    // Stryker disable next-line ArrayDeclaration: equivalent: the loop assigns every index, so the length given up front changes nothing
     const list = new Array<unknown>(args.length);
     for (let i = 0; i < args.length; i++) list[i] = args[i];
     return run(spec, list);
@@ -380,7 +381,7 @@ function run(spec: BindingSpec, args: unknown[]): Out {
  */
 function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undefined)[], wholes: unknown[], shape: Shape): Out | undefined {
   const { params } = spec;
-  // Stryker disable next-line ArrayDeclaration: equivalent: every index is assigned below (a shared value, or a column in `values`), so the length given up front changes nothing
+  // Stryker disable next-line ArrayDeclaration: equivalent: every index is assigned below (a shared value, or a column of numbers), so the length given up front changes nothing
   const shared: unknown[] = new Array(params.length);
   // Stryker disable next-line ArrayDeclaration: equivalent: an index never assigned reads undefined either way (no column)
   const columns: (Grid | undefined)[] = new Array(params.length);
@@ -419,15 +420,16 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
     const r = Math.floor(pos / shape.cols);
     const c = pos % shape.cols;
     let ok = true;
+    // Stryker disable next-line EqualityOperator: equivalent for i <= params.length: columns[params.length] is undefined, so that pass does nothing
     for (let i = 0; i < params.length && ok; i++) {
       const g = columns[i];
       if (!g) continue;
       const v = (g[r] as Cell[])[c];
-      ok = typeof v === "number" && Number.isFinite(v);
+      ok = Number.isFinite(v); // false for anything not a number: it does not convert text
     }
     if (ok) eligible.push(pos);
   }
-  const values = shared.slice();
+  // Stryker disable next-line EqualityOperator: equivalent for i <= params.length: columns[params.length] is undefined, so that pass does nothing
   for (let i = 0; i < params.length; i++) {
     const g = columns[i];
     if (!g) continue;
@@ -436,11 +438,12 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
       const pos = eligible[j] as number;
       a[j] = (g[Math.floor(pos / shape.cols)] as Cell[])[pos % shape.cols] as number;
     }
-    values[i] = a;
+    shared[i] = a; // each column's numbers in its place among the shared values
   }
   // Stryker disable next-line ObjectLiteral: equivalent: with no eligible element the loop below never reads the results
-  const results = eligible.length ? kernel(values, eligible.length) : { values: new Float64Array(0), errors: new Map<number, SoilError>() };
+  const results = eligible.length ? kernel(shared, eligible.length) : { values: new Float64Array(0), errors: new Map<number, SoilError>() };
   const out: Out = [];
+  // Stryker disable next-line ArrayDeclaration: equivalent: the loop below assigns every cell of every row, so the length given up front changes nothing
   for (let r = 0; r < shape.rows; r++) out.push(new Array(shape.cols));
   // Stryker disable next-line ArrayDeclaration: equivalent: element assigns every index before the call, so the length given up front changes nothing
   const scratch: unknown[] = new Array(params.length);
@@ -449,6 +452,7 @@ function runColumn(spec: BindingSpec, kernel: ColumnKernel, grids: (Grid | undef
     const r = Math.floor(pos / shape.cols);
     const c = pos % shape.cols;
     let v: unknown;
+    // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent for true or next <= eligible.length in place of the bound: eligible[eligible.length] is undefined, never a position
     if (next < eligible.length && eligible[next] === pos) {
       const e = results.errors.get(next);
       const x = results.values[next++] as number;

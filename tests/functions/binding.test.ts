@@ -156,6 +156,9 @@ describe("binding layer: the code of each refusal made here", () => {
     expect(codesOf(() => cmol([[true]], [["K"]]))).toEqual(["NOT_A_NUMBER"]);
     expect(codesOf(() => cmol([["abc"]], [["K"]]))).toEqual(["NOT_A_NUMBER"]);
   });
+  it("a required argument left out is MISSING_INPUT", () => {
+    expect(codesOf(() => convert([[10]], [["mg/kg"]], null as never))).toEqual(["MISSING_INPUT"]);
+  });
   it("too many arguments, an empty range and ranges that do not pair are SHAPE_MISMATCH", () => {
     expect(codesOf(() => (cmol as (...a: unknown[]) => unknown[][])([[1]], [["Ca"]], [[1]]))).toEqual(["SHAPE_MISMATCH"]);
     expect(codesOf(() => cmol([[]], [["Ca"]]))).toEqual(["SHAPE_MISMATCH"]);

@@ -57,7 +57,7 @@ describe("column kernels through the bindings", () => {
  * x × y plus the number of cells in an optional whole range; x below 0 is refused, x = 13 makes a
  * non-finite number. The kernel does the same over columns, so any difference is the layer's.
  */
-import { declare, num, optNum, optRange, text, ColumnKernel } from "../../src/functions/_binding";
+import { declare, num, optNum, optRange, text, cell, ColumnKernel } from "../../src/functions/_binding";
 import { SoilError } from "../../src/core/errors";
 
 function scaleBinding(): void {}
@@ -261,5 +261,37 @@ describe("a shared text argument reaches the kernel as its text", () => {
     const x = numbers(16, 1, (r) => r);
     expect(withWord([x, [[" twice "]]])).toEqual(numbers(16, 1, (r) => 2 * r));
     expect(seen).toEqual([[x.flat(), "twice"]]);
+  });
+  it("a text argument that varies by element (a range, words or numbers) sends every element down the element path", () => {
+    const x = numbers(16, 1, (r) => r);
+    for (const unit of [numbers(16, 1, (r) => (r % 2 ? "twice" : "once")), numbers(16, 1, (r) => r), numbers(16, 1, (r) => (r ? "twice" : new PlainHostError("#N/A", "an error in a cell")))]) {
+      seen.length = 0;
+      const out = withWord([x, unit]).map((r) => r.map(show));
+      expect(seen).toEqual([]);
+      expect(out).toEqual(unit.map((u, r) => [show(withWord([[[r]], [u]])[0]![0])]));
+    }
+  });
+});
+
+describe("a blank shared cell argument sends every element down the element path", () => {
+  // A cell argument (number or text as it stands) left blank gives a blank result, never a kernel value.
+  function cellBinding(): void {}
+  let kernelCalls = 0;
+  const withCell = declare(
+    cellBinding,
+    [num("x"), cell("reading")] as const,
+    (x, reading) => x + Number(reading),
+    (values, n) => {
+      kernelCalls++;
+      const out = new Float64Array(n);
+      for (let i = 0; i < n; i++) out[i] = ((values[0] as Float64Array)[i] as number) + Number(values[1]);
+      return { values: out, errors: new Map<number, SoilError>() };
+    },
+  );
+  it("blank in, blank out over a 16-cell column", () => {
+    expect(withCell([numbers(16, 1, (r) => r), [[""]]])).toEqual(numbers(16, 1, () => ""));
+    expect(kernelCalls).toBe(0);
+    expect(withCell([numbers(16, 1, (r) => r), [[5]]])).toEqual(numbers(16, 1, (r) => r + 5));
+    expect(kernelCalls).toBe(1);
   });
 });
