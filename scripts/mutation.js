@@ -130,7 +130,11 @@ function tally(partNames) {
   const counts = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, CompileError: 0, RuntimeError: 0, Ignored: 0, Static: 0 };
   const survivors = [];
   const ignored = [];
+  // Files changed since their results were recorded: the counts are those of the earlier version.
+  const changed = [];
   for (const [name, f] of files.flatMap((file) => Object.entries(JSON.parse(fs.readFileSync(file, "utf8")).files))) {
+    const now = path.join(ROOT, name);
+    if (!fs.existsSync(now) || fs.readFileSync(now, "utf8") !== f.source) changed.push(name);
     for (const m of f.mutants) {
       const status = statusOf(m);
       counts[status] = (counts[status] ?? 0) + 1;
@@ -147,6 +151,7 @@ function tally(partNames) {
     floor: valid ? (100 * counts.Killed) / valid : NaN,
     survivors,
     ignored,
+    changed,
     missing: partNames.length - files.length,
   };
 }
@@ -250,7 +255,8 @@ function markdownTable() {
     lines.push(`| \`src/${folder}\` | ${cells(t).join(" | ")} | ${shown} | ${pct(t.floor)} |`);
     for (const p of names) {
       const tp = tally([p]);
-      if (tp) lines.push(`| \`${p}\` | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
+      const since = tp && tp.changed.length ? ` (run before the last change to ${tp.changed.map((n) => `\`${path.basename(n)}\``).join(", ")})` : "";
+      if (tp) lines.push(`| \`${p}\`${since} | ${cells(tp).join(" | ")} | ${pct(tp.score)} | ${pct(tp.floor)} |`);
       else lines.push(`| \`${p}\` | not run in full${est && est.notRun.includes(p) ? " (in the sample below)" : ""} | | | | | | | | |`);
     }
     if (est) lines.push(`| \`${est.part}\`: ${est.spans} random spans, ${est.drawnMutants} of the ${est.population} mutants of the ${est.notRun.length} parts not run in full | ${cells(est).join(" | ")} | ${pct(est.score)} (95 % interval ${pct(est.low)}–${pct(est.high)}) | ${pct(est.floor)} |`);
@@ -307,6 +313,7 @@ for (const folder of FOLDERS) {
     const tp = tally([p]);
     if (tp) row(`  ${p}`, tp);
     else console.log(`  ${p.padEnd(16)}(not run yet)`);
+    if (tp && tp.changed.length) console.log(`    run before the last change to ${tp.changed.join(", ")}: node scripts/mutation.js ${p} tests what changed`);
   }
   if (est) {
     row(`  ${est.part}`, est);
