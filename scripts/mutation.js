@@ -17,6 +17,10 @@
  *                                            the same for static mutants (with MUTATE_STATIC=1): a
  *                                            static mutant that a test also reaches ("hybrid") is
  *                                            otherwise run against that test alone
+ *   node scripts/mutation.js --retest-survivors functions
+ *                                            the same for surviving and uncovered mutants: after a
+ *                                            test is added for them (Stryker's incremental mode
+ *                                            does not see that a new test reaches a static mutant)
  *   node scripts/mutation.js --survivors     the table and every surviving / uncovered mutant
  *   node scripts/mutation.js --equivalents   every mutant marked equivalent in src, with its reason
  *                                            (Markdown, for the README)
@@ -56,6 +60,7 @@ const markdown = own.includes("--markdown");
 const readme = own.includes("--readme");
 const retestTimeouts = own.includes("--retest-timeouts");
 const retestStatic = own.includes("--retest-static");
+const retestSurvivors = own.includes("--retest-survivors");
 const chosen = own.filter((a) => !a.startsWith("--"));
 for (const f of chosen) if (!FOLDERS.includes(f) && !PARTS[f]) throw new Error(`unknown folder or part ${f}: use ${[...FOLDERS, ...Object.keys(PARTS)].join(", ")}`);
 // A folder's sample part runs only when named: a folder run runs its parts in full.
@@ -108,6 +113,7 @@ if (!reportOnly && !showSurvivors && !markdown && !readme) {
     console.log(`\n== mutation testing ${part}: ${PARTS[part].sample ? `the sample in ${PARTS[part].sample}` : PARTS[part].mutate.join(" ")} ==`);
     if (retestTimeouts) forget(part, "timed-out", (m) => m.status === "Timeout");
     if (retestStatic) forget(part, "static", (m) => m.static === true);
+    if (retestSurvivors) forget(part, "surviving", (m) => m.status === "Survived" || m.status === "NoCoverage");
     const r = spawnSync("nice", ["-n", "15", process.execPath, path.join(ROOT, "node_modules/@stryker-mutator/core/bin/stryker.js"), "run", "stryker.config.mjs", ...passOn], {
       cwd: ROOT,
       stdio: "inherit",
