@@ -30,7 +30,8 @@ export function a1(addr: CellAddress): string {
 
 export function parseA1(ref: string): CellAddress {
   const m = /^\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(ref.trim());
-  if (!m) throw new Error(`not a cell reference: ${ref}`);
+  // Rows count from 1: "A0" is no cell (a range read from a file with it is then ignored, not placed at row −1).
+  if (!m || Number(m[2]) < 1) throw new Error(`not a cell reference: ${ref}`);
   return { row: Number(m[2]) - 1, col: columnIndex(m[1] as string) };
 }
 

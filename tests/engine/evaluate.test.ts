@@ -47,3 +47,14 @@ describe("evaluateFormula", () => {
     expect(evaluateFormula('=SOIL.ABOUT("NOPE")').error).toBe("#VALUE!");
   });
 });
+
+describe("evaluateFormula: the workbook it stands in for", () => {
+  it("counts dates in the 1900 system, Excel's default for a new workbook (1 January 1904 is serial 1462; Microsoft Support, 'Date systems in Excel': from memory)", () => {
+    expect(evaluateFormula("=DATE(1904,1,1)")).toEqual({ value: 1462 });
+    expect(evaluateFormula("=DATE(2026,12,5)")).toEqual({ value: 46361 }); // derived: 1462 + 44,899 days from 1 Jan 1904 to 5 Dec 2026, counted
+  });
+  it("with blank references, an empty cell is blank (ISBLANK is TRUE), not an error or text", () => {
+    expect(evaluateFormula("=ISBLANK(C2)", { blankReferences: true })).toEqual({ value: true });
+    expect(evaluateFormula('=C2&"x"', { blankReferences: true })).toEqual({ value: "x" });
+  });
+});

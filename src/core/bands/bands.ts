@@ -78,7 +78,7 @@ function bandLimits(input: ListInput<number | string | boolean | null>): readonl
     }
     const n = typeof c === "string" ? numericText(c) : undefined;
     // Text such as "1e999" reads as Infinity: refused like an infinite number, never a limit.
-    if (n !== undefined && Number.isFinite(n)) return n;
+    if (Number.isFinite(n)) return n as number; // false for undefined: it converts nothing
     if (n !== undefined) throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} ("${c}") is not a finite number`);
     throw new SoilError("NOT_A_NUMBER", `limit ${i + 1} (${typeof c === "string" ? `"${c}"` : String(c)}) is not a number`);
   });
