@@ -99,6 +99,10 @@ describe("toText", () => {
     expect(toText("Mehlich-3")).toBe("Mehlich-3");
     expect(toText(0)).toBe("0"); // corpus conversions C!B7: 0&"x" is 0x (LibreOffice)
   });
+  it("an error stays that error (an error in an operand is the result: Microsoft Support, 'How to correct a #VALUE! error': from memory)", () => {
+    const e = err("#N/A", "no match");
+    expect(toText(e)).toBe(e);
+  });
 });
 
 describe("toBool", () => {

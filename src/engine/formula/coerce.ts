@@ -68,9 +68,12 @@ export function numberToText(n: number): string {
   // carry into the exponent (9.999999999999999 is 10), which toExponential already did.
   const digits = mant.replace(".", "").replace(/0+$/, "");
   const e = Number(exp);
+  // Stryker disable next-line EqualityOperator: equivalent for n <= 0: 0 returned above
   const sign = n < 0 ? "-" : "";
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent for true or e <= 0 in place of e < 0: at e >= 0 the length test is 1 − e + at most 15 digits, never above 20
   if (e > 19 || (e < 0 && 2 + (-e - 1) + digits.length > 20)) {
     const m = digits.length > 1 ? `${digits[0]}.${digits.slice(1)}` : digits;
+    // Stryker disable next-line EqualityOperator: equivalent for e <= 0: e is above 19 or below 0 here
     return `${sign}${m}E${e < 0 ? "-" : "+"}${String(Math.abs(e)).padStart(2, "0")}`;
   }
   if (e < 0) return `${sign}0.${"0".repeat(-e - 1)}${digits}`;
@@ -80,7 +83,7 @@ export function numberToText(n: number): string {
 
 /** A scalar as text: numbers in General format, TRUE/FALSE, blank as "". */
 export function toText(v: Scalar): string | XlError {
-  // Stryker disable next-line ConditionalExpression: equivalent: text skipped here reaches the final return v
+  // Stryker disable next-line ConditionalExpression,StringLiteral: equivalent: text skipped here reaches the final return v
   if (typeof v === "string") return v;
   if (v === null) return "";
   if (typeof v === "number") return numberToText(v);
