@@ -15,6 +15,7 @@ import { Ctx, Host, ResourceLimit, setNativeFunctions, elementAt, ev, evalLazy, 
 import { parseFormula } from "../../../src/engine/formula/parser";
 import { MAX_COLS, MAX_ROWS, Scalar, Value, XlArray, XlError, XlRef, XlUnion } from "../../../src/engine/formula/values";
 import { SOIL_NAMES } from "../../../src/engine/soil";
+import { evaluateFormula } from "../../../src/engine/evaluate";
 import type { Book, DefinedName } from "../../../src/engine/book";
 
 /** A host over sheets given as maps "A1" → value; names as text parsed at A1. */
@@ -219,6 +220,11 @@ describe("references at the formula's cell", () => {
     expect(errOf(at("A1:B1", 0, 0, 0, MAX_COLS - 1))).toBe(off);
     expect(errOf(at("A2:A1", 1, 0, 0, 0))).toBe(off);
     expect(errOf(at("B1:A1", 0, 1, 0, 0))).toBe(off);
+    // one corner alone off each edge (the other still on the sheet)
+    expect(errOf(at("A1:A2", 1, 0, 0, 0))).toBe(off); // top row 0 - 1, bottom row 0
+    expect(errOf(at("A1:B1", 0, 1, 0, 0))).toBe(off); // left col 0 - 1, right col 0
+    expect(errOf(at("A2:A1", 0, 0, MAX_ROWS - 1, 0))).toBe(off); // first corner one row past the last, second on it
+    expect(errOf(at("B1:A1", 0, 0, 0, MAX_COLS - 1))).toBe(off); // first corner one column past the last, second on it
   });
   it("absolute parts do not move", () => {
     const n = parseFormula("$B$2:C$3", 0, 0, SOIL_NAMES) as never;
@@ -257,6 +263,7 @@ describe("broadcasting (lift)", () => {
   });
   it("an array over the host's limit is refused, not built; at the limit it is built", () => {
     expect(() => lift([new XlArray(1, 7, [1, 2, 3, 4, 5, 6, 7])], sum, ctxAt(host, 0, 0))).toThrow(ResourceLimit);
+    expect(new ResourceLimit("too big").name).toBe("ResourceLimit"); // what a stack trace or log line shows
     expect(() => lift([new XlArray(7, 1, [1, 2, 3, 4, 5, 6, 7])], sum, ctxAt(host, 0, 0))).toThrow("a formula builds an array of 7×1 cells, more than the 6 cells soilcell takes in one formula; refused");
     const ok = lift([new XlArray(2, 3, [1, 2, 3, 4, 5, 6])], sum, ctxAt(host, 0, 0)) as XlArray;
     expect(ok.data).toEqual([1, 2, 3, 4, 5, 6]);
@@ -457,5 +464,19 @@ describe("nodes the parser makes rarely", () => {
     expect(errOf(value(host, "A1:A2#"))).toBe("#REF! the spill operator # needs a single cell that holds a spilling formula");
     expect(errOf(value(host, "A1#"))).toBe("#REF! no spill here");
     expect(errOf(value(host, "Nope!A1#"))).toBe('#REF! there is no sheet named "Nope"');
+  });
+});
+
+describe("an error operand against text that is no number", () => {
+  // LibreOffice 7.4 headless, recalculating the same formulas (seen, 5 December 2026): the error
+  // wins over the failed conversion of the other operand, on either side.
+  it.each([
+    ['="abc"+NA()', "#N/A"],
+    ['=NA()+"abc"', "#N/A"],
+    ['="abc"*(1/0)', "#DIV/0!"],
+    ['="abc"&NA()', "#N/A"],
+    ['=NA()&"abc"', "#N/A"],
+  ])("%s is %s", (f, code) => {
+    expect(evaluateFormula(f).error).toBe(code);
   });
 });
