@@ -115,6 +115,7 @@ export function labReading(text: string, decimalMark?: LabDecimalMark): LabReadi
   const key = wordKey(t);
   if (BELOW_WORDS.has(key)) return { kind: "below" };
   if (MISSING_WORDS.has(key)) return { kind: "missing" };
+  // Stryker disable next-line Regex: equivalent for the regex without "$": (.*) runs to the end either way, since every line break became a space above
   const censored = /^(<=|>=|[<>≤≥])\s*(.*)$/.exec(t);
   if (censored) {
     const sign = censored[1] as string;

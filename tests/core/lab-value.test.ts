@@ -68,6 +68,10 @@ describe("words with no limit: n.d., trace", () => {
   it("limit and half cannot apply to a value that states no limit (NOT_APPLICABLE)", () => {
     expect(errorCode(() => labValue("n.d.", "half"))).toBe("NOT_APPLICABLE");
     expect(errorCode(() => labValue("trace", "limit"))).toBe("NOT_APPLICABLE");
+    // The message quotes the cell as written, without the spaces around it.
+    expect(errorMessage(() => labValue("  n.d. ", "half"))).toBe(
+      'value "n.d." states no limit, so below "half" cannot be applied: have the lab\'s limit written as "<0.05", or choose zero or blank',
+    );
   });
   it("without a policy it is MISSING_INPUT offering zero or blank", () => {
     expect(errorCode(() => labValue("n.d."))).toBe("MISSING_INPUT");
@@ -260,6 +264,12 @@ describe("reader edges, second round", () => {
   });
   it("an exponent is read with decimal \".\" but not with decimal \",\"", () => {
     expect(labValue("1.5e3", undefined, undefined, ".")).toBe(1500);
+    // every form of the mantissa: digits on both sides, a fraction only, a sign (invented values)
+    expect(labValue("12.25e3", undefined, undefined, ".")).toBe(12250);
+    expect(labValue(".25e2", undefined, undefined, ".")).toBe(25);
+    expect(labValue("-1.5e3", undefined, undefined, ".")).toBe(-1500);
+    expect(msg(() => labValue("x1e3", undefined, undefined, "."))).toMatch(/^value: "x1e3" is not a lab value LABVALUE reads/);
+    expect(msg(() => labValue("1.2.5e3", undefined, undefined, "."))).toBe('value: "1.2.5e3" has more than one decimal mark "."');
     expect(msg(() => labValue("1e3", undefined, undefined, ","))).toBe(
       'value: "1e3" is not a number written with the decimal mark "," (thousands may be grouped by "." or a space, three digits a group)',
     );

@@ -174,6 +174,8 @@ describe("numericText and notANumberHint: the one reading of numbers typed as te
     ["+3.", 3],
     ["1e3", 1000],
     ["2.5E-2", 0.025],
+    ["12.25", 12.25],
+    [".125", 0.125],
   ])("%j reads as %p", (text, value) => {
     expect(numericText(text)).toBe(value);
   });
