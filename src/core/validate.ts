@@ -49,7 +49,9 @@ function describeRange(b: Bound): string {
 
 function within(value: number, b: Bound): boolean {
   const { min, max } = b;
+  // Stryker disable next-line ConditionalExpression: equivalent for true: a number compared with undefined is never below it
   const low = min !== undefined && (b.minExclusive ? value <= min : value < min);
+  // Stryker disable next-line ConditionalExpression: equivalent for true: a number compared with undefined is never above it
   const high = max !== undefined && (b.maxExclusive ? value >= max : value > max);
   return !low && !high;
 }

@@ -14,9 +14,6 @@ import { BOUNDS, check, finite } from "../validate";
 /** Unit of every lime result unless the caller asks for another: tonne per hectare. */
 export const LIME_DEFAULT_UNIT = "t/ha";
 
-/** Result units the catalogue promises for lime rates. */
-export const LIME_UNITS: readonly string[] = ["t/ha", "ton/ac", "kg/ha", "lb/ac"];
-
 /**
  * mg of pure CaCO3 per kg of soil that neutralizes `cmolPerKg` cmol(+)/kg of acidity.
  * @param cmolPerKg acidity to neutralize, cmol(+)/kg (= meq/100 g), ≥ 0

@@ -28,7 +28,7 @@ export const FIXSOIL_BOUNDS = {
 export type PhTest = "CaCl2" | "water";
 
 const PH_TESTS = nameTable<PhTest>([
-  { id: "CaCl2", aliases: ["pHCa", "pH(CaCl2)", "calcium chloride", "0.01M CaCl2", "0.01 M CaCl2"], value: "CaCl2" },
+  { id: "CaCl2", aliases: ["pHCa", "pH(CaCl2)", "calcium chloride", "0.01M CaCl2"] /* words are read without their spaces: "0.01 M CaCl2" too */, value: "CaCl2" },
   { id: "water", aliases: ["pHw", "pH(water)", "H2O", "1:5 water", "deionised water", "deionized water"], value: "water" },
 ]);
 

@@ -60,6 +60,13 @@ describe("ph_method: required, never assumed", () => {
     expect(nfixPhTest("Water")).toBe("water");
     expect(nfixPhTest("1:5 water")).toBe("water");
   });
+  // The other spellings a lab report or a consultant uses for the two tests (common practice).
+  it.each(["pH(CaCl2)", "calcium chloride", "0.01M CaCl2", "0.01 M CaCl2"])("%s is the CaCl2 test", (w) => {
+    expect(nfixPhTest(w)).toBe("CaCl2");
+  });
+  it.each(["pHw", "pH(water)", "H2O", "deionised water", "deionized water"])("%s is the water test", (w) => {
+    expect(nfixPhTest(w)).toBe("water");
+  });
   it("blank is MISSING_INPUT; another test (KCl) is UNKNOWN_NAME listing CaCl2 or water", () => {
     expect(code(() => nfixSoilText("field pea", 5, " "))).toBe("MISSING_INPUT");
     expect(code(() => nfixSoilText("field pea", 5, "KCl"))).toBe("UNKNOWN_NAME");
