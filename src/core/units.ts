@@ -77,6 +77,7 @@ const REFUSED = new Map<string, RefusedRow>(
 export const REFUSED_UNIT_WORDS: readonly string[] = (unitData.refused as RefusedRow[]).flatMap((r) => r.words);
 
 /** A spelling without its spaces, so "mg kg-1" and "mgkg-1" compare as one word. */
+// Stryker disable next-line Regex: equivalent for /\s/g: a global replace removes a run of spaces one by one too
 const compact = (w: string) => w.replace(/\s+/g, "");
 /** Every spelling of each unit, as the table writes it, to check the case of an SI prefix against. */
 const SPELLINGS = new Map<UnitDef, string[]>(
@@ -94,7 +95,7 @@ function prefixCaseDiffers(word: string, u: UnitDef): boolean {
   const typed = prefixes(w);
   if (!typed) return false;
   // Stryker disable next-line ArrayDeclaration: equivalent: SPELLINGS holds every unit the table returns, so the fallback list is never used
-  return !(SPELLINGS.get(u) ?? []).map(compact).some((s) => s.length === w.length && s.toLowerCase() === w.toLowerCase() && prefixes(s) === typed);
+  return !(SPELLINGS.get(u) ?? []).map(compact).some((s) => s.toLowerCase() === w.toLowerCase() && prefixes(s) === typed);
 }
 
 const PREFIX_CASE: RefusedRow = {
@@ -129,6 +130,7 @@ function classify(word: string): Found {
 /** The unit a typed word names: a cased spelling exactly, else case-insensitively; undefined if none. */
 function findUnit(word: string, argName: string): UnitDef | undefined {
   let found = seen.get(word);
+  // Stryker disable next-line ConditionalExpression: equivalent for true: the memo only saves work; a word classified again is the same unit
   if (found === undefined) {
     found = classify(word);
     // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent: the cap only bounds the memo's memory; a word not remembered is classified again to the same unit
